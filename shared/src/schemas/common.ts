@@ -1,0 +1,49 @@
+import { z } from 'zod';
+
+export const idSchema = z.uuid({ message: 'Must be a valid id.' });
+export const idParamsSchema = z.object({ id: idSchema });
+
+/** A non-negative decimal written as a string, with at most `dp` decimals: never a float. */
+export const decimalString = (dp: number, label = 'Value') =>
+  z
+    .string()
+    .trim()
+    .regex(dp === 0 ? /^\d{1,12}$/ : new RegExp(`^\\d{1,12}(\\.\\d{1,${dp}})?$`), {
+      message: dp === 0 ? `${label} must be a whole number.` : `${label} must be a number with at most ${dp} decimals.`,
+    });
+
+export const isoDate = z.iso.date({ message: 'Use a date like 2026-12-01.' });
+
+const trimmed = (min: number, max: number, label: string) =>
+  z
+    .string()
+    .trim()
+    .min(min, { message: min <= 1 ? `${label} is required.` : `${label} needs at least ${min} characters.` })
+    .max(max, { message: `${label} must be at most ${max} characters.` });
+export const requiredText = trimmed;
+export const optionalText = (max: number, label: string) =>
+  z.string().trim().max(max, { message: `${label} must be at most ${max} characters.` }).optional().default('');
+
+export const emailSchema = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .max(254, { message: 'E-mail must be at most 254 characters.' })
+  .pipe(z.email({ message: 'Enter a valid e-mail address.' }));
+
+/** Shared list query for tables that search, sort and page on the server. */
+export const listQuerySchema = z.object({
+  q: z.string().trim().max(100).optional().default(''),
+  sort: z.string().trim().max(40).optional(),
+  dir: z.enum(['asc', 'desc']).optional().default('asc'),
+  page: z.coerce.number().int().min(1).max(100000).optional().default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).optional().default(20),
+});
+export type ListQuery = z.output<typeof listQuerySchema>;
+
+export interface Page<T> {
+  items: T[];
+  total: number;
+  page: number;
+  pageSize: number;
+}

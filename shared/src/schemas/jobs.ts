@@ -1,0 +1,88 @@
+import { z } from 'zod';
+import { JOB_STATES, type JobState } from '../states.js';
+import { idSchema, isoDate, listQuerySchema, optionalText } from './common.js';
+
+/** Kinds of visit. Templates with scope and checklist arrive with the estimates work. */
+export const JOB_TYPES = [
+  'annual_permit_inspection',
+  'engine_service_100h',
+  'engine_service_200h',
+  'wing_strip_recover',
+  'gearbox_inspection',
+  'repair',
+  'other',
+] as const;
+export type JobType = (typeof JOB_TYPES)[number];
+export const JOB_TYPE_LABELS: Record<JobType, string> = {
+  annual_permit_inspection: 'Annual permit inspection',
+  engine_service_100h: '100-hour engine service',
+  engine_service_200h: '200-hour engine service',
+  wing_strip_recover: 'Wing strip inspection and re-cover',
+  gearbox_inspection: 'Gearbox inspection',
+  repair: 'Repair',
+  other: 'Other work',
+};
+
+export const jobCreateSchema = z
+  .object({
+    aircraftId: idSchema,
+    title: z.string().trim().min(1, { message: 'Title is required.' }).max(160),
+    type: z.enum(JOB_TYPES),
+    bookedInOn: isoDate,
+    dueOn: isoDate.optional().nullable().default(null),
+    notes: optionalText(4000, 'Notes'),
+  })
+  .refine((v) => !v.dueOn || v.dueOn >= v.bookedInOn, { path: ['dueOn'], message: 'The due date cannot be before booking in.' });
+export type JobCreateInput = z.input<typeof jobCreateSchema>;
+export type JobCreate = z.output<typeof jobCreateSchema>;
+
+export const jobUpdateSchema = z.object({
+  version: z.number().int().min(0),
+  title: z.string().trim().min(1, { message: 'Title is required.' }).max(160).optional(),
+  type: z.enum(JOB_TYPES).optional(),
+  bookedInOn: isoDate.optional(),
+  dueOn: isoDate.nullable().optional(),
+  notes: z.string().trim().max(4000).optional(),
+});
+export type JobUpdateInput = z.input<typeof jobUpdateSchema>;
+
+export const jobTransitionSchema = z.object({
+  to: z.enum(JOB_STATES),
+  version: z.number().int().min(0),
+  reason: z.string().trim().max(500).optional().default(''),
+});
+export type JobTransitionInput = z.input<typeof jobTransitionSchema>;
+
+export const jobListQuerySchema = listQuerySchema.extend({
+  state: z.enum(JOB_STATES).optional(),
+  aircraftId: idSchema.optional(),
+});
+
+export interface JobDto {
+  id: string;
+  number: string;
+  aircraftId: string;
+  registration: string;
+  aircraftType: string;
+  customerId: string;
+  customerName: string;
+  title: string;
+  type: JobType;
+  state: JobState;
+  bookedInOn: string;
+  dueOn: string | null;
+  notes: string;
+  version: number;
+  createdAt: string;
+  updatedAt: string;
+}
+
+export interface AuditEventDto {
+  id: string;
+  at: string;
+  actorName: string | null;
+  actorRole: string | null;
+  action: string;
+  summary: string;
+  detail: Record<string, unknown>;
+}

@@ -1,0 +1,48 @@
+import { z } from 'zod';
+import { ROLES, STAFF_ROLES, type Role } from '../roles.js';
+import { emailSchema, idSchema } from './common.js';
+
+export interface UserDto {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  active: boolean;
+  /** Set for owners: the owner contact this sign-in belongs to. */
+  customerId: string | null;
+  /** True until the invitation is accepted. */
+  invited: boolean;
+  createdAt: string;
+}
+
+export interface SessionDto {
+  user: UserDto;
+  workshop: { id: string; name: string; currency: string };
+  /** Echo in the X-CSRF-Token header on every write. Also set as the readable cookie ws_csrf. */
+  csrfToken: string;
+}
+
+/** Admin invites staff (any staff role); a manager invites owners (role owner + customerId). */
+export const invitationCreateSchema = z.discriminatedUnion('role', [
+  z.object({
+    role: z.enum(STAFF_ROLES),
+    email: emailSchema,
+    name: z.string().trim().min(1, { message: 'Name is required.' }).max(120),
+  }),
+  z.object({
+    role: z.literal('owner'),
+    email: emailSchema,
+    name: z.string().trim().min(1, { message: 'Name is required.' }).max(120),
+    customerId: idSchema,
+  }),
+]);
+export type InvitationCreateInput = z.infer<typeof invitationCreateSchema>;
+
+export const userUpdateSchema = z
+  .object({
+    role: z.enum(ROLES).optional(),
+    active: z.boolean().optional(),
+    name: z.string().trim().min(1).max(120).optional(),
+  })
+  .refine((v) => Object.keys(v).length > 0, { message: 'Nothing to change.' });
+export type UserUpdateInput = z.infer<typeof userUpdateSchema>;

@@ -1,0 +1,77 @@
+/**
+ * Allowed state transitions, declared once and enforced by the server's services.
+ * The client uses the same tables to decide which actions to offer.
+ */
+
+export const JOB_STATES = [
+  'booked_in',
+  'inspecting',
+  'awaiting_owner',
+  'in_work',
+  'ready_for_release',
+  'invoiced',
+  'paid',
+  'closed',
+  'cancelled',
+] as const;
+export type JobState = (typeof JOB_STATES)[number];
+
+export const JOB_STATE_LABELS: Record<JobState, string> = {
+  booked_in: 'Booked in',
+  inspecting: 'Inspecting',
+  awaiting_owner: 'Awaiting owner',
+  in_work: 'In work',
+  ready_for_release: 'Ready for release',
+  invoiced: 'Invoiced',
+  paid: 'Paid',
+  closed: 'Closed',
+  cancelled: 'Cancelled',
+};
+
+/** from → the states it may move to. Cancelled is possible only before invoicing. */
+export const JOB_TRANSITIONS: Record<JobState, readonly JobState[]> = {
+  booked_in: ['inspecting', 'cancelled'],
+  inspecting: ['awaiting_owner', 'in_work', 'cancelled'],
+  awaiting_owner: ['in_work', 'inspecting', 'cancelled'],
+  in_work: ['awaiting_owner', 'ready_for_release', 'cancelled'],
+  ready_for_release: ['in_work', 'invoiced', 'cancelled'],
+  invoiced: ['paid'],
+  paid: ['closed'],
+  closed: [],
+  cancelled: [],
+};
+
+/** The button label for moving a job into each state (vocabulary.md, "Actions"). */
+export const JOB_TRANSITION_ACTIONS: Record<JobState, string> = {
+  booked_in: 'Book in',
+  inspecting: 'Start inspection',
+  awaiting_owner: 'Wait for owner',
+  in_work: 'Start work',
+  ready_for_release: 'Mark ready for release',
+  invoiced: 'Mark invoiced',
+  paid: 'Mark paid',
+  closed: 'Close job',
+  cancelled: 'Cancel job',
+};
+
+export type TransitionCheck = { ok: true } | { ok: false; reason: string };
+
+export function canTransition(from: JobState, to: JobState): TransitionCheck {
+  if (from === to) return { ok: false, reason: `The job is already ${JOB_STATE_LABELS[to].toLowerCase()}.` };
+  if (JOB_TRANSITIONS[from].includes(to)) return { ok: true };
+  if (to === 'cancelled') {
+    return { ok: false, reason: 'A job can be cancelled only before it is invoiced.' };
+  }
+  return {
+    ok: false,
+    reason: `A job that is ${JOB_STATE_LABELS[from].toLowerCase()} cannot move to ${JOB_STATE_LABELS[to].toLowerCase()}.`,
+  };
+}
+
+export function nextJobStates(from: JobState): readonly JobState[] {
+  return JOB_TRANSITIONS[from];
+}
+
+export function isTerminalJobState(state: JobState): boolean {
+  return JOB_TRANSITIONS[state].length === 0;
+}
