@@ -9,7 +9,7 @@ export const decimalString = (dp: number, label = 'Value') =>
     .string()
     .trim()
     .regex(dp === 0 ? /^\d{1,12}$/ : new RegExp(`^\\d{1,12}(\\.\\d{1,${dp}})?$`), {
-      message: dp === 0 ? `${label} must be a whole number.` : `${label} must be a number with at most ${dp} decimals.`,
+      message: dp === 0 ? `${label} must be a whole number.` : `${label} must be a number with at most ${dp === 1 ? 'one decimal' : `${dp} decimals`}.`,
     });
 
 export const isoDate = z.iso.date({ message: 'Use a date like 2026-12-01.' });
