@@ -3,6 +3,7 @@
 # Everything lives under .local/ inside the project (git-ignored) and listens on 127.0.0.1 only.
 set -euo pipefail
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+SCRIPTS="$ROOT/docker-free-scripts"
 LOCAL_DIR="${WS_LOCAL_DIR:-$ROOT/.local}"
 # "dev" for npm start, "test" for npm test: separate ports, data and databases.
 WS_PROFILE="${WS_PROFILE:-dev}"
@@ -17,3 +18,76 @@ LOG_DIR="$LOCAL_DIR/logs"
 mkdir -p "$LOCAL_DIR" "$RUN_DIR" "$LOG_DIR"
 export WS_PROFILE WS_PG_PORT WS_APP_PORT WS_SMTP_PORT WS_MAIL_WEB_PORT WS_DB_NAME
 say() { printf '[wingstage] %s\n' "$*"; }
+die() { printf '[wingstage] error: %s\n' "$*" >&2; exit 1; }
+
+# True when something accepts TCP connections on 127.0.0.1:$1 (bash's /dev/tcp: no extra tools needed).
+port_open() { (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
+
+# True when the pid in file $1 names a live process.
+pid_alive() {
+  local pid
+  [ -s "$1" ] || return 1
+  pid="$(cat "$1")"
+  [ -n "$pid" ] && kill -0 "$pid" 2>/dev/null
+}
+
+# wait_http URL SECONDS [PID_FILE]: poll until the URL answers 2xx; give up early if the process died.
+wait_http() {
+  local url="$1" limit="$2" pidfile="${3:-}" i=0
+  while [ "$i" -lt $((limit * 4)) ]; do
+    if curl -fsS -o /dev/null --max-time 2 "$url" 2>/dev/null; then return 0; fi
+    if [ -n "$pidfile" ] && ! pid_alive "$pidfile"; then return 1; fi
+    sleep 0.25; i=$((i + 1))
+  done
+  return 1
+}
+
+# Each service runs in its own session (setsid), so its pid is also its process-group id and a stop
+# reaches the whole tree (npm → tsx → node) without touching anything else on the machine.
+stop_pidfile() {
+  local pidfile="$1" what="$2" pid i
+  if ! pid_alive "$pidfile"; then rm -f "$pidfile"; return 0; fi
+  pid="$(cat "$pidfile")"
+  kill -TERM -- "-$pid" 2>/dev/null || kill -TERM "$pid" 2>/dev/null || true
+  for i in $(seq 1 40); do kill -0 "$pid" 2>/dev/null || break; sleep 0.25; done
+  if kill -0 "$pid" 2>/dev/null; then kill -KILL -- "-$pid" 2>/dev/null || kill -KILL "$pid" 2>/dev/null || true; fi
+  rm -f "$pidfile"
+  say "$what stopped"
+}
+
+# Secrets are generated once per profile and never committed (.local/ is git-ignored).
+load_secrets() {
+  local file="$LOCAL_DIR/secrets-$WS_PROFILE.env"
+  # A secret given by the caller wins (npm test hands each run a fresh one).
+  [ -n "${JWT_SECRET:-}" ] && return 0
+  if [ ! -s "$file" ]; then
+    (umask 077; printf 'JWT_SECRET=%s\n' "$(node -e 'process.stdout.write(require("crypto").randomBytes(48).toString("base64url"))')" >"$file")
+  fi
+  set -a; source "$file"; set +a
+}
+
+# Postgres binaries from Debian's packages (newest installed major).
+pg_bin() {
+  local v
+  for v in 17 16 15; do
+    if [ -x "/usr/lib/postgresql/$v/bin/pg_ctl" ]; then echo "/usr/lib/postgresql/$v/bin"; return; fi
+  done
+  return 1
+}
+
+psql_local() { "$(pg_bin)/psql" -h 127.0.0.1 -p "$WS_PG_PORT" -U postgres -v ON_ERROR_STOP=1 -qtA "$@"; }
+
+# The environment the server reads (names fixed by the server's config).
+app_env() {
+  load_secrets
+  export NODE_ENV="${NODE_ENV:-$([ "$WS_PROFILE" = test ] && echo test || echo development)}"
+  export HOST=127.0.0.1 PORT="$WS_APP_PORT"
+  export APP_URL="http://127.0.0.1:$WS_APP_PORT"
+  export DATABASE_URL="${DATABASE_URL:-postgres://postgres@127.0.0.1:$WS_PG_PORT/$WS_DB_NAME}"
+  export SMTP_HOST=127.0.0.1 SMTP_PORT="$WS_SMTP_PORT"
+  export MAIL_FROM="${MAIL_FROM:-Wingstage <no-reply@wingstage.example>}"
+  export CLIENT_DIST="$ROOT/client/dist"
+  export LOG_LEVEL="${LOG_LEVEL:-info}"
+  # Plain http on loopback: a Secure cookie would not be sent back over it.
+  export COOKIE_SECURE="${COOKIE_SECURE:-false}"
+}

@@ -1,18 +1,13 @@
 #!/usr/bin/env bash
 # PostgreSQL from Debian's packages, in a project-local data folder, on 127.0.0.1:$WS_PG_PORT.
-# Usage: postgres.sh start|stop|status|ensure-db NAME.  Idempotent: a second start finds it running.
+# Usage: postgres.sh start|stop|status|ensure-db NAME|recreate-db NAME
+# Idempotent: a second start finds it running. A start that really starts it leaves
+# $RUN_DIR/postgres.started, so `npm run stop` knows it may stop it.
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
-
-pg_bin() {
-  local v
-  for v in 17 16 15; do
-    if [ -x "/usr/lib/postgresql/$v/bin/pg_ctl" ]; then echo "/usr/lib/postgresql/$v/bin"; return; fi
-  done
-  return 1
-}
 
 install_pg() {
   if ! pg_bin >/dev/null; then
+    [ "$(id -u)" = "0" ] || die "PostgreSQL is missing; run as root or: apt-get install -y postgresql"
     say "PostgreSQL is not installed: installing it from Debian's packages"
     export DEBIAN_FRONTEND=noninteractive
     apt-get update -qq
@@ -24,6 +19,11 @@ as_pg() {
   if [ "$(id -u)" = "0" ]; then runuser -u postgres -- "$@"; else "$@"; fi
 }
 
+running() { [ -s "$PG_DIR/PG_VERSION" ] && as_pg "$(pg_bin)/pg_ctl" -D "$PG_DIR" status >/dev/null 2>&1; }
+
+# Line 4 of postmaster.pid is the port the running server listens on.
+running_port() { sed -n 4p "$PG_DIR/postmaster.pid" 2>/dev/null | tr -d '[:space:]'; }
+
 start() {
   install_pg
   local bin; bin="$(pg_bin)"
@@ -32,41 +32,60 @@ start() {
     local d="$PG_DIR"; while [ "$d" != "/" ]; do chmod o+x "$d" 2>/dev/null || true; d="$(dirname "$d")"; done
   fi
   if [ ! -s "$PG_DIR/PG_VERSION" ]; then
-    mkdir -p "$PG_DIR"; [ "$(id -u)" = "0" ] && chown postgres:postgres "$PG_DIR"; chmod 700 "$PG_DIR"
-    say "initialising PostgreSQL in ${PG_DIR#$ROOT/}"
+    mkdir -p "$PG_DIR"; if [ "$(id -u)" = "0" ]; then chown postgres:postgres "$PG_DIR"; fi; chmod 700 "$PG_DIR"
+    say "initialising PostgreSQL in ${PG_DIR#"$ROOT"/}"
     as_pg "$bin/initdb" -D "$PG_DIR" -A trust -U postgres -E UTF8 --locale=C.UTF-8 >/dev/null
   fi
-  if as_pg "$bin/pg_ctl" -D "$PG_DIR" status >/dev/null 2>&1; then
+  if running; then
+    local port; port="$(running_port)"
+    [ "$port" = "$WS_PG_PORT" ] || die "the $WS_PROFILE PostgreSQL in ${PG_DIR#"$ROOT"/} already runs on port $port, not $WS_PG_PORT; stop it first (WS_PG_PORT=$port $0 stop)"
     say "PostgreSQL already running on 127.0.0.1:$WS_PG_PORT"
-  else
-    touch "$LOG_DIR/postgres-$WS_PROFILE.log"; [ "$(id -u)" = "0" ] && chown postgres "$LOG_DIR/postgres-$WS_PROFILE.log"
-    as_pg "$bin/pg_ctl" -D "$PG_DIR" -l "$LOG_DIR/postgres-$WS_PROFILE.log" -w -t 60 \
-      -o "-p $WS_PG_PORT -k $PG_DIR -c listen_addresses=127.0.0.1 -c max_connections=200 $([ "$WS_PROFILE" = test ] && echo "-c fsync=off -c synchronous_commit=off")" start >/dev/null
-    say "PostgreSQL started on 127.0.0.1:$WS_PG_PORT"
+    return 0
   fi
+  if port_open "$WS_PG_PORT"; then
+    die "port $WS_PG_PORT is taken by another program; pick another with WS_PG_PORT=…"
+  fi
+  local log="$LOG_DIR/postgres-$WS_PROFILE.log"
+  touch "$log"; if [ "$(id -u)" = "0" ]; then chown postgres "$log"; fi
+  # The test profile trades durability for speed: its data is thrown away anyway.
+  local extra=""; [ "$WS_PROFILE" = test ] && extra="-c fsync=off -c synchronous_commit=off -c full_page_writes=off"
+  as_pg "$bin/pg_ctl" -D "$PG_DIR" -l "$log" -w -t 60 \
+    -o "-p $WS_PG_PORT -k $PG_DIR -c listen_addresses=127.0.0.1 -c max_connections=200 $extra" start >/dev/null \
+    || die "PostgreSQL did not start; see ${log#"$ROOT"/}"
+  touch "$RUN_DIR/postgres.started"
+  say "PostgreSQL started on 127.0.0.1:$WS_PG_PORT"
 }
 
 ensure_db() {
   local name="$1"
-  local psql=("$(pg_bin)/psql" -h 127.0.0.1 -p "$WS_PG_PORT" -U postgres -v ON_ERROR_STOP=1 -qtA)
-  if [ "$("${psql[@]}" -d postgres -c "select 1 from pg_database where datname='$name'")" != "1" ]; then
-    "${psql[@]}" -d postgres -c "create database \"$name\"" >/dev/null
+  if [ "$(psql_local -d postgres -c "select 1 from pg_database where datname='$name'")" != "1" ]; then
+    psql_local -d postgres -c "create database \"$name\"" >/dev/null
     say "created database $name"
   fi
 }
 
+recreate_db() {
+  local name="$1"
+  # WITH (FORCE) ends leftover sessions from an earlier run that died mid-way.
+  psql_local -d postgres -c "drop database if exists \"$name\" with (force)" >/dev/null
+  psql_local -d postgres -c "create database \"$name\"" >/dev/null
+  say "created a fresh database $name"
+}
+
 stop() {
-  local bin; bin="$(pg_bin)" || return 0
-  if [ -s "$PG_DIR/PG_VERSION" ] && as_pg "$bin/pg_ctl" -D "$PG_DIR" status >/dev/null 2>&1; then
-    as_pg "$bin/pg_ctl" -D "$PG_DIR" -m fast -w stop >/dev/null
+  pg_bin >/dev/null || return 0
+  if running; then
+    as_pg "$(pg_bin)/pg_ctl" -D "$PG_DIR" -m fast -w stop >/dev/null
     say "PostgreSQL stopped ($WS_PROFILE)"
   fi
+  rm -f "$RUN_DIR/postgres.started"
 }
 
 case "${1:-}" in
   start) start ;;
   stop) stop ;;
-  status) as_pg "$(pg_bin)/pg_ctl" -D "$PG_DIR" status ;;
+  status) if running; then echo "running on 127.0.0.1:$(running_port)"; else echo "stopped"; exit 3; fi ;;
   ensure-db) ensure_db "${2:?database name}" ;;
-  *) echo "usage: $0 start|stop|status|ensure-db NAME" >&2; exit 2 ;;
+  recreate-db) recreate_db "${2:?database name}" ;;
+  *) echo "usage: $0 start|stop|status|ensure-db NAME|recreate-db NAME" >&2; exit 2 ;;
 esac

@@ -1,0 +1,113 @@
+#!/usr/bin/env bash
+# npm test: the same set-up as npm start on the test profile (own ports, own PostgreSQL data folder,
+# own databases), then every test: vitest (shared, server, client) and the Playwright journeys
+# against the built app in Debian's Chromium. Prints which stage failed and exits non-zero if any did.
+#
+#   npm test                      everything
+#   npm test -- --only unit       vitest only (extra arguments go to vitest)
+#   npm test -- --only e2e smoke  Playwright only (extra arguments go to playwright test)
+#   WS_KEEP_SERVICES=1 npm test   leave PostgreSQL and maildev running afterwards (faster reruns)
+# The WS_* port overrides of lib.sh apply here too.
+export WS_PROFILE=test
+source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
+
+only=""
+if [ "${1:-}" = "--only" ]; then only="${2:?--only unit|e2e}"; shift 2; fi
+case "$only" in ""|unit|e2e) ;; *) die "--only takes unit or e2e, not '$only'" ;; esac
+: "${WS_E2E_DB:=wingstage_e2e}"
+
+began=$(date +%s)
+results=()
+failed=0
+started_pg=0 started_mail=0 started_app=0
+
+record() { # stage status seconds
+  results+=("$(printf '  %-22s %-7s %4ss' "$1" "$2" "$3")")
+  [ "$2" = passed ] || [ "$2" = skipped ] || failed=1
+}
+
+cleanup() {
+  local rc=$?
+  set +e
+  [ "$started_app" = 1 ] && bash "$SCRIPTS/app.sh" stop >/dev/null
+  if [ "${WS_KEEP_SERVICES:-0}" != 1 ]; then
+    [ "$started_mail" = 1 ] && bash "$SCRIPTS/maildev.sh" stop
+    [ "$started_pg" = 1 ] && bash "$SCRIPTS/postgres.sh" stop
+  fi
+  echo
+  say "test summary (profile test, total $(( $(date +%s) - began )) s)"
+  if [ "${#results[@]}" -gt 0 ]; then printf '%s\n' "${results[@]}"; fi
+  if [ "$failed" = 1 ] || [ "$rc" != 0 ]; then
+    say "FAILED — logs in .local/logs/, Playwright report in e2e/playwright-report/"
+    exit 1
+  fi
+  say "all stages passed"
+}
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+# Set-up failures stop the run: nothing after them can mean anything.
+stage_setup() {
+  local t=$(date +%s)
+  bash "$SCRIPTS/ensure-deps.sh" --test || return 1
+  bash "$SCRIPTS/postgres.sh" status >/dev/null 2>&1 || started_pg=1
+  bash "$SCRIPTS/postgres.sh" start || return 1
+  bash "$SCRIPTS/postgres.sh" ensure-db "$WS_DB_NAME" || return 1
+  curl -fsS -o /dev/null --max-time 2 "http://127.0.0.1:$WS_MAIL_WEB_PORT/api/healthz" 2>/dev/null || started_mail=1
+  bash "$SCRIPTS/maildev.sh" start || return 1
+  record "set-up" passed $(( $(date +%s) - t ))
+}
+if ! stage_setup; then record "set-up" failed 0; exit 1; fi
+
+# A fresh secret per run: no test can depend on a token minted by an earlier one.
+export JWT_SECRET="$(node -e 'process.stdout.write(require("crypto").randomBytes(48).toString("base64url"))')"
+export NODE_ENV=test LOG_LEVEL="${LOG_LEVEL:-warn}"
+export SIGNIN_ACCOUNT_LIMIT="${SIGNIN_ACCOUNT_LIMIT:-1000}" SIGNIN_ADDRESS_LIMIT="${SIGNIN_ADDRESS_LIMIT:-1000}"
+app_env
+# API tests make their own databases from this server; mail goes to the test maildev.
+export TEST_DATABASE_URL="postgres://postgres@127.0.0.1:$WS_PG_PORT/postgres"
+export MAILDEV_API_URL="http://127.0.0.1:$WS_MAIL_WEB_PORT"
+export E2E_BASE_URL="http://127.0.0.1:$WS_APP_PORT"
+export E2E_MAILDEV_URL="$MAILDEV_API_URL"
+cd "$ROOT"
+
+run_unit() {
+  local t=$(date +%s)
+  say "unit and API tests (vitest)"
+  if npx vitest run "$@"; then record "vitest" passed $(( $(date +%s) - t ))
+  else record "vitest" failed $(( $(date +%s) - t )); fi
+}
+
+run_e2e() {
+  local t=$(date +%s)
+  # Two runs in one checkout would share port $WS_APP_PORT and the e2e database: take turns.
+  exec 9>"$RUN_DIR/e2e.lock"
+  if ! flock -n 9; then say "another npm test is in its browser stage here; waiting for it"; flock -w 1800 9 || { record "e2e set-up" failed 0; return; }; fi
+  if ! bash "$SCRIPTS/build-client.sh"; then record "client build" failed $(( $(date +%s) - t )); return; fi
+  export DATABASE_URL="postgres://postgres@127.0.0.1:$WS_PG_PORT/$WS_E2E_DB"
+  export E2E_DATABASE_URL="$DATABASE_URL"
+  if ! { bash "$SCRIPTS/postgres.sh" recreate-db "$WS_E2E_DB" \
+      && npm run --silent migrate -w server >"$LOG_DIR/migrate-e2e.log" 2>&1 \
+      && npm run --silent seed -w server >"$LOG_DIR/seed-e2e.log" 2>&1; }; then
+    tail -n 30 "$LOG_DIR/migrate-e2e.log" "$LOG_DIR/seed-e2e.log" 2>/dev/null >&2
+    record "e2e database" failed $(( $(date +%s) - t )); return
+  fi
+  if bash "$SCRIPTS/app.sh" status >/dev/null 2>&1; then
+    record "e2e app" failed 0; say "an app from an earlier run still holds the test pid file; run: WS_PROFILE=test npm run stop" >&2; return
+  fi
+  started_app=1
+  if ! bash "$SCRIPTS/app.sh" start; then record "e2e app start" failed $(( $(date +%s) - t )); return; fi
+  record "e2e set-up" passed $(( $(date +%s) - t ))
+  t=$(date +%s)
+  say "browser journeys (Playwright, Chromium at /usr/bin/chromium)"
+  if npx playwright test -c e2e/playwright.config.ts "$@"; then record "playwright" passed $(( $(date +%s) - t ))
+  else record "playwright" failed $(( $(date +%s) - t )); fi
+  bash "$SCRIPTS/app.sh" stop >/dev/null; started_app=0
+  flock -u 9
+}
+
+case "$only" in
+  unit) run_unit "$@"; record "playwright" skipped 0 ;;
+  e2e) record "vitest" skipped 0; run_e2e "$@" ;;
+  *) run_unit; run_e2e ;;
+esac
