@@ -9,3 +9,5 @@ export * from './schemas/aircraft.js';
 export * from './schemas/jobs.js';
 export * from './schemas/workshop.js';
 // pricing engine (money.ts, pricing/) — exported below
+export * from './money.js';
+export * from './pricing/index.js';

@@ -1,0 +1,388 @@
+import { Dec, MoneyError, formatAmount, minorUnits, parseAmount, parseDecimal, roundHalfUp } from '../money.js';
+import type { WorkshopDto } from '../schemas/workshop.js';
+import {
+  ESTIMATE_STAGES,
+  LINE_KINDS,
+  VAT_RATE_CODES,
+  type EstimateInput,
+  type EstimateLineInput,
+  type EstimateStage,
+  type LineKind,
+  type PricedAccessTask,
+  type PricedEstimate,
+  type PricedFinding,
+  type PricedLine,
+  type Totals,
+  type VatRateCode,
+  type WorkshopPricing,
+} from './types.js';
+import { assertVatRounding, computeVat, parseVatRate, roundLineVat, type VatItem, type VatRounding } from './vat.js';
+
+const HUNDRED = new Dec(100);
+const ZERO = new Dec(0);
+
+/** The pricing-relevant part of a workshop's settings. */
+export function workshopPricingFrom(w: Pick<WorkshopDto, 'currency' | 'vatRates' | 'settings'>): WorkshopPricing {
+  return {
+    currency: w.currency,
+    vatRounding: w.settings.vatRounding,
+    vatRates: w.vatRates,
+    partsMarkupPercent: w.settings.partsMarkupPercent,
+    subcontractMarkupPercent: w.settings.subcontractMarkupPercent,
+  };
+}
+
+/** Settings parsed once per call, so the per-line loop never re-parses them. */
+export interface PricingContext {
+  currency: string;
+  dp: number;
+  rounding: VatRounding;
+  rates: Record<VatRateCode, Dec>;
+  rateStrings: Record<VatRateCode, string>;
+  partsMarkup: Dec;
+  subcontractMarkup: Dec;
+}
+
+export function pricingContext(p: WorkshopPricing): PricingContext {
+  if (!p || typeof p !== 'object') throw new MoneyError('invalid_input', 'workshop pricing settings are required.', 'pricing');
+  const dp = minorUnits(p.currency);
+  assertVatRounding(p.vatRounding);
+  const rates: Record<VatRateCode, Dec> = {
+    standard: parseVatRate(p.vatRates?.standard, 'pricing.vatRates.standard'),
+    reduced: parseVatRate(p.vatRates?.reduced, 'pricing.vatRates.reduced'),
+    zero: parseVatRate(p.vatRates?.zero, 'pricing.vatRates.zero'),
+    exempt: ZERO,
+    outside: ZERO,
+  };
+  if (!rates.zero.isZero()) throw new MoneyError('out_of_range', 'the zero rate must be 0.', 'pricing.vatRates.zero');
+  const rateStrings = Object.fromEntries(VAT_RATE_CODES.map((c) => [c, rates[c].toString()])) as Record<VatRateCode, string>;
+  return {
+    currency: p.currency,
+    dp,
+    rounding: p.vatRounding,
+    rates,
+    rateStrings,
+    partsMarkup: parseDecimal(p.partsMarkupPercent, 'pricing.partsMarkupPercent'),
+    subcontractMarkup: parseDecimal(p.subcontractMarkupPercent, 'pricing.subcontractMarkupPercent'),
+  };
+}
+
+function oneOf<T extends string>(allowed: readonly T[], v: unknown, path: string): T {
+  if (!(allowed as readonly unknown[]).includes(v)) {
+    throw new MoneyError('invalid_input', `"${String(v)}" is not one of ${allowed.join(', ')}.`, path);
+  }
+  return v as T;
+}
+
+function optionalId(v: unknown, path: string): string | null {
+  if (v === undefined || v === null) return null;
+  if (typeof v !== 'string' || v.length === 0) throw new MoneyError('invalid_input', 'must be a non-empty string id.', path);
+  return v;
+}
+
+function requiredId(v: unknown, path: string): string {
+  const id = optionalId(v, path);
+  if (id === null) throw new MoneyError('invalid_input', 'an id is required.', path);
+  return id;
+}
+
+/** A line's price before discount, and its cost to the workshop where it has one. */
+interface LineBase {
+  list: Dec;
+  cost: Dec | null;
+}
+
+/**
+ * Each line is rounded once, to the nearest minor unit (half up), after its own multiplication;
+ * a line on a VAT invoice shows an amount in whole pence [practice: line amounts are shown and
+ * stored in the currency's minor unit; VAT Notice 700 §16.3 lists the line amount excl. VAT].
+ */
+function lineBase(line: EstimateLineInput, ctx: PricingContext, path: string): LineBase {
+  const { currency, dp } = ctx;
+  switch (line.kind) {
+    case 'labour': {
+      const hours = parseDecimal(line.hours, `${path}.hours`);
+      const rate = parseAmount(line.ratePerHour, currency, `${path}.ratePerHour`);
+      return { list: roundHalfUp(hours.times(rate), dp), cost: null };
+    }
+    case 'part': {
+      const qty = parseDecimal(line.quantity, `${path}.quantity`);
+      const hasPrice = line.unitPrice !== undefined && line.unitPrice !== null;
+      const hasCost = line.unitCost !== undefined && line.unitCost !== null;
+      if (!hasPrice && !hasCost) throw new MoneyError('invalid_input', 'a part needs a unit cost or a fixed unit price.', path);
+      // Unit costs may carry fractions of a penny (bulk fasteners), so they are not held to minor units.
+      const cost = hasCost ? roundHalfUp(qty.times(parseDecimal(line.unitCost, `${path}.unitCost`)), dp) : null;
+      if (hasPrice) {
+        return { list: roundHalfUp(qty.times(parseDecimal(line.unitPrice, `${path}.unitPrice`)), dp), cost };
+      }
+      const markup =
+        line.markupPercent === undefined || line.markupPercent === null ? ctx.partsMarkup : parseDecimal(line.markupPercent, `${path}.markupPercent`);
+      const unitCost = parseDecimal(line.unitCost, `${path}.unitCost`);
+      return { list: roundHalfUp(qty.times(unitCost).times(HUNDRED.plus(markup)).dividedBy(HUNDRED), dp), cost };
+    }
+    case 'subcontract': {
+      const cost = parseAmount(line.cost, currency, `${path}.cost`);
+      const markup =
+        line.markupPercent === undefined || line.markupPercent === null
+          ? ctx.subcontractMarkup
+          : parseDecimal(line.markupPercent, `${path}.markupPercent`);
+      return { list: roundHalfUp(cost.times(HUNDRED.plus(markup)).dividedBy(HUNDRED), dp), cost };
+    }
+    case 'fee':
+      return { list: parseAmount(line.amount, currency, `${path}.amount`), cost: null };
+    default:
+      throw new MoneyError('invalid_input', `"${String((line as { kind?: unknown }).kind)}" is not one of ${LINE_KINDS.join(', ')}.`, `${path}.kind`);
+  }
+}
+
+function lineDiscount(line: EstimateLineInput, list: Dec, ctx: PricingContext, path: string): Dec {
+  const d = line.discount;
+  if (d === undefined || d === null) return ZERO;
+  if ('percent' in d) {
+    const pct = parseDecimal(d.percent, `${path}.discount.percent`);
+    if (pct.greaterThan(100)) throw new MoneyError('out_of_range', 'a discount cannot exceed 100%.', `${path}.discount.percent`);
+    return roundHalfUp(list.times(pct).dividedBy(HUNDRED), ctx.dp);
+  }
+  if ('amount' in d) {
+    const amt = parseAmount(d.amount, ctx.currency, `${path}.discount.amount`);
+    if (amt.greaterThan(list)) throw new MoneyError('out_of_range', 'a discount cannot exceed the line amount.', `${path}.discount.amount`);
+    return amt;
+  }
+  throw new MoneyError('invalid_input', 'a discount is { percent } or { amount }.', `${path}.discount`);
+}
+
+interface WorkLine {
+  id: string;
+  stage: EstimateStage;
+  kind: LineKind;
+  findingId: string | null;
+  accessTaskId: string | null;
+  code: VatRateCode;
+  rate: Dec;
+  list: Dec;
+  discount: Dec;
+  net: Dec;
+  cost: Dec | null;
+}
+
+interface WorkAccess {
+  id: string;
+  code: VatRateCode;
+  rate: Dec;
+  net: Dec;
+  stages: Set<EstimateStage>;
+  committedRemedies: Set<string>;
+  allRemedies: Set<string>;
+}
+
+/** Key for "one remedy": a finding, or the inspection scope / lines raised without a finding. */
+const SCOPE_REMEDY = '\u0000scope';
+
+function totals(items: VatItem[], ctx: PricingContext): Totals {
+  const r = computeVat(items, ctx.dp, ctx.rounding);
+  return {
+    net: formatAmount(r.net, ctx.dp),
+    vat: formatAmount(r.vat, ctx.dp),
+    gross: formatAmount(r.net.plus(r.vat), ctx.dp),
+    byRate: r.groups.map((g) => ({
+      code: g.key as VatRateCode,
+      rate: g.rate.toString(),
+      net: formatAmount(g.net, ctx.dp),
+      vat: formatAmount(g.vat, ctx.dp),
+    })),
+  };
+}
+
+const STAGE_PRIORITY: readonly EstimateStage[] = ['inspection', 'approved', 'discovered', 'declined'];
+
+/**
+ * Prices a staged estimate: every figure a screen, e-mail, PDF or payment needs. Pure and
+ * deterministic; totals do not depend on line order. Throws `MoneyError` on any invalid input.
+ */
+export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): PricedEstimate {
+  const ctx = pricingContext(pricing);
+  const { dp } = ctx;
+  if (!input || !Array.isArray(input.lines)) throw new MoneyError('invalid_input', 'an estimate needs a list of lines.', 'lines');
+
+  const access = new Map<string, WorkAccess>();
+  (input.accessTasks ?? []).forEach((t, i) => {
+    const path = `accessTasks[${i}]`;
+    const id = requiredId(t?.id, `${path}.id`);
+    if (access.has(id)) throw new MoneyError('invalid_input', `access task id "${id}" is used twice.`, `${path}.id`);
+    const code = oneOf(VAT_RATE_CODES, t.vatRate, `${path}.vatRate`);
+    const hours = parseDecimal(t.hours, `${path}.hours`);
+    const rate = parseAmount(t.ratePerHour, ctx.currency, `${path}.ratePerHour`);
+    access.set(id, {
+      id,
+      code,
+      rate: ctx.rates[code],
+      net: roundHalfUp(hours.times(rate), dp),
+      stages: new Set(),
+      committedRemedies: new Set(),
+      allRemedies: new Set(),
+    });
+  });
+
+  const seen = new Set<string>();
+  const work: WorkLine[] = input.lines.map((line, i) => {
+    const path = `lines[${i}]`;
+    if (!line || typeof line !== 'object') throw new MoneyError('invalid_input', 'a line must be an object.', path);
+    const id = requiredId(line.id, `${path}.id`);
+    if (seen.has(id)) throw new MoneyError('invalid_input', `line id "${id}" is used twice.`, `${path}.id`);
+    seen.add(id);
+    const stage = oneOf(ESTIMATE_STAGES, line.stage, `${path}.stage`);
+    const kind = oneOf(LINE_KINDS, line.kind, `${path}.kind`);
+    const code = oneOf(VAT_RATE_CODES, line.vatRate, `${path}.vatRate`);
+    const findingId = optionalId(line.findingId, `${path}.findingId`);
+    const accessTaskId = optionalId(line.accessTaskId, `${path}.accessTaskId`);
+    const { list, cost } = lineBase(line, ctx, path);
+    const discount = lineDiscount(line, list, ctx, path);
+    if (accessTaskId !== null) {
+      const task = access.get(accessTaskId);
+      if (!task) throw new MoneyError('invalid_input', `access task "${accessTaskId}" is not in accessTasks.`, `${path}.accessTaskId`);
+      task.stages.add(stage);
+      const remedy = findingId ?? SCOPE_REMEDY;
+      if (stage === 'inspection' || stage === 'approved') task.committedRemedies.add(remedy);
+      if (stage !== 'declined') task.allRemedies.add(remedy);
+    }
+    return { id, stage, kind, findingId, accessTaskId, code, rate: ctx.rates[code], list, discount, net: list.minus(discount), cost };
+  });
+
+  // Where each access task is paid for: the first stage in priority order that uses it.
+  const chargedIn = new Map<string, EstimateStage | null>();
+  for (const t of access.values()) chargedIn.set(t.id, STAGE_PRIORITY.find((s) => t.stages.has(s)) ?? null);
+
+  const stageItems: Record<EstimateStage, VatItem[]> = { inspection: [], discovered: [], approved: [], declined: [] };
+  for (const l of work) stageItems[l.stage].push({ key: l.code, rate: l.rate, net: l.net });
+  for (const t of access.values()) {
+    const s = chargedIn.get(t.id);
+    if (s) stageItems[s].push({ key: t.code, rate: t.rate, net: t.net });
+  }
+
+  const stages = {
+    inspection: totals(stageItems.inspection, ctx),
+    discovered: totals(stageItems.discovered, ctx),
+    approved: totals(stageItems.approved, ctx),
+    declined: totals(stageItems.declined, ctx),
+  };
+  const committedItems = stageItems.inspection.concat(stageItems.approved);
+  const committed = totals(committedItems, ctx);
+  const ifAllApproved = totals(committedItems.concat(stageItems.discovered), ctx);
+  const quoted = stages.inspection;
+
+  const perLine = ctx.rounding === 'line-nearest' || ctx.rounding === 'line-down-tenth';
+  const lineVat = (net: Dec, rate: Dec): string | null => {
+    if (!perLine) return null;
+    const v = roundLineVat(net.times(rate).dividedBy(HUNDRED), dp, ctx.rounding);
+    return ctx.rounding === 'line-nearest' ? formatAmount(v, dp) : v.toFixed(dp + 1);
+  };
+
+  const lines: PricedLine[] = work.map((l) => ({
+    id: l.id,
+    stage: l.stage,
+    kind: l.kind,
+    findingId: l.findingId,
+    accessTaskId: l.accessTaskId,
+    vatRate: l.code,
+    vatPercent: ctx.rateStrings[l.code],
+    cost: l.cost === null ? null : formatAmount(l.cost, dp),
+    listNet: formatAmount(l.list, dp),
+    discount: formatAmount(l.discount, dp),
+    net: formatAmount(l.net, dp),
+    vat: lineVat(l.net, l.rate),
+  }));
+
+  let savingNet = ZERO;
+  let savingGross = ZERO;
+  const accessTasks: PricedAccessTask[] = [...access.values()].map((t) => {
+    const n = t.committedRemedies.size;
+    const saving = n > 1 ? t.net.times(n - 1) : ZERO;
+    const gross = roundHalfUp(saving.times(HUNDRED.plus(t.rate)).dividedBy(HUNDRED), dp);
+    savingNet = savingNet.plus(saving);
+    savingGross = savingGross.plus(gross);
+    const all = t.allRemedies.size;
+    return {
+      id: t.id,
+      net: formatAmount(t.net, dp),
+      vatRate: t.code,
+      vatPercent: ctx.rateStrings[t.code],
+      chargedIn: chargedIn.get(t.id) ?? null,
+      committedRemedies: n,
+      saving: formatAmount(saving, dp),
+      savingGross: formatAmount(gross, dp),
+      remediesIfAllApproved: all,
+      savingIfAllApproved: formatAmount(all > 1 ? t.net.times(all - 1) : ZERO, dp),
+    };
+  });
+
+  const findings = priceFindings(work, access, ctx);
+  const undecidedFindings = findings.filter((f) => f.stage === 'discovered' || f.stage === 'mixed').length;
+
+  const change = {
+    net: formatAmount(new Dec(committed.net).minus(quoted.net), dp),
+    vat: formatAmount(new Dec(committed.vat).minus(quoted.vat), dp),
+    gross: formatAmount(new Dec(committed.gross).minus(quoted.gross), dp),
+  };
+
+  return {
+    currency: ctx.currency,
+    rounding: ctx.rounding,
+    lines,
+    accessTasks,
+    stages,
+    quoted,
+    committed,
+    change,
+    undecided: { ...stages.discovered, findings: undecidedFindings },
+    ifAllApproved,
+    accessSaving: { net: formatAmount(savingNet, dp), gross: formatAmount(savingGross, dp) },
+    findings,
+  };
+}
+
+function priceFindings(work: WorkLine[], access: Map<string, WorkAccess>, ctx: PricingContext): PricedFinding[] {
+  const byFinding = new Map<string, WorkLine[]>();
+  // Which remedies already pay for each access task: the inspection scope, and each approved finding.
+  const payers = new Map<string, Set<string>>();
+  for (const l of work) {
+    if (l.findingId !== null) {
+      const list = byFinding.get(l.findingId);
+      if (list) list.push(l);
+      else byFinding.set(l.findingId, [l]);
+    }
+    if (l.accessTaskId !== null && (l.stage === 'inspection' || l.stage === 'approved')) {
+      const who = l.stage === 'inspection' ? SCOPE_REMEDY : (l.findingId ?? SCOPE_REMEDY);
+      const set = payers.get(l.accessTaskId);
+      if (set) set.add(who);
+      else payers.set(l.accessTaskId, new Set([who]));
+    }
+  }
+  const ids = [...byFinding.keys()].sort();
+  return ids.map((findingId) => {
+    const own = byFinding.get(findingId)!;
+    const stageSet = new Set(own.map((l) => l.stage));
+    const stage: EstimateStage | 'mixed' = stageSet.size === 1 ? own[0]!.stage : 'mixed';
+    const items: VatItem[] = own.map((l) => ({ key: l.code, rate: l.rate, net: l.net }));
+    const named = [...new Set(own.map((l) => l.accessTaskId).filter((x): x is string => x !== null))].sort();
+    const charged: string[] = [];
+    const covered: string[] = [];
+    const priceItems = items.slice();
+    for (const taskId of named) {
+      const others = [...(payers.get(taskId) ?? [])].filter((p) => p !== findingId);
+      if (others.length > 0) covered.push(taskId);
+      else {
+        charged.push(taskId);
+        const t = access.get(taskId)!;
+        priceItems.push({ key: t.code, rate: t.rate, net: t.net });
+      }
+    }
+    return { findingId, stage, work: totals(items, ctx), accessCharged: charged, accessCovered: covered, price: totals(priceItems, ctx) };
+  });
+}
+
+/** One finding's price for the owner's decision page (its work plus any access nothing else pays for). */
+export function priceFinding(input: EstimateInput, pricing: WorkshopPricing, findingId: string): PricedFinding {
+  const f = priceEstimate(input, pricing).findings.find((x) => x.findingId === findingId);
+  if (!f) throw new MoneyError('invalid_input', `finding "${findingId}" has no lines in this estimate.`, 'findingId');
+  return f;
+}

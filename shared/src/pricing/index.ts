@@ -1,0 +1,5 @@
+export * from './types.js';
+export * from './vat.js';
+export * from './estimate.js';
+export * from './limits.js';
+export * from './deposits.js';
