@@ -1,0 +1,94 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { aircraftCreateSchema, type AircraftCreate, type AircraftDto } from '@wingstage/shared';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import type { z } from 'zod';
+import { Button, ButtonLink } from '@/components/ui/button';
+import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
+import { FormErrorSummary } from '@/components/ui/notice';
+import { applyServerErrors } from '@/lib/form-errors';
+
+const LABELS = {
+  customerId: 'Owner',
+  registration: 'Registration',
+  type: 'Type',
+  serial: 'Serial number',
+  airframeHours: 'Airframe hours',
+  engine: 'Engine',
+  engineHours: 'Engine hours',
+  notes: 'Notes',
+};
+
+export function AircraftForm({
+  initial,
+  owners,
+  defaultOwnerId,
+  submitLabel,
+  cancelTo,
+  onSubmit,
+}: {
+  initial?: AircraftDto;
+  owners: { id: string; name: string }[];
+  defaultOwnerId?: string;
+  submitLabel: string;
+  cancelTo: string;
+  onSubmit: (values: AircraftCreate) => Promise<unknown>;
+}) {
+  const [summary, setSummary] = useState<string | null>(null);
+  const { register, handleSubmit, setError, formState } = useForm<z.input<typeof aircraftCreateSchema>, unknown, z.output<typeof aircraftCreateSchema>>({
+    resolver: zodResolver(aircraftCreateSchema),
+    defaultValues: {
+      customerId: initial?.customerId ?? defaultOwnerId ?? '',
+      registration: initial?.registration ?? '',
+      type: initial?.type ?? '',
+      serial: initial?.serial ?? '',
+      airframeHours: initial?.airframeHours ?? '0',
+      engine: initial?.engine ?? '',
+      engineHours: initial?.engineHours ?? '0',
+      notes: initial?.notes ?? '',
+    },
+  });
+  const e = formState.errors;
+
+  const submit = handleSubmit(async (values) => {
+    setSummary(null);
+    try {
+      await onSubmit(values);
+    } catch (err) {
+      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
+    }
+  });
+
+  return (
+    <form onSubmit={submit} noValidate className="flex max-w-2xl flex-col gap-4">
+      <FormErrorSummary message={summary} errors={e} labels={LABELS} />
+      <SelectField label={LABELS.customerId} required error={e.customerId ? 'Choose the owner.' : undefined} {...register('customerId')}>
+        <option value="">Choose the owner…</option>
+        {owners.map((o) => (
+          <option key={o.id} value={o.id}>
+            {o.name}
+          </option>
+        ))}
+      </SelectField>
+      <div className="grid gap-4 sm:grid-cols-2">
+        <TextField label={LABELS.registration} required autoCapitalize="characters" autoComplete="off" hint="For example Q-BRKA." error={e.registration?.message} {...register('registration')} />
+        <TextField label={LABELS.serial} autoComplete="off" error={e.serial?.message} {...register('serial')} />
+      </div>
+      <TextField label={LABELS.type} required autoComplete="off" hint="As the workshop describes it, e.g. three-axis high-wing microlight." error={e.type?.message} {...register('type')} />
+      <TextField label={LABELS.engine} autoComplete="off" error={e.engine?.message} {...register('engine')} />
+      <div className="grid gap-4 sm:grid-cols-2">
+        <TextField label={LABELS.airframeHours} inputMode="decimal" autoComplete="off" error={e.airframeHours?.message} {...register('airframeHours')} />
+        <TextField label={LABELS.engineHours} inputMode="decimal" autoComplete="off" error={e.engineHours?.message} {...register('engineHours')} />
+      </div>
+      <TextAreaField label={LABELS.notes} rows={3} error={e.notes?.message} {...register('notes')} />
+      <div className="flex flex-wrap gap-2">
+        <Button type="submit" busy={formState.isSubmitting}>
+          {submitLabel}
+        </Button>
+        <ButtonLink to={cancelTo} variant="secondary">
+          Cancel
+        </ButtonLink>
+      </div>
+    </form>
+  );
+}

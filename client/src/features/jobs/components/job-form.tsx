@@ -1,0 +1,90 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { JOB_TYPES, JOB_TYPE_LABELS, jobCreateSchema, type JobCreate } from '@wingstage/shared';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import type { z } from 'zod';
+import { Button, ButtonLink } from '@/components/ui/button';
+import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
+import { FormErrorSummary } from '@/components/ui/notice';
+import { applyServerErrors } from '@/lib/form-errors';
+import { todayIso } from '@/lib/format';
+
+const LABELS = { aircraftId: 'Aircraft', title: 'Title', type: 'Kind of work', bookedInOn: 'Booked in on', dueOn: 'Due back', notes: 'Notes' };
+
+export function BookInForm({
+  aircraft,
+  defaultAircraftId,
+  cancelTo,
+  onSubmit,
+}: {
+  aircraft: { id: string; registration: string; customerName: string }[];
+  defaultAircraftId?: string;
+  cancelTo: string;
+  onSubmit: (values: JobCreate) => Promise<unknown>;
+}) {
+  const [summary, setSummary] = useState<string | null>(null);
+  const { register, handleSubmit, setError, setValue, getValues, formState } = useForm<z.input<typeof jobCreateSchema>, unknown, z.output<typeof jobCreateSchema>>({
+    resolver: zodResolver(jobCreateSchema),
+    defaultValues: { aircraftId: defaultAircraftId ?? '', title: '', type: 'annual_permit_inspection', bookedInOn: todayIso(), dueOn: null, notes: '' },
+  });
+  const e = formState.errors;
+
+  const submit = handleSubmit(async (values) => {
+    setSummary(null);
+    try {
+      await onSubmit(values);
+    } catch (err) {
+      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
+    }
+  });
+
+  return (
+    <form onSubmit={submit} noValidate className="flex max-w-2xl flex-col gap-4">
+      <FormErrorSummary message={summary} errors={e} labels={LABELS} />
+      <SelectField label={LABELS.aircraftId} required error={e.aircraftId ? 'Choose the aircraft.' : undefined} {...register('aircraftId')}>
+        <option value="">Choose the aircraft…</option>
+        {aircraft.map((a) => (
+          <option key={a.id} value={a.id}>
+            {a.registration} — {a.customerName}
+          </option>
+        ))}
+      </SelectField>
+      <SelectField
+        label={LABELS.type}
+        required
+        error={e.type?.message}
+        {...register('type', {
+          // Offer the kind of work as the title until someone types their own.
+          onChange: (ev: React.ChangeEvent<HTMLSelectElement>) => {
+            if (!getValues('title')) setValue('title', JOB_TYPE_LABELS[ev.target.value as keyof typeof JOB_TYPE_LABELS] ?? '');
+          },
+        })}
+      >
+        {JOB_TYPES.map((t) => (
+          <option key={t} value={t}>
+            {JOB_TYPE_LABELS[t]}
+          </option>
+        ))}
+      </SelectField>
+      <TextField label={LABELS.title} required autoComplete="off" error={e.title?.message} {...register('title')} />
+      <div className="grid gap-4 sm:grid-cols-2">
+        <TextField label={LABELS.bookedInOn} type="date" required error={e.bookedInOn?.message} {...register('bookedInOn')} />
+        <TextField
+          label={LABELS.dueOn}
+          type="date"
+          error={e.dueOn?.message}
+          {...register('dueOn', { setValueAs: (v: unknown) => (v === '' || v == null ? null : v) })}
+        />
+      </div>
+      <TextAreaField label={LABELS.notes} rows={3} error={e.notes?.message} {...register('notes')} />
+      <div className="flex flex-wrap gap-2">
+        <Button type="submit" busy={formState.isSubmitting}>
+          Book in
+        </Button>
+        <ButtonLink to={cancelTo} variant="secondary">
+          Cancel
+        </ButtonLink>
+      </div>
+    </form>
+  );
+}

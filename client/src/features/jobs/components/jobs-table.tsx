@@ -1,0 +1,52 @@
+import { JOB_TYPE_LABELS, type JobDto, type Page } from '@wingstage/shared';
+import { createColumnHelper } from '@tanstack/react-table';
+import { Link } from 'react-router-dom';
+import { ServerTable } from '@/components/ui/data-table';
+import { StateBadge } from '@/components/ui/state-badge';
+import { formatDate } from '@/lib/format';
+import type { ListParams } from '@/lib/list-params';
+
+const col = createColumnHelper<JobDto>();
+const columns = [
+  col.accessor('number', {
+    header: 'Job',
+    meta: { primary: true },
+    cell: (c) => (
+      <Link to={`/jobs/${c.row.original.id}`} className="font-semibold">
+        <span className="tabular-nums">{c.getValue()}</span> · {c.row.original.registration}
+      </Link>
+    ),
+  }),
+  col.accessor('title', {
+    header: 'Work',
+    cell: (c) => (
+      <span>
+        {c.getValue()}
+        {c.getValue() !== JOB_TYPE_LABELS[c.row.original.type] ? <span className="block text-xs text-slate-soft">{JOB_TYPE_LABELS[c.row.original.type]}</span> : null}
+      </span>
+    ),
+  }),
+  col.accessor('customerName', { header: 'Owner' }),
+  col.accessor('state', { header: 'State', cell: (c) => <StateBadge state={c.getValue()} /> }),
+  col.accessor('bookedInOn', { header: 'Booked in', cell: (c) => <span className="tabular-nums">{formatDate(c.getValue())}</span> }),
+];
+
+export function JobsTable({ page, params, onChange, busy }: { page: Page<JobDto>; params: ListParams; onChange: (p: Record<string, string | number | undefined>) => void; busy?: boolean }) {
+  return (
+    <ServerTable
+      caption="Jobs"
+      columns={columns}
+      rows={page.items}
+      total={page.total}
+      page={page.page}
+      pageSize={page.pageSize}
+      sort={params.sort}
+      dir={params.dir}
+      onSort={(sort, dir) => onChange({ sort, dir })}
+      onPage={(p) => onChange({ page: p })}
+      getRowId={(r) => r.id}
+      busy={busy}
+      empty={params.q || params.state ? 'No jobs match these filters.' : 'No jobs yet.'}
+    />
+  );
+}

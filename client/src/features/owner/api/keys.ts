@@ -1,0 +1,6 @@
+/** The owner's own view: its own keys so a staff cache and an owner cache never mix. */
+export const ownerKeys = {
+  all: ['owner'] as const,
+  aircraft: () => [...ownerKeys.all, 'aircraft'] as const,
+  jobs: () => [...ownerKeys.all, 'jobs'] as const,
+};

@@ -1,0 +1,106 @@
+import { ROLE_LABELS, STAFF_ROLES, type Page, type Role, type UserDto } from '@wingstage/shared';
+import { createColumnHelper } from '@tanstack/react-table';
+import { useState } from 'react';
+import { ServerTable } from '@/components/ui/data-table';
+import { Button } from '@/components/ui/button';
+import { Notice } from '@/components/ui/notice';
+import { isApiError } from '@/lib/api-client';
+import type { ListParams } from '@/lib/list-params';
+import { useResendInvitation } from '../api/resend-invitation';
+import { useUpdateUser } from '../api/update-user';
+
+function statusOf(u: UserDto): string {
+  if (!u.active) return 'Deactivated';
+  if (u.invited) return 'Invited, not yet joined';
+  return 'Active';
+}
+
+function RowActions({ user, selfId, onProblem }: { user: UserDto; selfId: string; onProblem: (m: string | null) => void }) {
+  const update = useUpdateUser();
+  const resend = useResendInvitation();
+  const self = user.id === selfId;
+  const run = async (fn: () => Promise<unknown>, done?: string) => {
+    onProblem(null);
+    try {
+      await fn();
+      if (done) onProblem(done);
+    } catch (e) {
+      onProblem(isApiError(e) ? e.message : 'That change could not be saved.');
+    }
+  };
+  return (
+    <div className="flex flex-wrap items-center gap-2">
+      {user.role !== 'owner' ? (
+        <>
+          <label htmlFor={`role-${user.id}`} className="sr-only">
+            Role for {user.name}
+          </label>
+          <select
+            id={`role-${user.id}`}
+            value={user.role}
+            disabled={self || update.isPending}
+            onChange={(e) => void run(() => update.mutateAsync({ id: user.id, body: { role: e.target.value as Role } }))}
+            className="min-h-10 rounded-control border border-seam-strong bg-cloth-raised px-2 text-sm"
+          >
+            {STAFF_ROLES.map((r) => (
+              <option key={r} value={r}>
+                {ROLE_LABELS[r]}
+              </option>
+            ))}
+          </select>
+        </>
+      ) : null}
+      {user.invited && user.active ? (
+        <Button variant="quiet" onClick={() => void run(() => resend.mutateAsync(user.id), `A fresh link is on its way to ${user.email}.`)}>
+          Resend invitation
+        </Button>
+      ) : null}
+      {!self ? (
+        <Button
+          variant="secondary"
+          busy={update.isPending}
+          onClick={() => {
+            if (user.active && !window.confirm(`Deactivate ${user.name}? They will be signed out and cannot sign in again until reactivated.`)) return;
+            void run(() => update.mutateAsync({ id: user.id, body: { active: !user.active } }));
+          }}
+        >
+          {user.active ? 'Deactivate' : 'Reactivate'}
+        </Button>
+      ) : (
+        <span className="text-sm text-slate-soft">This is you</span>
+      )}
+    </div>
+  );
+}
+
+const col = createColumnHelper<UserDto>();
+
+export function StaffTable({ page, params, onChange, selfId, busy }: { page: Page<UserDto>; params: ListParams; onChange: (p: Record<string, string | number | undefined>) => void; selfId: string; busy?: boolean }) {
+  const [problem, setProblem] = useState<string | null>(null);
+  const columns = [
+    col.accessor('name', { header: 'Name', meta: { primary: true }, cell: (c) => <span className="font-semibold">{c.getValue()}</span> }),
+    col.accessor('email', { header: 'E-mail', cell: (c) => <span className="break-all">{c.getValue()}</span> }),
+    col.accessor('role', { header: 'Role', cell: (c) => ROLE_LABELS[c.getValue()] }),
+    col.display({ id: 'status', header: 'Status', cell: (c) => statusOf(c.row.original) }),
+    col.display({ id: 'actions', header: 'Change', cell: (c) => <RowActions user={c.row.original} selfId={selfId} onProblem={setProblem} /> }),
+  ];
+  return (
+    <div className="flex flex-col gap-3">
+      {problem ? <Notice>{problem}</Notice> : null}
+      <ServerTable
+        caption="Staff and sign-ins"
+        columns={columns}
+        rows={page.items}
+        total={page.total}
+        page={page.page}
+        pageSize={page.pageSize}
+        sort={params.sort}
+        dir={params.dir}
+        onSort={(sort, dir) => onChange({ sort, dir })}
+        onPage={(p) => onChange({ page: p })}
+        getRowId={(r) => r.id}
+        busy={busy}
+      />
+    </div>
+  );
+}

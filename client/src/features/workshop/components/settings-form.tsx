@@ -1,0 +1,130 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { VAT_ROUNDING_METHODS, workshopUpdateSchema, type WorkshopDto } from '@wingstage/shared';
+import { useState } from 'react';
+import { useFieldArray, useForm } from 'react-hook-form';
+import type { z } from 'zod';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/page';
+import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
+import { FormErrorSummary, Notice } from '@/components/ui/notice';
+import { isApiError } from '@/lib/api-client';
+import { applyServerErrors } from '@/lib/form-errors';
+import { useUpdateWorkshop } from '../api/update-workshop';
+
+// Wording follows the options HMRC VAT Notice 700 §17.5 allows: VAT on the invoice total rounded
+// down (or to the nearest penny), or worked out per line.
+const ROUNDING_LABELS: Record<(typeof VAT_ROUNDING_METHODS)[number], string> = {
+  'invoice-down': 'On the invoice total, rounded down to the penny',
+  'invoice-nearest': 'On the invoice total, rounded to the nearest penny',
+  'line-nearest': 'On each line, rounded to the nearest penny',
+  'line-down-tenth': 'On each line, rounded down to a tenth of a penny',
+};
+
+const LABELS: Record<string, string> = {
+  name: 'Workshop name',
+  addressLines: 'Address',
+  postcode: 'Postcode',
+  vatNumber: 'VAT number',
+  labourRates: 'Labour rates',
+  'settings.vatRounding': 'How VAT is rounded',
+};
+
+type FormIn = z.input<typeof workshopUpdateSchema>;
+
+const toForm = (w: WorkshopDto): FormIn => ({
+  version: w.version,
+  name: w.name,
+  addressLines: w.addressLines,
+  postcode: w.postcode,
+  vatNumber: w.vatNumber,
+  labourRates: w.labourRates,
+  settings: { vatRounding: w.settings.vatRounding },
+});
+
+export function SettingsForm({ workshop }: { workshop: WorkshopDto }) {
+  const [summary, setSummary] = useState<string | null>(null);
+  const [saved, setSaved] = useState(false);
+  const update = useUpdateWorkshop();
+  const { register, control, handleSubmit, setError, reset, formState } = useForm<FormIn, unknown, z.output<typeof workshopUpdateSchema>>({
+    resolver: zodResolver(workshopUpdateSchema),
+    defaultValues: toForm(workshop),
+  });
+  const rates = useFieldArray({ control, name: 'labourRates' });
+  const e = formState.errors;
+
+  const submit = handleSubmit(async (values) => {
+    setSummary(null);
+    setSaved(false);
+    try {
+      // The saved record carries the new version, which the next save must send.
+      reset(toForm(await update.mutateAsync(values)));
+      setSaved(true);
+    } catch (err) {
+      if (isApiError(err) && err.code === 'stale_version') {
+        setSummary('Someone else saved the settings while you were editing, so yours were not saved. Reload the page to see theirs, then make your change again.');
+        return;
+      }
+      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
+    }
+  });
+
+  return (
+    <form onSubmit={submit} noValidate className="flex flex-col gap-5">
+      {saved ? <Notice title="Settings saved" /> : null}
+      <FormErrorSummary message={summary} errors={{
+          name: e.name,
+          addressLines: e.addressLines,
+          postcode: e.postcode,
+          vatNumber: e.vatNumber,
+          // Per-rate errors sit beside each rate; the summary says only that the rates need a look.
+          labourRates: e.labourRates ? { message: e.labourRates.message ?? 'Check the rates below.' } : undefined,
+          'settings.vatRounding': e.settings?.vatRounding,
+        }} labels={LABELS} />
+      <Card title="The workshop">
+        <div className="flex flex-col gap-4">
+          <TextField label={LABELS.name!} required error={e.name?.message} {...register('name')} />
+          <TextAreaField label={LABELS.addressLines!} rows={3} error={e.addressLines?.message} {...register('addressLines')} />
+          <div className="grid gap-4 sm:grid-cols-2">
+            <TextField label={LABELS.postcode!} error={e.postcode?.message} {...register('postcode')} />
+            <TextField label={LABELS.vatNumber!} hint="Printed on every VAT invoice." error={e.vatNumber?.message} {...register('vatNumber')} />
+          </div>
+        </div>
+      </Card>
+      <Card title="Labour rates" actions={<Button variant="secondary" onClick={() => rates.append({ code: '', name: '', ratePerHour: '' })}>Add a rate</Button>}>
+        <p className="mb-3 text-sm text-slate-soft">Per hour, in {workshop.currency}, excl. VAT.</p>
+        <ul className="flex flex-col gap-4">
+          {rates.fields.map((f, i) => {
+            const re = e.labourRates?.[i];
+            return (
+              <li key={f.id} className="grid items-end gap-3 border-b border-seam pb-4 last:border-0 sm:grid-cols-[1fr_2fr_1fr_auto]">
+                <TextField label="Code" error={re?.code?.message} {...register(`labourRates.${i}.code`)} />
+                <TextField label="Name" error={re?.name?.message} {...register(`labourRates.${i}.name`)} />
+                <TextField label="Rate per hour" inputMode="decimal" className="tabular-nums" error={re?.ratePerHour?.message} {...register(`labourRates.${i}.ratePerHour`)} />
+                <Button variant="quiet" disabled={rates.fields.length <= 1} onClick={() => rates.remove(i)}>
+                  Remove
+                </Button>
+              </li>
+            );
+          })}
+        </ul>
+      </Card>
+      <Card title="VAT">
+        <p className="mb-3 text-sm text-slate-soft">
+          Rates: standard {workshop.vatRates.standard}%, reduced {workshop.vatRates.reduced}%, zero {workshop.vatRates.zero}%.
+        </p>
+        <SelectField label={LABELS['settings.vatRounding']!} error={e.settings?.vatRounding?.message} {...register('settings.vatRounding')}>
+          {VAT_ROUNDING_METHODS.map((m) => (
+            <option key={m} value={m}>
+              {ROUNDING_LABELS[m]}
+            </option>
+          ))}
+        </SelectField>
+      </Card>
+      <div>
+        <Button type="submit" busy={formState.isSubmitting}>
+          Save settings
+        </Button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,112 @@
+import type { ApiErrorBody, ApiErrorCode } from '@wingstage/shared';
+
+/** An API failure in the shared error shape, or a network failure mapped onto it. */
+export class ApiError extends Error {
+  readonly code: ApiErrorCode | 'network';
+  readonly status: number;
+  readonly fields: Record<string, string>;
+  readonly requestId: string | undefined;
+
+  constructor(init: { code: ApiErrorCode | 'network'; message: string; status: number; fields?: Record<string, string>; requestId?: string }) {
+    super(init.message);
+    this.name = 'ApiError';
+    this.code = init.code;
+    this.status = init.status;
+    this.fields = init.fields ?? {};
+    this.requestId = init.requestId;
+  }
+}
+
+export function isApiError(e: unknown): e is ApiError {
+  return e instanceof ApiError;
+}
+
+const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+export function readCookie(name: string, cookieString: string = typeof document === 'undefined' ? '' : document.cookie): string | null {
+  for (const part of cookieString.split(';')) {
+    const [k, ...rest] = part.trim().split('=');
+    if (k === name) return decodeURIComponent(rest.join('='));
+  }
+  return null;
+}
+
+type UnauthorizedListener = () => void;
+let onUnauthorized: UnauthorizedListener | null = null;
+/** The router registers this so a 401 on a protected page goes to sign-in (keeping the return path). */
+export function setUnauthorizedHandler(fn: UnauthorizedListener | null): void {
+  onUnauthorized = fn;
+}
+
+async function parseError(res: Response): Promise<ApiError> {
+  let body: unknown = null;
+  try {
+    body = await res.json();
+  } catch {
+    // A proxy or crash page is not JSON; fall through to a generic message.
+  }
+  const err = (body as Partial<ApiErrorBody> | null)?.error;
+  if (err && typeof err.code === 'string' && typeof err.message === 'string') {
+    return new ApiError({ code: err.code, message: err.message, status: res.status, fields: err.fields, requestId: err.requestId });
+  }
+  return new ApiError({
+    code: res.status === 404 ? 'not_found' : res.status >= 500 ? 'internal' : 'conflict',
+    message: res.status >= 500 ? 'The server could not finish that. Please try again in a moment.' : `The request failed (${res.status}).`,
+    status: res.status,
+  });
+}
+
+export interface RequestOptions {
+  method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+  body?: unknown;
+  query?: Record<string, string | number | undefined | null>;
+  signal?: AbortSignal;
+  /** Sign-in and session probes must not bounce to the sign-in page on 401. */
+  skipUnauthorizedRedirect?: boolean;
+}
+
+export function buildUrl(path: string, query?: RequestOptions['query']): string {
+  const params = new URLSearchParams();
+  for (const [k, v] of Object.entries(query ?? {})) {
+    if (v !== undefined && v !== null && v !== '') params.set(k, String(v));
+  }
+  const qs = params.toString();
+  return `/api${path}${qs ? `?${qs}` : ''}`;
+}
+
+export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Promise<T> {
+  const method = opts.method ?? 'GET';
+  const headers: Record<string, string> = { Accept: 'application/json' };
+  if (opts.body !== undefined) headers['Content-Type'] = 'application/json';
+  if (UNSAFE.has(method)) {
+    const csrf = readCookie('ws_csrf');
+    if (csrf) headers['X-CSRF-Token'] = csrf;
+  }
+  let res: Response;
+  try {
+    res = await fetch(buildUrl(path, opts.query), {
+      method,
+      headers,
+      credentials: 'include',
+      body: opts.body === undefined ? undefined : JSON.stringify(opts.body),
+      signal: opts.signal,
+    });
+  } catch (e) {
+    if ((e as Error).name === 'AbortError') throw e;
+    throw new ApiError({ code: 'network', message: 'Wingstage could not reach the server. Check the connection and try again.', status: 0 });
+  }
+  if (!res.ok) {
+    const err = await parseError(res);
+    if (res.status === 401 && !opts.skipUnauthorizedRedirect) onUnauthorized?.();
+    throw err;
+  }
+  if (res.status === 204 || res.status === 202) return undefined as T;
+  const text = await res.text();
+  return (text ? JSON.parse(text) : undefined) as T;
+}
+
+export const api = {
+  get: <T>(path: string, query?: RequestOptions['query'], signal?: AbortSignal) => apiRequest<T>(path, { query, signal }),
+  post: <T>(path: string, body?: unknown, extra?: Partial<RequestOptions>) => apiRequest<T>(path, { ...extra, method: 'POST', body: body ?? {} }),
+  patch: <T>(path: string, body: unknown) => apiRequest<T>(path, { method: 'PATCH', body }),
+};

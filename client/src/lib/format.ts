@@ -1,0 +1,41 @@
+/**
+ * Display-time formatting only. Money arrives as a decimal string and is never turned into a
+ * JavaScript number: the string is split and grouped by hand so no float rounding can creep in.
+ */
+export function formatMoney(amount: string, currency = 'GBP', opts: { vat?: 'incl' | 'excl' } = {}): string {
+  const m = /^(-)?(\d+)(?:\.(\d+))?$/.exec(amount.trim());
+  if (!m) return amount;
+  const [, neg, whole = '0', frac = ''] = m;
+  const pence = (frac + '00').slice(0, 2);
+  const grouped = whole.replace(/^0+(?=\d)/, '').replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+  const symbol = currency === 'GBP' ? '£' : currency === 'EUR' ? '€' : `${currency} `;
+  const vat = opts.vat === 'incl' ? ' incl. VAT' : opts.vat === 'excl' ? ' excl. VAT' : '';
+  return `${neg ? '−' : ''}${symbol}${grouped}.${pence}${vat}`;
+}
+
+const dateFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
+const dateTimeFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
+
+/** `2026-12-01` (a calendar date) → "1 Dec 2026", read as a local date so it never shifts a day. */
+export function formatDate(iso: string | null | undefined): string {
+  if (!iso) return '—';
+  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(iso);
+  if (m) return dateFmt.format(new Date(Number(m[1]), Number(m[2]) - 1, Number(m[3])));
+  const d = new Date(iso);
+  return Number.isNaN(d.getTime()) ? iso : dateFmt.format(d);
+}
+
+export function formatDateTime(iso: string): string {
+  const d = new Date(iso);
+  return Number.isNaN(d.getTime()) ? iso : dateTimeFmt.format(d);
+}
+
+export function todayIso(now = new Date()): string {
+  const p = (n: number) => String(n).padStart(2, '0');
+  return `${now.getFullYear()}-${p(now.getMonth() + 1)}-${p(now.getDate())}`;
+}
+
+/** Hours are decimal strings too; show them as they are, trimmed of a trailing ".0". */
+export function formatHours(h: string): string {
+  return `${h.replace(/\.0+$/, '')} h`;
+}
