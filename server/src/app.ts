@@ -1,0 +1,116 @@
+import { randomUUID } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import cookieParser from 'cookie-parser';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import type { Logger } from 'pino';
+import type { Sequelize } from 'sequelize';
+import type { Config } from './config/config.js';
+import { apiNotFound, errorHandler } from './errors/error-handler.js';
+import type { MailQueue } from './mail/mail-queue.js';
+import { aircraftRoutes } from './routes/aircraft.routes.js';
+import { authRoutes } from './routes/auth.routes.js';
+import { customersRoutes } from './routes/customers.routes.js';
+import { jobsRoutes } from './routes/jobs.routes.js';
+import { usersRoutes } from './routes/users.routes.js';
+import { workshopRoutes } from './routes/workshop.routes.js';
+import type { Deps } from './services/deps.js';
+
+export interface AppParts {
+  config: Config;
+  logger: Logger;
+  sequelize: Sequelize;
+  mail: MailQueue;
+}
+
+const REQUEST_ID = /^[A-Za-z0-9._-]{8,64}$/;
+
+export function createApp(parts: AppParts): Express {
+  const { config, logger, sequelize } = parts;
+  const deps: Deps = { config, mail: parts.mail, logger };
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('query parser', 'extended');
+  // Local only: the app listens on 127.0.0.1 behind nothing. Behind a proxy, set this to its hop count.
+  app.set('trust proxy', false);
+
+  app.use(
+    pinoHttp({
+      logger: logger as unknown as import('pino').Logger<'error' | 'warn' | 'info'>,
+      genReqId: (req, res) => {
+        const incoming = req.headers['x-request-id'];
+        const id = typeof incoming === 'string' && REQUEST_ID.test(incoming) ? incoming : randomUUID();
+        res.setHeader('X-Request-Id', id);
+        return id;
+      },
+      customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
+      serializers: {
+        req: (r: { id: unknown; method: string; url: string }) => ({ id: r.id, method: r.method, url: r.url }),
+        res: (r: { statusCode: number }) => ({ statusCode: r.statusCode }),
+      },
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+    }),
+  );
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // React's style={} props become inline style attributes.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          fontSrc: ["'self'", 'data:'],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+          ...(config.NODE_ENV === 'production' ? { upgradeInsecureRequests: [] } : {}),
+        },
+      },
+      hsts: config.NODE_ENV === 'production',
+    }),
+  );
+  app.use(express.json({ limit: '200kb' }));
+  app.use(cookieParser());
+  app.use('/api', (_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+
+  app.get('/api/health', async (req, res) => {
+    try {
+      await sequelize.query('SELECT 1', { raw: true });
+      res.json({ status: 'ok', app: 'ok', database: 'ok' });
+    } catch (err) {
+      req.log.error({ err }, 'health check: database unreachable');
+      res.status(503).json({ status: 'degraded', app: 'ok', database: 'unreachable' });
+    }
+  });
+  app.use('/api/auth', authRoutes(deps));
+  app.use('/api/users', usersRoutes(deps));
+  app.use('/api/workshop', workshopRoutes(deps));
+  app.use('/api/customers', customersRoutes(deps));
+  app.use('/api/aircraft', aircraftRoutes(deps));
+  app.use('/api/jobs', jobsRoutes(deps));
+  app.use('/api', apiNotFound);
+
+  const indexHtml = path.join(config.CLIENT_DIST, 'index.html');
+  if (fs.existsSync(indexHtml)) {
+    app.use(express.static(config.CLIENT_DIST, { index: false, maxAge: '1h' }));
+    // Client-side routes: any other GET gets the app shell.
+    app.get('/*splat', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(indexHtml);
+    });
+  } else {
+    logger.warn({ dir: config.CLIENT_DIST }, 'no built client found; serving the API only');
+  }
+
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,21 @@
+import type { ApiErrorCode } from '@wingstage/shared';
+
+/** The one error type services throw; the error handler turns it into the shared JSON shape. */
+export class AppError extends Error {
+  constructor(
+    readonly code: ApiErrorCode,
+    readonly status: number,
+    message: string,
+    readonly fields?: Record<string, string>,
+  ) {
+    super(message);
+    this.name = 'AppError';
+  }
+}
+
+export const notFound = (what = 'That record') => new AppError('not_found', 404, `${what} was not found.`);
+export const forbidden = (message = 'Your role cannot do this.') => new AppError('forbidden', 403, message);
+export const unauthenticated = (message = 'Please sign in.') => new AppError('unauthenticated', 401, message);
+export const staleVersion = () =>
+  new AppError('stale_version', 409, 'Someone else changed this record since you opened it. Reload to see their changes, then try again.');
+export const conflict = (message: string, fields?: Record<string, string>) => new AppError('conflict', 409, message, fields);

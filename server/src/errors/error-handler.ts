@@ -1,0 +1,79 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { ZodError } from 'zod';
+import {
+  ForeignKeyConstraintError,
+  OptimisticLockError,
+  UniqueConstraintError,
+  ValidationError as SequelizeValidationError,
+} from 'sequelize';
+import type { ApiErrorBody, ApiErrorCode } from '@wingstage/shared';
+import { AppError } from './app-error.js';
+
+/** Which column each unique constraint guards, and what to tell the person who hit it. */
+const UNIQUE_MESSAGES: Record<string, { field: string; message: string }> = {
+  users_email_key: { field: 'email', message: 'Someone already signs in with this e-mail.' },
+  aircraft_workshop_registration_key: { field: 'registration', message: 'An aircraft with this registration is already on file.' },
+};
+
+function zodFields(err: ZodError): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of err.issues) {
+    const key = issue.path.map(String).join('.') || '_';
+    if (!(key in fields)) fields[key] = issue.message;
+  }
+  return fields;
+}
+
+interface Mapped {
+  status: number;
+  code: ApiErrorCode;
+  message: string;
+  fields?: Record<string, string>;
+}
+
+function mapError(err: unknown): Mapped | null {
+  if (err instanceof AppError) return { status: err.status, code: err.code, message: err.message, fields: err.fields };
+  if (err instanceof ZodError) {
+    return { status: 400, code: 'validation_failed', message: 'Some fields need attention.', fields: zodFields(err) };
+  }
+  if (err instanceof OptimisticLockError) {
+    return { status: 409, code: 'stale_version', message: 'Someone else changed this record since you opened it. Reload to see their changes, then try again.' };
+  }
+  if (err instanceof UniqueConstraintError) {
+    const constraint = (err.parent as { constraint?: string } | undefined)?.constraint ?? '';
+    const known = UNIQUE_MESSAGES[constraint];
+    if (known) return { status: 409, code: 'conflict', message: known.message, fields: { [known.field]: known.message } };
+    return { status: 409, code: 'conflict', message: 'This would duplicate a record that already exists.' };
+  }
+  if (err instanceof ForeignKeyConstraintError) {
+    return { status: 409, code: 'conflict', message: 'This refers to a record that does not exist, or is still in use.' };
+  }
+  if (err instanceof SequelizeValidationError) {
+    const fields: Record<string, string> = {};
+    for (const e of err.errors) if (e.path) fields[e.path] = e.message;
+    return { status: 400, code: 'validation_failed', message: 'Some fields need attention.', fields };
+  }
+  const e = err as { type?: string; status?: number };
+  if (e && e.type === 'entity.parse.failed') return { status: 400, code: 'validation_failed', message: 'The request body is not valid JSON.' };
+  if (e && e.type === 'entity.too.large') return { status: 413, code: 'validation_failed', message: 'The request body is too large.' };
+  return null;
+}
+
+export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  const mapped = mapError(err);
+  const requestId = String(req.id ?? '');
+  if (!mapped) {
+    req.log?.error({ err }, 'unhandled error');
+  } else if (mapped.status >= 500) {
+    req.log?.error({ err }, mapped.message);
+  }
+  const m = mapped ?? { status: 500, code: 'internal' as const, message: 'Something went wrong on our side. It has been logged; please try again.' };
+  const body: ApiErrorBody = { error: { code: m.code, message: m.message, requestId } };
+  if (m.fields && Object.keys(m.fields).length > 0) body.error.fields = m.fields;
+  if (res.headersSent) return;
+  res.status(m.status).json(body);
+};
+
+export const apiNotFound: RequestHandler = (req, _res, next) => {
+  next(new AppError('not_found', 404, `There is no API route ${req.method} ${req.originalUrl.split('?')[0]}.`));
+};

@@ -1,0 +1,22 @@
+import type { Config } from './config/config.js';
+import { createSequelize } from './db/sequelize.js';
+import { createLogger } from './lib/logger.js';
+import { MailQueue } from './mail/mail-queue.js';
+import { initModels } from './models/index.js';
+import type { AppParts } from './app.js';
+
+/** Connects the database, binds the models and starts the mail queue and its worker. */
+export async function startParts(config: Config): Promise<AppParts> {
+  const logger = createLogger(config);
+  const sequelize = createSequelize(config.DATABASE_URL, logger);
+  await sequelize.authenticate();
+  initModels(sequelize);
+  const mail = new MailQueue(config, sequelize, logger.child({ part: 'mail' }));
+  await mail.start();
+  return { config, logger, sequelize, mail };
+}
+
+export async function stopParts(parts: AppParts): Promise<void> {
+  await parts.mail.stop();
+  await parts.sequelize.close();
+}

@@ -1,0 +1,10 @@
+import type { Logger } from 'pino';
+import type { Config } from '../config/config.js';
+import type { MailQueue } from '../mail/mail-queue.js';
+
+/** What services need from the outside: settings, the mail queue and a logger. */
+export interface Deps {
+  config: Config;
+  mail: MailQueue;
+  logger: Logger;
+}

@@ -1,0 +1,222 @@
+import { Op, type Includeable, type Transaction, type WhereOptions } from 'sequelize';
+import {
+  JOB_STATE_LABELS,
+  canTransition,
+  type AuditEventDto,
+  type JobCreate,
+  type JobDto,
+  type JobState,
+  type Page,
+} from '@wingstage/shared';
+import type { z } from 'zod';
+import type { jobListQuerySchema, jobTransitionSchema, jobUpdateSchema } from '@wingstage/shared';
+import { AppError, forbidden, notFound, staleVersion } from '../errors/app-error.js';
+import { Aircraft, AuditEvent, Customer, Job, User, boundSequelize } from '../models/index.js';
+import { recordAudit } from './audit.js';
+import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
+import { inWorkshop, ownedRows, requireStaff, type Scope } from './scope.js';
+
+type JobListQuery = z.output<typeof jobListQuerySchema>;
+type JobUpdate = z.output<typeof jobUpdateSchema>;
+type JobTransition = z.output<typeof jobTransitionSchema>;
+type JobRow = Job & { aircraft: Aircraft & { customer: Customer } };
+
+/** Jobs reach owners through their aircraft: the owner filter rides on the required join. */
+function scopedInclude(scope: Scope): Includeable[] {
+  return [
+    {
+      model: Aircraft,
+      as: 'aircraft',
+      required: true,
+      attributes: ['id', 'registration', 'type', 'customerId'],
+      where: ownedRows(scope, 'customerId'),
+      include: [{ model: Customer, as: 'customer', required: true, attributes: ['id', 'name'] }],
+    },
+  ];
+}
+
+function toDto(j: JobRow): JobDto {
+  return {
+    id: j.id,
+    number: j.number,
+    aircraftId: j.aircraftId,
+    registration: j.aircraft.registration,
+    aircraftType: j.aircraft.type,
+    customerId: j.aircraft.customerId,
+    customerName: j.aircraft.customer.name,
+    title: j.title,
+    type: j.type,
+    state: j.state,
+    bookedInOn: j.bookedInOn,
+    dueOn: j.dueOn,
+    notes: j.notes,
+    version: j.version,
+    createdAt: j.createdAt.toISOString(),
+    updatedAt: j.updatedAt.toISOString(),
+  };
+}
+
+async function findJob(scope: Scope, id: string, t?: Transaction, lock = false): Promise<JobRow> {
+  const job = await Job.findOne({
+    where: inWorkshop(scope, { id }),
+    include: scopedInclude(scope),
+    transaction: t,
+    // Lock only the job row; the joined rows are read, not changed.
+    lock: lock && t ? { level: t.LOCK.UPDATE, of: Job } : undefined,
+  });
+  if (!job) throw notFound('That job');
+  return job as JobRow;
+}
+
+export async function listJobs(scope: Scope, q: JobListQuery): Promise<Page<JobDto>> {
+  const where: Record<string | symbol, unknown> = {};
+  if (q.state) where.state = q.state;
+  if (q.aircraftId) where.aircraftId = q.aircraftId;
+  if (q.q) {
+    const like = likePattern(q.q);
+    where[Op.or] = [
+      { number: { [Op.iLike]: like } },
+      { title: { [Op.iLike]: like } },
+      { '$aircraft.registration$': { [Op.iLike]: like } },
+      { '$aircraft.customer.name$': { [Op.iLike]: like } },
+    ];
+  }
+  const order = orderFrom(
+    q,
+    {
+      number: '"Job"."number"',
+      bookedInOn: '"Job"."booked_in_on"',
+      dueOn: '"Job"."due_on"',
+      state: '"Job"."state"',
+      registration: '"aircraft"."registration"',
+      updatedAt: '"Job"."updated_at"',
+    },
+    'number',
+  );
+  const { rows, count } = await Job.findAndCountAll({
+    where: inWorkshop(scope, where as WhereOptions<Job>),
+    include: scopedInclude(scope),
+    order: boundSequelize().literal(`${order} NULLS LAST, "Job"."id" ASC`),
+    ...pageWindow(q),
+    subQuery: false,
+    distinct: true,
+  });
+  return { items: rows.map((r) => toDto(r as JobRow)), total: count, page: q.page, pageSize: q.pageSize };
+}
+
+export async function getJob(scope: Scope, id: string): Promise<JobDto> {
+  return toDto(await findJob(scope, id));
+}
+
+/** Gap-free per workshop: the counter row is locked by the UPDATE and rolls back with a failed create. */
+async function nextJobNumber(scope: Scope, t: Transaction): Promise<string> {
+  const [rows] = await boundSequelize().query(
+    `INSERT INTO job_counters (workshop_id, last_number) VALUES ($1, 1)
+     ON CONFLICT (workshop_id) DO UPDATE SET last_number = job_counters.last_number + 1
+     RETURNING last_number`,
+    { bind: [scope.workshopId], transaction: t },
+  );
+  const n = Number((rows as { last_number: number }[])[0]!.last_number);
+  return `J-${String(n).padStart(4, '0')}`;
+}
+
+export async function createJob(scope: Scope, input: JobCreate): Promise<JobDto> {
+  requireStaff(scope);
+  const id = await boundSequelize().transaction(async (t) => {
+    const aircraft = await Aircraft.findOne({ where: inWorkshop(scope, { id: input.aircraftId }), transaction: t });
+    if (!aircraft) throw new AppError('not_found', 404, 'That aircraft was not found.', { aircraftId: 'That aircraft was not found.' });
+    const number = await nextJobNumber(scope, t);
+    const job = await Job.create({ ...input, workshopId: scope.workshopId, number, state: 'booked_in' }, { transaction: t });
+    await recordAudit(scope, t, {
+      jobId: job.id,
+      action: 'job.booked_in',
+      summary: `Booked in ${aircraft.registration} as ${number}: ${job.title}`,
+      detail: { number, aircraftId: aircraft.id, type: job.type, bookedInOn: job.bookedInOn, dueOn: job.dueOn },
+    });
+    return job.id;
+  });
+  return getJob(scope, id);
+}
+
+export async function updateJob(scope: Scope, id: string, input: JobUpdate): Promise<JobDto> {
+  requireStaff(scope);
+  await boundSequelize().transaction(async (t) => {
+    const job = await findJob(scope, id, t, true);
+    if (job.version !== input.version) throw staleVersion();
+    const state: JobState = job.state;
+    if (state === 'closed' || state === 'cancelled') {
+      throw new AppError('invalid_transition', 409, `A ${JOB_STATE_LABELS[state].toLowerCase()} job cannot be changed.`);
+    }
+    const { version: _v, ...changes } = input;
+    const bookedInOn = changes.bookedInOn ?? job.bookedInOn;
+    const dueOn = changes.dueOn === undefined ? job.dueOn : changes.dueOn;
+    if (dueOn && dueOn < bookedInOn) {
+      throw new AppError('validation_failed', 400, 'Some fields need attention.', { dueOn: 'The due date cannot be before booking in.' });
+    }
+    const before: Record<string, unknown> = {};
+    const after: Record<string, unknown> = {};
+    for (const [k, v] of Object.entries(changes)) {
+      const old = job.get(k as keyof Job);
+      if (v !== undefined && old !== v) {
+        before[k] = old;
+        after[k] = v;
+      }
+    }
+    await job.update(changes, { transaction: t });
+    await recordAudit(scope, t, {
+      jobId: job.id,
+      action: 'job.updated',
+      summary: Object.keys(after).length ? `Changed ${Object.keys(after).join(', ')}` : 'Saved without changes',
+      detail: { before, after },
+    });
+  });
+  return getJob(scope, id);
+}
+
+/** Engineers may only start an inspection; every other move is a manager's or admin's. */
+function mayMove(scope: Scope, from: JobState, to: JobState): boolean {
+  if (scope.role === 'admin' || scope.role === 'manager') return true;
+  return scope.role === 'engineer' && from === 'booked_in' && to === 'inspecting';
+}
+
+export async function transitionJob(scope: Scope, id: string, input: JobTransition): Promise<JobDto> {
+  requireStaff(scope);
+  await boundSequelize().transaction(async (t) => {
+    const job = await findJob(scope, id, t, true);
+    if (!mayMove(scope, job.state, input.to)) throw forbidden('Your role cannot make this change to a job.');
+    if (job.version !== input.version) throw staleVersion();
+    const check = canTransition(job.state, input.to);
+    if (!check.ok) throw new AppError('invalid_transition', 409, check.reason);
+    if (input.to === 'cancelled' && !input.reason) {
+      throw new AppError('validation_failed', 400, 'Some fields need attention.', { reason: 'Say why the job is cancelled.' });
+    }
+    const from: JobState = job.state;
+    await job.update({ state: input.to }, { transaction: t });
+    await recordAudit(scope, t, {
+      jobId: job.id,
+      action: 'job.state_changed',
+      summary: `${JOB_STATE_LABELS[from]} → ${JOB_STATE_LABELS[input.to]}${input.reason ? `: ${input.reason}` : ''}`,
+      detail: { from, to: input.to, reason: input.reason },
+    });
+  });
+  return getJob(scope, id);
+}
+
+export async function jobHistory(scope: Scope, id: string): Promise<AuditEventDto[]> {
+  requireStaff(scope);
+  const job = await findJob(scope, id);
+  const events = await AuditEvent.findAll({
+    where: inWorkshop(scope, { jobId: job.id }),
+    include: [{ model: User, as: 'actor', required: false, attributes: ['name', 'role'] }],
+    order: [['at', 'ASC'], ['id', 'ASC']],
+  });
+  return events.map((e) => ({
+    id: e.id,
+    at: e.at.toISOString(),
+    actorName: e.actor?.name ?? null,
+    actorRole: e.actor?.role ?? null,
+    action: e.action,
+    summary: e.summary,
+    detail: e.detail,
+  }));
+}
