@@ -139,8 +139,12 @@ export function settleDeposits(
     const mix = p.vatMix
       ? p.vatMix.map((m, j) => ({ rate: parseVatRate(m.rate, `${path}.vatMix[${j}].rate`), gross: parseAmount(m.gross, currency, `${path}.vatMix[${j}].gross`) }))
       : invoiceMix;
+    if (p.kind === 'advance' && amount.greaterThan(0) && !mix.some((m) => m.gross.greaterThan(0))) {
+      // Nothing to say which rates the payment was for: guessing would fix the wrong VAT at the tax point.
+      throw new MoneyError('invalid_input', 'give the VAT mix at the payment date: the invoice has no value to take it from.', `${path}.vatMix`);
+    }
     const vat = p.kind === 'advance' ? paymentVat(amount, mix, dp) : new Dec(0);
-    return { id: p.id, kind: p.kind, receivedOn: p.receivedOn, amount, vat, refunded: new Dec(0), vatRefunded: new Dec(0) };
+    return { id: p.id, kind: p.kind, receivedOn: p.receivedOn, amount, mix, vat, refunded: new Dec(0), vatRefunded: new Dec(0) };
   });
   const byId = new Map(work.map((w) => [w.id, w]));
 
@@ -152,8 +156,9 @@ export function settleDeposits(
     const left = w.amount.minus(w.refunded);
     if (amt.greaterThan(left)) throw new MoneyError('out_of_range', `refund is more than the ${formatAmount(left, dp)} left on payment "${w.id}".`, `${path}.amount`);
     const vatLeft = w.vat.minus(w.vatRefunded);
-    // A full refund reverses exactly the VAT left, so nothing is stranded by rounding.
-    const vatBack = amt.equals(left) ? vatLeft : roundHalfUp(amt.times(w.vat).dividedBy(w.amount), dp);
+    // The refund carries the VAT fraction of what is handed back, on the payment's own mix (as its
+    // credit note would); a full refund reverses exactly the VAT left, so rounding strands nothing.
+    const vatBack = w.kind === 'security' ? new Dec(0) : amt.equals(left) ? vatLeft : paymentVat(amt, w.mix, dp);
     w.refunded = w.refunded.plus(amt);
     w.vatRefunded = w.vatRefunded.plus(Dec.min(vatBack, vatLeft));
   });
