@@ -62,7 +62,7 @@ if ! stage_setup; then record "set-up" failed 0; exit 1; fi
 # A fresh secret per run: no test can depend on a token minted by an earlier one.
 export JWT_SECRET="$(node -e 'process.stdout.write(require("crypto").randomBytes(48).toString("base64url"))')"
 export NODE_ENV=test LOG_LEVEL="${LOG_LEVEL:-warn}"
-export SIGNIN_ACCOUNT_LIMIT="${SIGNIN_ACCOUNT_LIMIT:-1000}" SIGNIN_ADDRESS_LIMIT="${SIGNIN_ADDRESS_LIMIT:-1000}"
+export SIGNIN_ACCOUNT_LIMIT="${SIGNIN_ACCOUNT_LIMIT:-100}" SIGNIN_ADDRESS_LIMIT="${SIGNIN_ADDRESS_LIMIT:-10000}"
 app_env
 # API tests make their own databases from this server; mail goes to the test maildev.
 export TEST_DATABASE_URL="postgres://postgres@127.0.0.1:$WS_PG_PORT/postgres"
