@@ -1,0 +1,171 @@
+import { randomBytes } from 'node:crypto';
+import type { Express } from 'express';
+import request from 'supertest';
+import { inject } from 'vitest';
+import type { Role } from '@wingstage/shared';
+import { createApp, type AppParts } from '../src/app.js';
+import { loadConfig, type Config } from '../src/config/config.js';
+import { hashPassword } from '../src/lib/passwords.js';
+import { Aircraft, Customer, Job, User, Workshop } from '../src/models/index.js';
+import { startParts, stopParts } from '../src/runtime.js';
+
+export const PASSWORD = 'runway-heading-270';
+export const MAILDEV_API = process.env.MAILDEV_API_URL ?? 'http://127.0.0.1:1081';
+
+export function testConfig(overrides: Record<string, string> = {}): Config {
+  return loadConfig({
+    NODE_ENV: 'test',
+    DATABASE_URL: inject('databaseUrl'),
+    JWT_SECRET: 'test-secret-that-is-long-enough-0123456789',
+    APP_URL: 'http://127.0.0.1:3100',
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: process.env.SMTP_PORT ?? '1026',
+    LOG_LEVEL: 'silent',
+    COOKIE_SECURE: 'false',
+    SIGNIN_ADDRESS_LIMIT: '10000',
+    CLIENT_DIST: '/nonexistent-client-dist',
+    ...overrides,
+  });
+}
+
+export interface TestServer {
+  app: Express;
+  parts: AppParts;
+  /** Another app on the same database and queue with different settings. */
+  variant(overrides: Record<string, string>): Express;
+  close(): Promise<void>;
+}
+
+export async function startTestServer(overrides: Record<string, string> = {}): Promise<TestServer> {
+  const parts = await startParts(testConfig(overrides));
+  return {
+    app: createApp(parts),
+    parts,
+    variant: (o) => createApp({ ...parts, config: testConfig({ ...overrides, ...o }) }),
+    close: () => stopParts(parts),
+  };
+}
+
+let hashed: Promise<string> | null = null;
+/** One real bcrypt hash shared by the rows a file creates: each fresh hash costs a quarter second. */
+export function passwordHash(): Promise<string> {
+  hashed ??= hashPassword(PASSWORD);
+  return hashed;
+}
+
+export const uniq = () => randomBytes(4).toString('hex');
+
+export interface OwnerFixture {
+  customer: Customer;
+  user: User;
+  aircraft: Aircraft;
+  job: Job;
+}
+
+export interface WorkshopFixture {
+  workshop: Workshop;
+  users: Record<Exclude<Role, 'owner'>, User>;
+  owners: [OwnerFixture, OwnerFixture];
+}
+
+let jobSeq = 0;
+
+export async function makeJob(workshopId: string, aircraftId: string, state: Job['state'] = 'booked_in'): Promise<Job> {
+  jobSeq += 1;
+  return Job.create({
+    workshopId,
+    aircraftId,
+    number: `T-${uniq()}-${jobSeq}`,
+    title: 'Annual permit inspection',
+    type: 'annual_permit_inspection',
+    state,
+    bookedInOn: '2026-11-20',
+    dueOn: null,
+  });
+}
+
+/** A workshop with a user of every staff role and two owners, each with an aircraft and a job. */
+export async function makeWorkshop(label = 'Test'): Promise<WorkshopFixture> {
+  const hash = await passwordHash();
+  const tag = uniq();
+  const workshop = await Workshop.create({
+    name: `${label} Workshop ${tag}`,
+    vatRates: { standard: '20', reduced: '5', zero: '0' },
+    labourRates: [{ code: 'standard', name: 'Workshop labour', ratePerHour: '62.00' }],
+  });
+  const staff = async (role: Exclude<Role, 'owner'>) =>
+    User.create({ workshopId: workshop.id, email: `${role}-${tag}@test.example`, name: `${role} ${tag}`, role, passwordHash: hash, customerId: null });
+  const users = {
+    admin: await staff('admin'),
+    manager: await staff('manager'),
+    engineer: await staff('engineer'),
+    accounts: await staff('accounts'),
+  };
+  const owner = async (n: number): Promise<OwnerFixture> => {
+    const customer = await Customer.create({ workshopId: workshop.id, name: `Owner ${n} ${tag}`, email: `owner${n}-${tag}@test.example` });
+    const user = await User.create({ workshopId: workshop.id, email: `owner${n}-${tag}@test.example`, name: `Owner ${n}`, role: 'owner', passwordHash: hash, customerId: customer.id });
+    const aircraft = await Aircraft.create({ workshopId: workshop.id, customerId: customer.id, registration: `Q-${tag.slice(0, 3).toUpperCase()}${n}`, type: 'Three-axis high-wing microlight', airframeHours: '100.5' });
+    const job = await makeJob(workshop.id, aircraft.id);
+    return { customer, user, aircraft, job };
+  };
+  return { workshop, users, owners: [await owner(1), await owner(2)] };
+}
+
+export interface Client {
+  agent: ReturnType<typeof request.agent>;
+  csrf: string;
+  get(path: string): request.Test;
+  post(path: string, body?: object): request.Test;
+  patch(path: string, body?: object): request.Test;
+}
+
+export function clientFor(agent: ReturnType<typeof request.agent>, csrf: string): Client {
+  return {
+    agent,
+    csrf,
+    get: (p) => agent.get(p),
+    post: (p, body) => agent.post(p).set('X-CSRF-Token', csrf).send(body ?? {}),
+    patch: (p, body) => agent.patch(p).set('X-CSRF-Token', csrf).send(body ?? {}),
+  };
+}
+
+export async function signIn(app: Express, email: string, password = PASSWORD): Promise<Client> {
+  const agent = request.agent(app);
+  const res = await agent.post('/api/auth/sign-in').send({ email, password });
+  if (res.status !== 200) throw new Error(`sign-in as ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return clientFor(agent, res.body.csrfToken as string);
+}
+
+interface MaildevMail {
+  id: string;
+  subject: string;
+  text: string;
+  to: { address: string }[];
+  date?: string;
+  time: string;
+}
+
+/** Polls maildev for a message to `to` that passes `match`; other tests' mail is ignored. */
+export async function waitForMail(to: string, match: (m: MaildevMail) => boolean = () => true, timeoutMs = 15_000): Promise<MaildevMail> {
+  const until = Date.now() + timeoutMs;
+  while (Date.now() < until) {
+    const res = await fetch(`${MAILDEV_API}/api/email`);
+    const all = (await res.json()) as MaildevMail[];
+    const hits = all.filter((m) => m.to.some((t) => t.address.toLowerCase() === to.toLowerCase()) && match(m));
+    if (hits.length) return hits[hits.length - 1]!;
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`no e-mail to ${to} within ${timeoutMs} ms`);
+}
+
+export async function mailsTo(to: string): Promise<MaildevMail[]> {
+  const res = await fetch(`${MAILDEV_API}/api/email`);
+  const all = (await res.json()) as MaildevMail[];
+  return all.filter((m) => m.to.some((t) => t.address.toLowerCase() === to.toLowerCase()));
+}
+
+export function tokenFrom(mail: MaildevMail): string {
+  const m = /token=([A-Za-z0-9_-]+)/.exec(mail.text);
+  if (!m) throw new Error(`no token link in e-mail "${mail.subject}"`);
+  return m[1]!;
+}

@@ -1,0 +1,15 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  test: {
+    name: 'server',
+    include: ['test/**/*.test.ts'],
+    environment: 'node',
+    globalSetup: ['test/global-setup.ts'],
+    // Real bcrypt (cost 12), real PostgreSQL and real SMTP: allow for a slow shared machine.
+    testTimeout: 30_000,
+    hookTimeout: 60_000,
+    pool: 'forks',
+    maxWorkers: 2,
+  },
+});
