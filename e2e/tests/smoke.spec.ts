@@ -11,16 +11,18 @@ test.describe('smoke', () => {
     expect(await response.json()).toMatchObject({ status: 'ok', app: 'ok', database: 'ok' });
   });
 
-  test('when someone opens the sign-in page, then it shows the Wingstage heading and labelled fields', async ({
+  test('when someone opens the sign-in page, then it shows the Wingstage mark, a heading and labelled fields', async ({
     page,
   }, testInfo) => {
     const response = await page.goto('/sign-in');
     expect(response?.status()).toBe(200);
     await expect(page).toHaveTitle(/Wingstage/);
-    await expect(page.getByRole('heading', { level: 1, name: /Wingstage/ })).toBeVisible();
+    // The product's name is the header's mark (an image named Wingstage); the page's own heading says what to do.
+    await expect(page.getByRole('img', { name: 'Wingstage' }).first()).toBeVisible();
+    await expect(page.getByRole('heading', { level: 1, name: /sign in/i })).toBeVisible();
 
     const email = page.getByLabel(/e-?mail/i);
-    const password = page.getByLabel(/^password$/i);
+    const password = page.getByLabel(/^password/i);
     await expect(email).toBeVisible();
     await expect(email).toHaveAttribute('type', 'email');
     await expect(password).toBeVisible();
