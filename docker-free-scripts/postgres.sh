@@ -29,8 +29,10 @@ start() {
   local bin; bin="$(pg_bin)"
   if [ "$(id -u)" = "0" ]; then
     # initdb refuses root; the data folder belongs to postgres and every folder above it must be traversable.
-    local d="$PG_DIR"; while [ "$d" != "/" ]; do chmod o+x "$d" 2>/dev/null || true; d="$(dirname "$d")"; done
+    # The data folder itself must stay 0700: PostgreSQL refuses to start on anything looser.
+    local d; d="$(dirname "$PG_DIR")"; while [ "$d" != "/" ]; do chmod o+x "$d" 2>/dev/null || true; d="$(dirname "$d")"; done
   fi
+  if [ -d "$PG_DIR" ]; then chmod 700 "$PG_DIR" 2>/dev/null || true; fi
   if [ ! -s "$PG_DIR/PG_VERSION" ]; then
     mkdir -p "$PG_DIR"; if [ "$(id -u)" = "0" ]; then chown postgres:postgres "$PG_DIR"; fi; chmod 700 "$PG_DIR"
     say "initialising PostgreSQL in ${PG_DIR#"$ROOT"/}"
