@@ -11,7 +11,10 @@ export function useAcceptInvitation() {
   return useMutation({
     mutationFn: acceptInvitation,
     onSuccess: (session) => {
-      qc.clear();
+      // Drop anything a previous person on this browser left behind, but keep the invitation the
+      // page is still showing: clearing it would refetch a now-used token and flash an error.
+      const invitation = authKeys.invitation('').slice(0, 2).join('/');
+      qc.removeQueries({ predicate: (q) => q.queryKey.slice(0, 2).join('/') !== invitation });
       qc.setQueryData(authKeys.session(), session);
     },
   });

@@ -19,6 +19,7 @@ const columns = [
   }),
   col.accessor('title', {
     header: 'Work',
+    enableSorting: false,
     cell: (c) => (
       <span>
         {c.getValue()}
@@ -26,7 +27,7 @@ const columns = [
       </span>
     ),
   }),
-  col.accessor('customerName', { header: 'Owner' }),
+  col.accessor('customerName', { header: 'Owner', enableSorting: false }),
   col.accessor('state', { header: 'State', cell: (c) => <StateBadge state={c.getValue()} /> }),
   col.accessor('bookedInOn', { header: 'Booked in', cell: (c) => <span className="tabular-nums">{formatDate(c.getValue())}</span> }),
 ];
