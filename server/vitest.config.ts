@@ -11,5 +11,7 @@ export default defineConfig({
     hookTimeout: 60_000,
     pool: 'forks',
     maxWorkers: 2,
+    // Its own group when run beside the other projects, which use vitest's default worker count.
+    sequence: { groupOrder: 1 },
   },
 });
