@@ -101,10 +101,19 @@ export function parseAmount(value: unknown, currency: string, path = 'amount', o
   return d;
 }
 
-/** Formats to exactly the currency's decimals ("12.10", "500"); the value must already fit. */
+/**
+ * Formats to exactly `dp` decimals ("12.10", "500"). The value must already fit: this never rounds,
+ * so a figure that was not rounded on purpose is an error, not a silent change. (Padding the plain
+ * string is also several times cheaper than decimal.js's own fixed-point formatting.)
+ */
+const ZERO_STRINGS = ['0', '0.0', '0.00', '0.000', '0.0000'];
 export function formatAmount(d: Dec, dp: number): string {
-  const s = d.toFixed(dp);
-  return s.startsWith('-') && /^-0(\.0*)?$/.test(s) ? s.slice(1) : s;
+  if (d.isZero()) return ZERO_STRINGS[dp] ?? d.abs().toFixed(dp);
+  const have = d.decimalPlaces();
+  if (have > dp) throw new MoneyError('too_many_decimals', `internal: ${d.toString()} has more than ${dp} decimals and was not rounded.`);
+  const s = d.toString();
+  if (have === dp) return s;
+  return have === 0 ? `${s}.${'0'.repeat(dp)}` : s + '0'.repeat(dp - have);
 }
 
 /**

@@ -12,13 +12,27 @@ import {
   type PricedEstimate,
   type PricedFinding,
   type PricedLine,
+  type RateTotal,
   type Totals,
   type VatRateCode,
   type WorkshopPricing,
 } from './types.js';
-import { assertVatRounding, computeVat, parseVatRate, roundLineVat, type VatItem, type VatRounding } from './vat.js';
+import {
+  accumulateVat,
+  assertVatRounding,
+  exactVat,
+  finishVat,
+  isPerLine,
+  mergeVat,
+  parseVatRate,
+  roundLineVat,
+  type VatAccumulator,
+  type VatItem,
+  type VatRounding,
+} from './vat.js';
 
-const HUNDRED = new Dec(100);
+const PERCENT = new Dec('0.01');
+const ONE = new Dec(1);
 const ZERO = new Dec(0);
 
 /** The pricing-relevant part of a workshop's settings. */
@@ -39,8 +53,9 @@ export interface PricingContext {
   rounding: VatRounding;
   rates: Record<VatRateCode, Dec>;
   rateStrings: Record<VatRateCode, string>;
-  partsMarkup: Dec;
-  subcontractMarkup: Dec;
+  /** 1 + mark-up%, kept as a factor so each line is one multiplication. */
+  partsFactor: Dec;
+  subcontractFactor: Dec;
 }
 
 export function pricingContext(p: WorkshopPricing): PricingContext {
@@ -62,9 +77,13 @@ export function pricingContext(p: WorkshopPricing): PricingContext {
     rounding: p.vatRounding,
     rates,
     rateStrings,
-    partsMarkup: parseDecimal(p.partsMarkupPercent, 'pricing.partsMarkupPercent'),
-    subcontractMarkup: parseDecimal(p.subcontractMarkupPercent, 'pricing.subcontractMarkupPercent'),
+    partsFactor: markupFactor(p.partsMarkupPercent, 'pricing.partsMarkupPercent'),
+    subcontractFactor: markupFactor(p.subcontractMarkupPercent, 'pricing.subcontractMarkupPercent'),
   };
+}
+
+function markupFactor(pct: unknown, path: string): Dec {
+  return ONE.plus(parseDecimal(pct, path).times(PERCENT));
 }
 
 function oneOf<T extends string>(allowed: readonly T[], v: unknown, path: string): T {
@@ -111,22 +130,23 @@ function lineBase(line: EstimateLineInput, ctx: PricingContext, path: string): L
       const hasCost = line.unitCost !== undefined && line.unitCost !== null;
       if (!hasPrice && !hasCost) throw new MoneyError('invalid_input', 'a part needs a unit cost or a fixed unit price.', path);
       // Unit costs may carry fractions of a penny (bulk fasteners), so they are not held to minor units.
-      const cost = hasCost ? roundHalfUp(qty.times(parseDecimal(line.unitCost, `${path}.unitCost`)), dp) : null;
+      const rawCost = hasCost ? qty.times(parseDecimal(line.unitCost, `${path}.unitCost`)) : null;
+      const cost = rawCost === null ? null : roundHalfUp(rawCost, dp);
       if (hasPrice) {
         return { list: roundHalfUp(qty.times(parseDecimal(line.unitPrice, `${path}.unitPrice`)), dp), cost };
       }
-      const markup =
-        line.markupPercent === undefined || line.markupPercent === null ? ctx.partsMarkup : parseDecimal(line.markupPercent, `${path}.markupPercent`);
-      const unitCost = parseDecimal(line.unitCost, `${path}.unitCost`);
-      return { list: roundHalfUp(qty.times(unitCost).times(HUNDRED.plus(markup)).dividedBy(HUNDRED), dp), cost };
+      const factor =
+        line.markupPercent === undefined || line.markupPercent === null ? ctx.partsFactor : markupFactor(line.markupPercent, `${path}.markupPercent`);
+      // Mark-up on the unrounded cost, so the sell price is rounded once.
+      return { list: roundHalfUp(rawCost!.times(factor), dp), cost };
     }
     case 'subcontract': {
       const cost = parseAmount(line.cost, currency, `${path}.cost`);
-      const markup =
+      const factor =
         line.markupPercent === undefined || line.markupPercent === null
-          ? ctx.subcontractMarkup
-          : parseDecimal(line.markupPercent, `${path}.markupPercent`);
-      return { list: roundHalfUp(cost.times(HUNDRED.plus(markup)).dividedBy(HUNDRED), dp), cost };
+          ? ctx.subcontractFactor
+          : markupFactor(line.markupPercent, `${path}.markupPercent`);
+      return { list: roundHalfUp(cost.times(factor), dp), cost };
     }
     case 'fee':
       return { list: parseAmount(line.amount, currency, `${path}.amount`), cost: null };
@@ -141,7 +161,7 @@ function lineDiscount(line: EstimateLineInput, list: Dec, ctx: PricingContext, p
   if ('percent' in d) {
     const pct = parseDecimal(d.percent, `${path}.discount.percent`);
     if (pct.greaterThan(100)) throw new MoneyError('out_of_range', 'a discount cannot exceed 100%.', `${path}.discount.percent`);
-    return roundHalfUp(list.times(pct).dividedBy(HUNDRED), ctx.dp);
+    return roundHalfUp(list.times(pct).times(PERCENT), ctx.dp);
   }
   if ('amount' in d) {
     const amt = parseAmount(d.amount, ctx.currency, `${path}.discount.amount`);
@@ -163,6 +183,8 @@ interface WorkLine {
   discount: Dec;
   net: Dec;
   cost: Dec | null;
+  /** The line as the VAT core sees it, with its per-line VAT worked once. */
+  item: VatItem;
 }
 
 interface WorkAccess {
@@ -170,6 +192,7 @@ interface WorkAccess {
   code: VatRateCode;
   rate: Dec;
   net: Dec;
+  item: VatItem;
   stages: Set<EstimateStage>;
   committedRemedies: Set<string>;
   allRemedies: Set<string>;
@@ -178,15 +201,19 @@ interface WorkAccess {
 /** Key for "one remedy": a finding, or the inspection scope / lines raised without a finding. */
 const SCOPE_REMEDY = '\u0000scope';
 
-function totals(items: VatItem[], ctx: PricingContext): Totals {
-  const r = computeVat(items, ctx.dp, ctx.rounding);
+function vatItem(key: VatRateCode, rate: Dec, net: Dec, ctx: PricingContext): VatItem {
+  return { key, rate, net, lineVat: isPerLine(ctx.rounding) ? roundLineVat(exactVat(net, rate), ctx.dp, ctx.rounding) : null };
+}
+
+function totalsOf(acc: VatAccumulator, ctx: PricingContext): Totals {
+  const r = finishVat(acc, ctx.dp, ctx.rounding);
   return {
     net: formatAmount(r.net, ctx.dp),
     vat: formatAmount(r.vat, ctx.dp),
     gross: formatAmount(r.net.plus(r.vat), ctx.dp),
-    byRate: r.groups.map((g) => ({
+    byRate: r.groups.map((g): RateTotal => ({
       code: g.key as VatRateCode,
-      rate: g.rate.toString(),
+      rate: ctx.rateStrings[g.key as VatRateCode],
       net: formatAmount(g.net, ctx.dp),
       vat: formatAmount(g.vat, ctx.dp),
     })),
@@ -212,11 +239,13 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
     const code = oneOf(VAT_RATE_CODES, t.vatRate, `${path}.vatRate`);
     const hours = parseDecimal(t.hours, `${path}.hours`);
     const rate = parseAmount(t.ratePerHour, ctx.currency, `${path}.ratePerHour`);
+    const net = roundHalfUp(hours.times(rate), dp);
     access.set(id, {
       id,
       code,
       rate: ctx.rates[code],
-      net: roundHalfUp(hours.times(rate), dp),
+      net,
+      item: vatItem(code, ctx.rates[code], net, ctx),
       stages: new Set(),
       committedRemedies: new Set(),
       allRemedies: new Set(),
@@ -245,7 +274,9 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
       if (stage === 'inspection' || stage === 'approved') task.committedRemedies.add(remedy);
       if (stage !== 'declined') task.allRemedies.add(remedy);
     }
-    return { id, stage, kind, findingId, accessTaskId, code, rate: ctx.rates[code], list, discount, net: list.minus(discount), cost };
+    const net = discount.isZero() ? list : list.minus(discount);
+    const rate = ctx.rates[code];
+    return { id, stage, kind, findingId, accessTaskId, code, rate, list, discount, net, cost, item: vatItem(code, rate, net, ctx) };
   });
 
   // Where each access task is paid for: the first stage in priority order that uses it.
@@ -253,28 +284,32 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
   for (const t of access.values()) chargedIn.set(t.id, STAGE_PRIORITY.find((s) => t.stages.has(s)) ?? null);
 
   const stageItems: Record<EstimateStage, VatItem[]> = { inspection: [], discovered: [], approved: [], declined: [] };
-  for (const l of work) stageItems[l.stage].push({ key: l.code, rate: l.rate, net: l.net });
+  for (const l of work) stageItems[l.stage].push(l.item);
   for (const t of access.values()) {
     const s = chargedIn.get(t.id);
-    if (s) stageItems[s].push({ key: t.code, rate: t.rate, net: t.net });
+    if (s) stageItems[s].push(t.item);
   }
-
-  const stages = {
-    inspection: totals(stageItems.inspection, ctx),
-    discovered: totals(stageItems.discovered, ctx),
-    approved: totals(stageItems.approved, ctx),
-    declined: totals(stageItems.declined, ctx),
+  // Sums per stage once; the committed and if-all-approved totals merge them rather than revisit lines.
+  const acc = {
+    inspection: accumulateVat(stageItems.inspection, dp, ctx.rounding),
+    discovered: accumulateVat(stageItems.discovered, dp, ctx.rounding),
+    approved: accumulateVat(stageItems.approved, dp, ctx.rounding),
+    declined: accumulateVat(stageItems.declined, dp, ctx.rounding),
   };
-  const committedItems = stageItems.inspection.concat(stageItems.approved);
-  const committed = totals(committedItems, ctx);
-  const ifAllApproved = totals(committedItems.concat(stageItems.discovered), ctx);
+  const stages = {
+    inspection: totalsOf(acc.inspection, ctx),
+    discovered: totalsOf(acc.discovered, ctx),
+    approved: totalsOf(acc.approved, ctx),
+    declined: totalsOf(acc.declined, ctx),
+  };
+  const committedAcc = mergeVat(acc.inspection, acc.approved);
+  const committed = totalsOf(committedAcc, ctx);
+  const ifAllApproved = totalsOf(mergeVat(committedAcc, acc.discovered), ctx);
   const quoted = stages.inspection;
 
-  const perLine = ctx.rounding === 'line-nearest' || ctx.rounding === 'line-down-tenth';
-  const lineVat = (net: Dec, rate: Dec): string | null => {
-    if (!perLine) return null;
-    const v = roundLineVat(net.times(rate).dividedBy(HUNDRED), dp, ctx.rounding);
-    return ctx.rounding === 'line-nearest' ? formatAmount(v, dp) : v.toFixed(dp + 1);
+  const lineVat = (v: Dec | null | undefined): string | null => {
+    if (v === null || v === undefined) return null;
+    return ctx.rounding === 'line-down-tenth' ? v.toFixed(dp + 1) : formatAmount(v, dp);
   };
 
   const lines: PricedLine[] = work.map((l) => ({
@@ -289,7 +324,7 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
     listNet: formatAmount(l.list, dp),
     discount: formatAmount(l.discount, dp),
     net: formatAmount(l.net, dp),
-    vat: lineVat(l.net, l.rate),
+    vat: lineVat(l.item.lineVat),
   }));
 
   let savingNet = ZERO;
@@ -297,7 +332,7 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
   const accessTasks: PricedAccessTask[] = [...access.values()].map((t) => {
     const n = t.committedRemedies.size;
     const saving = n > 1 ? t.net.times(n - 1) : ZERO;
-    const gross = roundHalfUp(saving.times(HUNDRED.plus(t.rate)).dividedBy(HUNDRED), dp);
+    const gross = roundHalfUp(saving.plus(exactVat(saving, t.rate)), dp);
     savingNet = savingNet.plus(saving);
     savingGross = savingGross.plus(gross);
     const all = t.allRemedies.size;
@@ -362,7 +397,7 @@ function priceFindings(work: WorkLine[], access: Map<string, WorkAccess>, ctx: P
     const own = byFinding.get(findingId)!;
     const stageSet = new Set(own.map((l) => l.stage));
     const stage: EstimateStage | 'mixed' = stageSet.size === 1 ? own[0]!.stage : 'mixed';
-    const items: VatItem[] = own.map((l) => ({ key: l.code, rate: l.rate, net: l.net }));
+    const items: VatItem[] = own.map((l) => l.item);
     const named = [...new Set(own.map((l) => l.accessTaskId).filter((x): x is string => x !== null))].sort();
     const charged: string[] = [];
     const covered: string[] = [];
@@ -373,10 +408,13 @@ function priceFindings(work: WorkLine[], access: Map<string, WorkAccess>, ctx: P
       else {
         charged.push(taskId);
         const t = access.get(taskId)!;
-        priceItems.push({ key: t.code, rate: t.rate, net: t.net });
+        priceItems.push(t.item);
       }
     }
-    return { findingId, stage, work: totals(items, ctx), accessCharged: charged, accessCovered: covered, price: totals(priceItems, ctx) };
+    const workAcc = accumulateVat(items, ctx.dp, ctx.rounding);
+    const work = totalsOf(workAcc, ctx);
+    const price = priceItems.length === items.length ? work : totalsOf(accumulateVat(priceItems.slice(items.length), ctx.dp, ctx.rounding, mergeVat(workAcc)), ctx);
+    return { findingId, stage, work, accessCharged: charged, accessCovered: covered, price };
   });
 }
 

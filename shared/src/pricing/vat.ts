@@ -49,8 +49,11 @@ export function lineVatRounded(exactVat: string, rounding: VatRounding, currency
 /** One already-parsed line for the VAT core: `key` groups lines in the breakdown. */
 export interface VatItem {
   key: string;
-  rate: Dec; // percent
+  /** Percentage, e.g. 20. */
+  rate: Dec;
   net: Dec;
+  /** The line's VAT already rounded under a per-line method, when the caller has it to hand. */
+  lineVat?: Dec | null;
 }
 
 export interface VatGroup {
@@ -64,62 +67,119 @@ export interface VatResult {
   net: Dec;
   vat: Dec;
   groups: VatGroup[];
-  /** Per-item VAT where the method works per line; null for the invoice-level methods. */
-  itemVat: (Dec | null)[] | null;
 }
 
-const HUNDRED = new Dec(100);
+/** Running sums per VAT group; merge several to total a union of stages without revisiting lines. */
+export type VatAccumulator = Map<string, { key: string; rate: Dec; net: Dec; lineVat: Dec }>;
+
+const PERCENT = new Dec('0.01');
+const ZERO = new Dec(0);
+
+export function isPerLine(rounding: VatRounding): boolean {
+  return rounding === 'line-nearest' || rounding === 'line-down-tenth';
+}
+
+/** One line's exact VAT: net × rate%. Multiplying by 0.01 is exact and cheaper than dividing. */
+export function exactVat(net: Dec, rate: Dec): Dec {
+  return net.times(rateFactor(rate));
+}
+
+// rate% as a factor (20 → 0.2), cached: a workshop uses a handful of rates, priced thousands of times.
+const FACTORS = new Map<string, Dec>();
+function rateFactor(rate: Dec): Dec {
+  const k = rate.toString();
+  let f = FACTORS.get(k);
+  if (!f) {
+    f = rate.times(PERCENT);
+    if (FACTORS.size < 64) FACTORS.set(k, f);
+  }
+  return f;
+}
+
+export function accumulateVat(items: readonly VatItem[], dp: number, rounding: VatRounding, into: VatAccumulator = new Map()): VatAccumulator {
+  const perLine = isPerLine(rounding);
+  for (const it of items) {
+    const v = !perLine ? ZERO : (it.lineVat ?? roundLineVat(exactVat(it.net, it.rate), dp, rounding));
+    const g = into.get(it.key);
+    if (g) {
+      g.net = g.net.plus(it.net);
+      if (perLine) g.lineVat = g.lineVat.plus(v);
+    } else {
+      into.set(it.key, { key: it.key, rate: it.rate, net: it.net, lineVat: v });
+    }
+  }
+  return into;
+}
+
+export function mergeVat(...accs: VatAccumulator[]): VatAccumulator {
+  const out: VatAccumulator = new Map();
+  for (const acc of accs) {
+    for (const g of acc.values()) {
+      const o = out.get(g.key);
+      if (o) {
+        o.net = o.net.plus(g.net);
+        o.lineVat = o.lineVat.plus(g.lineVat);
+      } else out.set(g.key, { ...g });
+    }
+  }
+  return out;
+}
+
+const SCALES = new Map<number, { scale: Dec; unit: Dec }>();
+function scaleOf(dp: number) {
+  let s = SCALES.get(dp);
+  if (!s) {
+    s = { scale: new Dec(10).pow(dp), unit: new Dec(10).pow(-dp) };
+    SCALES.set(dp, s);
+  }
+  return s;
+}
 
 /**
- * The VAT core every total goes through. Each item's VAT is first taken exactly (net × rate / 100)
- * and, for the per-line methods, rounded per line; the invoice total is then rounded by the method.
- * The breakdown by group is apportioned from that total by largest remainder so the groups always
- * add up to the VAT the invoice shows (each group is within one minor unit of its own rounded sum).
+ * The VAT core every total goes through. Under the invoice-level methods each group's VAT is taken
+ * exactly (the sum of exact line VAT equals group net × rate, so lines need not be visited twice);
+ * under the per-line methods each line is rounded first. The invoice total is then rounded by the
+ * method, and the breakdown by group is apportioned from that total by largest remainder so the
+ * groups always add up to the VAT the invoice shows (each group within one minor unit of its own
+ * figure).
  *
  * Groups come out in a fixed order (rate descending, then key) whatever the order of the items, so
  * pricing never depends on line order.
  */
-export function computeVat(items: readonly VatItem[], dp: number, rounding: VatRounding): VatResult {
-  const perLine = rounding === 'line-nearest' || rounding === 'line-down-tenth';
-  const itemVat: (Dec | null)[] | null = perLine ? [] : null;
-  const byKey = new Map<string, { key: string; rate: Dec; net: Dec; pre: Dec }>();
-  let net = new Dec(0);
-  let pre = new Dec(0);
-  for (const it of items) {
-    const exact = it.net.times(it.rate).dividedBy(HUNDRED);
-    const v = perLine ? roundLineVat(exact, dp, rounding) : exact;
-    if (itemVat) itemVat.push(v);
-    net = net.plus(it.net);
-    pre = pre.plus(v);
-    const g = byKey.get(it.key);
-    if (g) {
-      g.net = g.net.plus(it.net);
-      g.pre = g.pre.plus(v);
-    } else {
-      byKey.set(it.key, { key: it.key, rate: it.rate, net: it.net, pre: v });
-    }
+export function finishVat(acc: VatAccumulator, dp: number, rounding: VatRounding): VatResult {
+  const perLine = isPerLine(rounding);
+  const { scale, unit } = scaleOf(dp);
+  const groups = [...acc.values()]
+    .sort((a, b) => b.rate.comparedTo(a.rate) || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0))
+    .map((g) => ({ key: g.key, rate: g.rate, net: g.net, pre: perLine ? g.lineVat : exactVat(g.net, g.rate) }));
+  let net = ZERO;
+  let pre = ZERO;
+  for (const g of groups) {
+    net = net.plus(g.net);
+    pre = pre.plus(g.pre);
   }
   const vat = rounding === 'invoice-nearest' || rounding === 'line-nearest' ? roundHalfUp(pre, dp) : roundDown(pre, dp);
-  const groups = [...byKey.values()].sort((a, b) => b.rate.comparedTo(a.rate) || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0));
-  const scale = new Dec(10).pow(dp);
-  const out: VatGroup[] = groups.map((g) => ({ key: g.key, rate: g.rate, net: g.net, vat: new Dec(0) }));
+  // Whole minor units per line already: each group's own sum is exact and adds up to the total.
+  if (groups.length <= 1 || rounding === 'line-nearest') {
+    if (groups.length > 1) return { net, vat, groups: groups.map((g) => ({ key: g.key, rate: g.rate, net: g.net, vat: g.pre })) };
+    return { net, vat, groups: groups.map((g) => ({ key: g.key, rate: g.rate, net: g.net, vat })) };
+  }
   // Apportion the rounded total across groups: floors of each group's own figure, leftover units to
-  // the largest remainders. With a single group this is simply the total.
-  const units = vat.times(scale);
-  const floors = groups.map((g) => g.pre.times(scale).floor());
-  const floorSum = floors.reduce((a, f) => a.plus(f), new Dec(0));
-  let left = units.minus(floorSum);
-  if (left.isNegative() || left.greaterThan(groups.length)) {
+  // the largest remainders, ties to the earlier group.
+  const scaled = groups.map((g) => g.pre.times(scale));
+  const floors = scaled.map((x) => x.floor());
+  let left = vat.times(scale).minus(floors.reduce((a, f) => a.plus(f), ZERO)).toNumber();
+  if (left < 0 || left > groups.length) {
     // Cannot happen for non-negative nets; kept as a guard so a broken invariant is loud.
     throw new MoneyError('invalid_input', 'VAT breakdown could not be apportioned.');
   }
-  const order = groups
-    .map((g, i) => ({ i, rem: g.pre.times(scale).minus(floors[i]!) }))
-    .sort((a, b) => b.rem.comparedTo(a.rem) || a.i - b.i);
-  for (let i = 0; i < out.length; i++) out[i]!.vat = floors[i]!;
-  for (let k = 0; left.greaterThan(0); k++, left = left.minus(1)) out[order[k]!.i]!.vat = out[order[k]!.i]!.vat.plus(1);
-  for (const g of out) g.vat = g.vat.dividedBy(scale);
-  return { net, vat, groups: out, itemVat };
+  const order = scaled.map((x, i) => ({ i, rem: x.minus(floors[i]!) })).sort((a, b) => b.rem.comparedTo(a.rem) || a.i - b.i);
+  for (let k = 0; left > 0; k++, left--) floors[order[k]!.i] = floors[order[k]!.i]!.plus(1);
+  return { net, vat, groups: groups.map((g, i) => ({ key: g.key, rate: g.rate, net: g.net, vat: floors[i]!.times(unit) })) };
+}
+
+export function computeVat(items: readonly VatItem[], dp: number, rounding: VatRounding): VatResult {
+  return finishVat(accumulateVat(items, dp, rounding), dp, rounding);
 }
 
 export interface VatTotals {
@@ -158,7 +218,7 @@ export function vatTotals(
 
 /** VAT inside a VAT-inclusive amount as an exact decimal: gross × rate / (100 + rate). */
 export function vatFractionExact(gross: Dec, rate: Dec): Dec {
-  return gross.times(rate).dividedBy(HUNDRED.plus(rate));
+  return gross.times(rate).dividedBy(rate.plus(100));
 }
 
 /**
