@@ -1,4 +1,9 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import request from 'supertest';
+import { createApp } from '../src/app.js';
+import { createSequelize } from '../src/db/sequelize.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadConfig } from '../src/config/config.js';
 import { OneTimeToken, User, boundSequelize } from '../src/models/index.js';
@@ -63,6 +68,36 @@ describe('health and errors', () => {
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('validation_failed');
     expect(res.body.error.requestId).toBe(res.headers['x-request-id']);
+  });
+});
+
+describe('serving the client', () => {
+  it('when a built client exists, then non-API paths get its index page while unknown API paths stay JSON 404', async () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'ws-dist-'));
+    fs.writeFileSync(path.join(dir, 'index.html'), '<!doctype html><title>shell</title>');
+    fs.writeFileSync(path.join(dir, 'app.js'), 'console.log(1)');
+    const app = server.variant({ CLIENT_DIST: dir });
+    const deep = await request(app).get('/jobs/123/estimate');
+    expect(deep.status).toBe(200);
+    expect(deep.text).toContain('<title>shell</title>');
+    expect(deep.headers['content-security-policy']).toContain("script-src 'self'");
+    const asset = await request(app).get('/app.js');
+    expect(asset.text).toBe('console.log(1)');
+    const api = await request(app).get('/api/nowhere');
+    expect(api.status).toBe(404);
+    expect(api.body.error.code).toBe('not_found');
+  });
+
+  it('when the database cannot be reached, then health answers 503 naming the database', async () => {
+    const dead = createSequelize('postgres://postgres@127.0.0.1:1/none', undefined, 1);
+    try {
+      const app = createApp({ ...server.parts, sequelize: dead });
+      const res = await request(app).get('/api/health');
+      expect(res.status).toBe(503);
+      expect(res.body).toMatchObject({ app: 'ok', database: 'unreachable' });
+    } finally {
+      await dead.close();
+    }
   });
 });
 
@@ -172,7 +207,6 @@ describe('password hashing (OWASP Password Storage Cheat Sheet)', () => {
 describe('sign-in throttling', () => {
   it('when an account reaches the failure limit, then even the right password is refused with 429', async () => {
     const app = server.variant({ SIGNIN_ACCOUNT_LIMIT: '3' });
-    {
       const email = w.owners[0].user.email;
       for (let i = 0; i < 3; i++) {
         const r = await request(app).post('/api/auth/sign-in').send({ email, password: `wrong-${i}` });
@@ -185,7 +219,6 @@ describe('sign-in throttling', () => {
       await boundSequelize().query(`UPDATE sign_in_failures SET at = now() - interval '16 minutes' WHERE email = $1`, { bind: [email] });
       const later = await request(app).post('/api/auth/sign-in').send({ email, password: PASSWORD });
       expect(later.status).toBe(200);
-    }
   });
 
   it('when one address makes too many attempts, then it gets 429 whatever the account', async () => {

@@ -14,5 +14,9 @@ export function checkPassword(password: string, hash: string): Promise<boolean> 
   return bcrypt.compare(password, hash);
 }
 
+let dummy: Promise<string> | null = null;
 /** Compared against when the e-mail is unknown, so a miss costs the same time as a wrong password. */
-export const DUMMY_HASH = bcrypt.hashSync('wingstage-timing-equaliser', BCRYPT_COST);
+export function dummyHash(): Promise<string> {
+  dummy ??= bcrypt.hash('wingstage-timing-equaliser', BCRYPT_COST);
+  return dummy;
+}

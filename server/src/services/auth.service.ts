@@ -1,7 +1,7 @@
 import { Op, QueryTypes, type Transaction } from 'sequelize';
 import type { InvitationAcceptInput, PasswordResetCompleteInput, SessionDto, SignInInput } from '@wingstage/shared';
 import { AppError, unauthenticated } from '../errors/app-error.js';
-import { DUMMY_HASH, checkPassword, hashPassword } from '../lib/passwords.js';
+import { checkPassword, dummyHash, hashPassword } from '../lib/passwords.js';
 import { hashToken, issueSession, newOneTimeToken } from '../lib/session-tokens.js';
 import { passwordResetMail } from '../mail/templates.js';
 import { OneTimeToken, User, Workshop, boundSequelize } from '../models/index.js';
@@ -45,7 +45,7 @@ export async function signIn(deps: Deps, input: SignInInput, address: string): P
   }
   const user = await User.findOne({ where: { email: input.email }, include: [{ model: Workshop, as: 'workshop', required: true }] });
   // An unknown address still costs one bcrypt comparison, so timing does not reveal who has a sign-in.
-  const matches = await checkPassword(input.password, user?.passwordHash ?? DUMMY_HASH);
+  const matches = await checkPassword(input.password, user?.passwordHash ?? (await dummyHash()));
   if (!user || !user.passwordHash || !matches) {
     await boundSequelize().query('INSERT INTO sign_in_failures (email, address) VALUES ($1, $2)', { bind: [input.email, address] });
     throw unauthenticated('The e-mail or password is not right.');
