@@ -9,23 +9,11 @@ import * as signIn from './routes/auth/sign-in';
 import * as forgot from './routes/auth/forgot-password';
 import * as reset from './routes/auth/reset-password';
 import * as accept from './routes/auth/accept-invitation';
-import * as jobsList from './routes/jobs/list';
-import * as jobsNew from './routes/jobs/new';
-import * as jobDetail from './routes/jobs/detail';
-import * as aircraftList from './routes/aircraft/list';
-import * as aircraftNew from './routes/aircraft/new';
-import * as aircraftDetail from './routes/aircraft/detail';
-import * as aircraftEdit from './routes/aircraft/edit';
-import * as ownersList from './routes/owners/list';
-import * as ownersNew from './routes/owners/new';
-import * as ownerDetail from './routes/owners/detail';
-import * as ownerEdit from './routes/owners/edit';
-import * as staff from './routes/staff';
-import * as settings from './routes/settings';
-import * as myAircraft from './routes/my-aircraft';
 import * as notFound from './routes/not-found';
 import { RouteError } from './routes/route-error';
 
+// Staff and owner pages load on first visit, so a phone opening an e-mailed link downloads only
+// what that page needs.
 export function createRouter() {
   const router = createBrowserRouter([
     { path: '/', ...home, errorElement: <RouteError /> },
@@ -40,20 +28,20 @@ export function createRouter() {
         {
           errorElement: <RouteError />,
           children: [
-            { path: '/jobs', ...jobsList },
-            { path: '/jobs/new', ...jobsNew },
-            { path: '/jobs/:id', ...jobDetail },
-            { path: '/aircraft', ...aircraftList },
-            { path: '/aircraft/new', ...aircraftNew },
-            { path: '/aircraft/:id', ...aircraftDetail },
-            { path: '/aircraft/:id/edit', ...aircraftEdit },
-            { path: '/owners', ...ownersList },
-            { path: '/owners/new', ...ownersNew },
-            { path: '/owners/:id', ...ownerDetail },
-            { path: '/owners/:id/edit', ...ownerEdit },
-            { path: '/staff', ...staff },
-            { path: '/settings', ...settings },
-            { path: '/my-aircraft', ...myAircraft },
+            { path: '/jobs', lazy: () => import('./routes/jobs/list') },
+            { path: '/jobs/new', lazy: () => import('./routes/jobs/new') },
+            { path: '/jobs/:id', lazy: () => import('./routes/jobs/detail') },
+            { path: '/aircraft', lazy: () => import('./routes/aircraft/list') },
+            { path: '/aircraft/new', lazy: () => import('./routes/aircraft/new') },
+            { path: '/aircraft/:id', lazy: () => import('./routes/aircraft/detail') },
+            { path: '/aircraft/:id/edit', lazy: () => import('./routes/aircraft/edit') },
+            { path: '/owners', lazy: () => import('./routes/owners/list') },
+            { path: '/owners/new', lazy: () => import('./routes/owners/new') },
+            { path: '/owners/:id', lazy: () => import('./routes/owners/detail') },
+            { path: '/owners/:id/edit', lazy: () => import('./routes/owners/edit') },
+            { path: '/staff', lazy: () => import('./routes/staff') },
+            { path: '/settings', lazy: () => import('./routes/settings') },
+            { path: '/my-aircraft', lazy: () => import('./routes/my-aircraft') },
           ],
         },
       ],

@@ -18,6 +18,8 @@ declare module '@tanstack/react-table' {
     numeric?: boolean;
     /** Hidden in the phone card (e.g. a repeat of the heading). */
     hideOnCard?: boolean;
+    /** How the two sort directions read in the phone's sort menu; default "A to Z" / "Z to A". */
+    sortWords?: [asc: string, desc: string];
     _unused?: [TData, TValue];
   }
 }
@@ -116,6 +118,15 @@ export function ServerTable<T>({ caption, columns, rows, total, page, pageSize, 
         </tbody>
       </table>
 
+      <PhoneSort
+        options={table
+          .getAllLeafColumns()
+          .filter((c) => c.getCanSort())
+          .map((c) => ({ id: c.id, label: typeof c.columnDef.header === 'string' ? c.columnDef.header : c.id, words: c.columnDef.meta?.sortWords ?? ['A to Z', 'Z to A'] }))}
+        sort={sort}
+        dir={dir}
+        onSort={onSort}
+      />
       <ul className="flex flex-col gap-3 md:hidden" aria-label={caption}>
         {table.getRowModel().rows.map((row) => {
           const cells = row.getVisibleCells();
@@ -184,6 +195,38 @@ export function SearchBox({ value, onChange, label }: { value: string; onChange:
         onChange={(e) => setDraft(e.target.value)}
         className="block min-h-10 w-full rounded-control border border-seam-strong bg-cloth-raised py-2 pr-3 pl-9 text-base placeholder:text-slate-soft"
       />
+    </div>
+  );
+}
+
+/** On a phone the column headers are gone, so sorting moves into one drop-down above the cards. */
+function PhoneSort({ options, sort, dir, onSort }: { options: { id: string; label: string; words: [string, string] }[]; sort?: string; dir: 'asc' | 'desc'; onSort: (s: string, d: 'asc' | 'desc') => void }) {
+  const id = useId();
+  if (options.length === 0) return null;
+  return (
+    <div className="mb-3 flex items-center gap-2 md:hidden">
+      <label htmlFor={id} className="text-sm font-semibold">
+        Sort by
+      </label>
+      <select
+        id={id}
+        value={sort ? `${sort}:${dir}` : ''}
+        onChange={(e) => {
+          const [s, d] = e.target.value.split(':');
+          if (s) onSort(s, d === 'desc' ? 'desc' : 'asc');
+        }}
+        className="min-h-10 flex-1 rounded-control border border-seam-strong bg-cloth-raised px-2 text-base"
+      >
+        {sort ? null : <option value="">Default order</option>}
+        {options.flatMap((o) => [
+          <option key={`${o.id}:asc`} value={`${o.id}:asc`}>
+            {o.label}, {o.words[0]}
+          </option>,
+          <option key={`${o.id}:desc`} value={`${o.id}:desc`}>
+            {o.label}, {o.words[1]}
+          </option>,
+        ])}
+      </select>
     </div>
   );
 }

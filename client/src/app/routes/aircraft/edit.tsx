@@ -7,11 +7,10 @@ import { aircraftQueryOptions } from '@/features/aircraft/api/get-aircraft';
 import { useUpdateAircraft } from '@/features/aircraft/api/update-aircraft';
 import { AircraftForm } from '@/features/aircraft/components/aircraft-form';
 import { aircraftKeys } from '@/features/aircraft/api/keys';
-import { customersQueryOptions } from '@/features/customers/api/get-customers';
+import { ALL_OWNERS, customersQueryOptions } from '@/features/customers/api/get-customers';
 import { isApiError } from '@/lib/api-client';
 import { queryClient } from '@/lib/query-client';
 import { EDITORS, requireSession } from '../../guards';
-import { ALL_OWNERS } from './new';
 
 export async function loader({ request, params }: LoaderFunctionArgs) {
   await requireSession(request, EDITORS);

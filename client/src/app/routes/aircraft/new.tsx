@@ -3,11 +3,9 @@ import { useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-rou
 import { PageHeader } from '@/components/ui/page';
 import { useCreateAircraft } from '@/features/aircraft/api/create-aircraft';
 import { AircraftForm } from '@/features/aircraft/components/aircraft-form';
-import { customersQueryOptions } from '@/features/customers/api/get-customers';
+import { ALL_OWNERS, customersQueryOptions } from '@/features/customers/api/get-customers';
 import { queryClient } from '@/lib/query-client';
 import { EDITORS, requireSession } from '../../guards';
-
-export const ALL_OWNERS = { pageSize: 100, sort: 'name', dir: 'asc' as const };
 
 export async function loader({ request }: LoaderFunctionArgs) {
   await requireSession(request, EDITORS);

@@ -39,14 +39,14 @@ export function Component() {
           ) : null
         }
       />
-      <div className="grid gap-5 lg:grid-cols-[3fr_2fr]">
+      <div className="grid items-start gap-5 lg:grid-cols-[3fr_2fr]">
         <div className="flex flex-col gap-5">
           <Card title="Contact">
             <Facts
               items={[
                 { label: 'E-mail', value: <a href={`mailto:${c.email}`} className="break-all">{c.email}</a> },
                 { label: 'Phone', value: c.phone ? <a href={`tel:${c.phone.replace(/\s/g, '')}`}>{c.phone}</a> : '' },
-                { label: 'Address', value: <span className="whitespace-pre-line">{[c.addressLines, c.postcode].filter(Boolean).join('\n')}</span> },
+                { label: 'Address', value: c.addressLines || c.postcode ? <span className="whitespace-pre-line">{[c.addressLines, c.postcode].filter(Boolean).join('\n')}</span> : '' },
                 { label: 'Wingstage sign-in', value: c.hasSignIn ? 'Yes' : 'Not yet' },
                 { label: 'Notes', value: c.notes ? <span className="whitespace-pre-line">{c.notes}</span> : '' },
               ]}

@@ -10,7 +10,7 @@ const col = createColumnHelper<JobDto>();
 const columns = [
   col.accessor('number', {
     header: 'Job',
-    meta: { primary: true },
+    meta: { primary: true, sortWords: ['lowest number first', 'highest number first'] },
     cell: (c) => (
       <Link to={`/jobs/${c.row.original.id}`} className="font-semibold">
         <span className="tabular-nums">{c.getValue()}</span> · {c.row.original.registration}
@@ -29,7 +29,7 @@ const columns = [
   }),
   col.accessor('customerName', { header: 'Owner', enableSorting: false }),
   col.accessor('state', { header: 'State', cell: (c) => <StateBadge state={c.getValue()} /> }),
-  col.accessor('bookedInOn', { header: 'Booked in', cell: (c) => <span className="tabular-nums">{formatDate(c.getValue())}</span> }),
+  col.accessor('bookedInOn', { header: 'Booked in', meta: { sortWords: ['oldest first', 'newest first'] }, cell: (c) => <span className="tabular-nums">{formatDate(c.getValue())}</span> }),
 ];
 
 export function JobsTable({ page, params, onChange, busy }: { page: Page<JobDto>; params: ListParams; onChange: (p: Record<string, string | number | undefined>) => void; busy?: boolean }) {

@@ -1,0 +1,78 @@
+import type { JobDto } from '@wingstage/shared';
+import { fireEvent, screen, waitFor } from '@testing-library/react';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { renderWithApp } from '@/testing/render';
+import { JobActions } from './job-actions';
+
+const job: JobDto = {
+  id: '5b0c1d7e-8f3a-4b61-9d2e-0a1b2c3d4e5f',
+  number: 'J-0042',
+  aircraftId: 'a',
+  registration: 'Q-TEST',
+  aircraftType: 'Two-seat flex-wing trike',
+  customerId: 'c',
+  customerName: 'Orla Fenwright',
+  title: 'Annual permit inspection',
+  type: 'annual_permit_inspection',
+  state: 'in_work',
+  bookedInOn: '2026-11-30',
+  dueOn: null,
+  notes: '',
+  version: 3,
+  createdAt: '2026-11-30T09:00:00Z',
+  updatedAt: '2026-11-30T09:00:00Z',
+};
+
+describe('JobActions', () => {
+  const fetchMock = vi.fn<typeof fetch>();
+  beforeEach(() => vi.stubGlobal('fetch', fetchMock));
+  afterEach(() => {
+    vi.unstubAllGlobals();
+    fetchMock.mockReset();
+  });
+
+  it('offers the next states from the shared table, labelled with their actions', () => {
+    renderWithApp(<JobActions job={job} role="manager" />);
+    const labels = screen.getAllByRole('button').map((b) => b.textContent);
+    expect(labels).toEqual(['Wait for owner', 'Mark ready for release', 'Cancel job']);
+  });
+
+  it('offers an engineer only the start of an inspection', () => {
+    const { unmount } = renderWithApp(<JobActions job={job} role="engineer" />);
+    expect(screen.queryAllByRole('button')).toHaveLength(0);
+    unmount();
+    renderWithApp(<JobActions job={{ ...job, state: 'booked_in' }} role="engineer" />);
+    expect(screen.getAllByRole('button').map((b) => b.textContent)).toEqual(['Start inspection']);
+  });
+
+  it("sends the job's version and shows the server's reason when the move is refused", async () => {
+    const reason = 'An open airworthiness finding must be rectified before release.';
+    fetchMock.mockResolvedValueOnce(
+      new Response(JSON.stringify({ error: { code: 'invalid_transition', message: reason } }), { status: 409, headers: { 'Content-Type': 'application/json' } }),
+    );
+    fetchMock.mockResolvedValue(new Response(JSON.stringify(job), { status: 200, headers: { 'Content-Type': 'application/json' } }));
+    renderWithApp(<JobActions job={job} role="manager" />);
+    fireEvent.click(screen.getByRole('button', { name: 'Mark ready for release' }));
+
+    expect(await screen.findByText(reason)).toBeTruthy();
+    const [url, init] = fetchMock.mock.calls[0]!;
+    expect(url).toBe(`/api/jobs/${job.id}/transition`);
+    expect(JSON.parse(String(init?.body))).toEqual({ to: 'ready_for_release', version: 3 });
+    await waitFor(() => expect(screen.getByRole('button', { name: 'Mark ready for release' }).hasAttribute('disabled')).toBe(false));
+  });
+
+  it('says someone else moved the job when the version is stale', async () => {
+    fetchMock.mockResolvedValueOnce(
+      new Response(JSON.stringify({ error: { code: 'stale_version', message: 'Someone else changed this job.' } }), { status: 409, headers: { 'Content-Type': 'application/json' } }),
+    );
+    fetchMock.mockResolvedValue(new Response(JSON.stringify(job), { status: 200, headers: { 'Content-Type': 'application/json' } }));
+    renderWithApp(<JobActions job={job} role="manager" />);
+    fireEvent.click(screen.getByRole('button', { name: 'Wait for owner' }));
+    expect(await screen.findByText(/Someone else moved this job a moment ago/)).toBeTruthy();
+  });
+
+  it('says a finished job has no further steps', () => {
+    renderWithApp(<JobActions job={{ ...job, state: 'closed' }} role="admin" />);
+    expect(screen.getByText(/No further steps/)).toBeTruthy();
+  });
+});
