@@ -11,7 +11,7 @@ export interface MailMessage {
   html: string;
 }
 
-const QUEUE = 'mail-send';
+export const MAIL_QUEUE = 'mail-send';
 
 type PgConnection = { query(text: string, values: unknown[]): Promise<{ rows: unknown[] }> };
 
@@ -29,6 +29,7 @@ export class MailQueue {
     private readonly config: Pick<Config, 'DATABASE_URL' | 'SMTP_HOST' | 'SMTP_PORT' | 'MAIL_FROM' | 'MAIL_WORKER'>,
     private readonly sequelize: Sequelize,
     private readonly logger: Logger,
+    private readonly options: { queue?: string; retryDelaySeconds?: number; retryLimit?: number } = {},
   ) {
     this.boss = new PgBoss({ connectionString: config.DATABASE_URL, schema: 'pgboss', max: 3, application_name: 'wingstage-mail' });
     this.boss.on('error', (err) => this.logger.error({ err }, 'mail queue error'));
@@ -42,12 +43,22 @@ export class MailQueue {
     });
   }
 
+  private get queue() {
+    return this.options.queue ?? MAIL_QUEUE;
+  }
+
+  /** Back-off doubles from the first delay; ten tries at 15 s span several hours of outage. */
+  private get retry() {
+    return { retryLimit: this.options.retryLimit ?? 10, retryDelay: this.options.retryDelaySeconds ?? 15, retryBackoff: true };
+  }
+
   async start(): Promise<void> {
     if (this.started) return;
     await this.boss.start();
-    await this.boss.createQueue(QUEUE, { name: QUEUE, retryLimit: 10, retryDelay: 15, retryBackoff: true, expireInMinutes: 5 });
+    await this.boss.createQueue(this.queue, { name: this.queue, ...this.retry, expireInMinutes: 5 });
     if (this.config.MAIL_WORKER) {
-      await this.boss.work<MailMessage>(QUEUE, { pollingIntervalSeconds: 1, batchSize: 5 }, async (jobs) => {
+      // One message per fetch: a failure retries only that message, never re-sends others.
+      await this.boss.work<MailMessage>(this.queue, { pollingIntervalSeconds: 1, batchSize: 1 }, async (jobs) => {
         for (const job of jobs) {
           await this.deliver(job.data);
           this.logger.info({ to: job.data.to, subject: job.data.subject }, 'mail sent');
@@ -55,6 +66,12 @@ export class MailQueue {
       });
     }
     this.started = true;
+  }
+
+  /** The queue's view of one message: created, retry, active, completed or failed. */
+  async status(id: string): Promise<{ state: string; retryCount: number } | null> {
+    const job = await this.boss.getJobById(this.queue, id);
+    return job ? { state: job.state, retryCount: job.retryCount } : null;
   }
 
   async stop(): Promise<void> {
@@ -69,12 +86,12 @@ export class MailQueue {
     await this.transport.sendMail({ from: this.config.MAIL_FROM, to: msg.to, subject: msg.subject, text: msg.text, html: msg.html });
   }
 
-  async enqueue(msg: MailMessage, transaction?: Transaction): Promise<void> {
+  async enqueue(msg: MailMessage, transaction?: Transaction): Promise<string | null> {
     if (!this.started) throw new Error('The mail queue is not started.');
     // pg-boss runs its insert on the transaction's own connection, so the job commits with it.
     const conn = transaction ? (transaction as unknown as { connection?: PgConnection }).connection : undefined;
     if (transaction && !conn) throw new Error('The transaction has no connection yet.');
     const db = conn ? { executeSql: (text: string, values: unknown[]) => conn.query(text, values) } : undefined;
-    await this.boss.send(QUEUE, msg, { retryLimit: 10, retryDelay: 15, retryBackoff: true, db });
+    return this.boss.send(this.queue, msg, { ...this.retry, db });
   }
 }
