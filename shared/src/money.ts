@@ -37,6 +37,17 @@ export class MoneyError extends Error {
     readonly path?: string,
   ) {
     super(path ? `${path}: ${message}` : message);
+    this.detail = message;
+  }
+  /** The message without its path. */
+  readonly detail: string;
+
+  /**
+   * The same error placed inside a larger input (`lines[3]` + `hours` → `lines[3].hours`), so hot
+   * loops can name fields cheaply and build the full path only when something is wrong.
+   */
+  within(prefix: string): MoneyError {
+    return new MoneyError(this.code, this.detail, this.path ? `${prefix}.${this.path}` : prefix);
   }
 }
 

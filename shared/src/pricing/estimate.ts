@@ -4,6 +4,7 @@ import {
   ESTIMATE_STAGES,
   LINE_KINDS,
   VAT_RATE_CODES,
+  type AccessTaskInput,
   type EstimateInput,
   type EstimateLineInput,
   type EstimateStage,
@@ -116,59 +117,59 @@ interface LineBase {
  * a line on a VAT invoice shows an amount in whole pence [practice: line amounts are shown and
  * stored in the currency's minor unit; VAT Notice 700 §16.3 lists the line amount excl. VAT].
  */
-function lineBase(line: EstimateLineInput, ctx: PricingContext, path: string): LineBase {
+function lineBase(line: EstimateLineInput, ctx: PricingContext): LineBase {
   const { currency, dp } = ctx;
   switch (line.kind) {
     case 'labour': {
-      const hours = parseDecimal(line.hours, `${path}.hours`);
-      const rate = parseAmount(line.ratePerHour, currency, `${path}.ratePerHour`);
+      const hours = parseDecimal(line.hours, 'hours');
+      const rate = parseAmount(line.ratePerHour, currency, 'ratePerHour');
       return { list: roundHalfUp(hours.times(rate), dp), cost: null };
     }
     case 'part': {
-      const qty = parseDecimal(line.quantity, `${path}.quantity`);
+      const qty = parseDecimal(line.quantity, 'quantity');
       const hasPrice = line.unitPrice !== undefined && line.unitPrice !== null;
       const hasCost = line.unitCost !== undefined && line.unitCost !== null;
-      if (!hasPrice && !hasCost) throw new MoneyError('invalid_input', 'a part needs a unit cost or a fixed unit price.', path);
+      if (!hasPrice && !hasCost) throw new MoneyError('invalid_input', 'a part needs a unit cost or a fixed unit price.');
       // Unit costs may carry fractions of a penny (bulk fasteners), so they are not held to minor units.
-      const rawCost = hasCost ? qty.times(parseDecimal(line.unitCost, `${path}.unitCost`)) : null;
+      const rawCost = hasCost ? qty.times(parseDecimal(line.unitCost, 'unitCost')) : null;
       const cost = rawCost === null ? null : roundHalfUp(rawCost, dp);
       if (hasPrice) {
-        return { list: roundHalfUp(qty.times(parseDecimal(line.unitPrice, `${path}.unitPrice`)), dp), cost };
+        return { list: roundHalfUp(qty.times(parseDecimal(line.unitPrice, 'unitPrice')), dp), cost };
       }
       const factor =
-        line.markupPercent === undefined || line.markupPercent === null ? ctx.partsFactor : markupFactor(line.markupPercent, `${path}.markupPercent`);
+        line.markupPercent === undefined || line.markupPercent === null ? ctx.partsFactor : markupFactor(line.markupPercent, 'markupPercent');
       // Mark-up on the unrounded cost, so the sell price is rounded once.
       return { list: roundHalfUp(rawCost!.times(factor), dp), cost };
     }
     case 'subcontract': {
-      const cost = parseAmount(line.cost, currency, `${path}.cost`);
+      const cost = parseAmount(line.cost, currency, 'cost');
       const factor =
         line.markupPercent === undefined || line.markupPercent === null
           ? ctx.subcontractFactor
-          : markupFactor(line.markupPercent, `${path}.markupPercent`);
+          : markupFactor(line.markupPercent, 'markupPercent');
       return { list: roundHalfUp(cost.times(factor), dp), cost };
     }
     case 'fee':
-      return { list: parseAmount(line.amount, currency, `${path}.amount`), cost: null };
+      return { list: parseAmount(line.amount, currency, 'amount'), cost: null };
     default:
-      throw new MoneyError('invalid_input', `"${String((line as { kind?: unknown }).kind)}" is not one of ${LINE_KINDS.join(', ')}.`, `${path}.kind`);
+      throw new MoneyError('invalid_input', `"${String((line as { kind?: unknown }).kind)}" is not one of ${LINE_KINDS.join(', ')}.`, 'kind');
   }
 }
 
-function lineDiscount(line: EstimateLineInput, list: Dec, ctx: PricingContext, path: string): Dec {
+function lineDiscount(line: EstimateLineInput, list: Dec, ctx: PricingContext): Dec {
   const d = line.discount;
   if (d === undefined || d === null) return ZERO;
   if ('percent' in d) {
-    const pct = parseDecimal(d.percent, `${path}.discount.percent`);
-    if (pct.greaterThan(100)) throw new MoneyError('out_of_range', 'a discount cannot exceed 100%.', `${path}.discount.percent`);
+    const pct = parseDecimal(d.percent, 'discount.percent');
+    if (pct.greaterThan(100)) throw new MoneyError('out_of_range', 'a discount cannot exceed 100%.', 'discount.percent');
     return roundHalfUp(list.times(pct).times(PERCENT), ctx.dp);
   }
   if ('amount' in d) {
-    const amt = parseAmount(d.amount, ctx.currency, `${path}.discount.amount`);
-    if (amt.greaterThan(list)) throw new MoneyError('out_of_range', 'a discount cannot exceed the line amount.', `${path}.discount.amount`);
+    const amt = parseAmount(d.amount, ctx.currency, 'discount.amount');
+    if (amt.greaterThan(list)) throw new MoneyError('out_of_range', 'a discount cannot exceed the line amount.', 'discount.amount');
     return amt;
   }
-  throw new MoneyError('invalid_input', 'a discount is { percent } or { amount }.', `${path}.discount`);
+  throw new MoneyError('invalid_input', 'a discount is { percent } or { amount }.', 'discount');
 }
 
 interface WorkLine {
@@ -220,6 +221,52 @@ function totalsOf(acc: VatAccumulator, ctx: PricingContext): Totals {
   };
 }
 
+function addAccessTask(t: AccessTaskInput, access: Map<string, WorkAccess>, ctx: PricingContext): void {
+  const { dp } = ctx;
+  if (!t || typeof t !== 'object') throw new MoneyError('invalid_input', 'an access task must be an object.');
+  const id = requiredId(t.id, 'id');
+  if (access.has(id)) throw new MoneyError('invalid_input', `access task id "${id}" is used twice.`, 'id');
+  const code = oneOf(VAT_RATE_CODES, t.vatRate, 'vatRate');
+  const hours = parseDecimal(t.hours, 'hours');
+  const rate = parseAmount(t.ratePerHour, ctx.currency, 'ratePerHour');
+  const net = roundHalfUp(hours.times(rate), dp);
+  access.set(id, {
+    id,
+    code,
+    rate: ctx.rates[code],
+    net,
+    item: vatItem(code, ctx.rates[code], net, ctx),
+    stages: new Set(),
+    committedRemedies: new Set(),
+    allRemedies: new Set(),
+  });
+}
+
+function workLine(line: EstimateLineInput, ctx: PricingContext, access: Map<string, WorkAccess>, seen: Set<string>): WorkLine {
+  if (!line || typeof line !== 'object') throw new MoneyError('invalid_input', 'a line must be an object.');
+  const id = requiredId(line.id, 'id');
+  if (seen.has(id)) throw new MoneyError('invalid_input', `line id "${id}" is used twice.`, 'id');
+  seen.add(id);
+  const stage = oneOf(ESTIMATE_STAGES, line.stage, 'stage');
+  const kind = oneOf(LINE_KINDS, line.kind, 'kind');
+  const code = oneOf(VAT_RATE_CODES, line.vatRate, 'vatRate');
+  const findingId = optionalId(line.findingId, 'findingId');
+  const accessTaskId = optionalId(line.accessTaskId, 'accessTaskId');
+  const { list, cost } = lineBase(line, ctx);
+  const discount = lineDiscount(line, list, ctx);
+  if (accessTaskId !== null) {
+    const task = access.get(accessTaskId);
+    if (!task) throw new MoneyError('invalid_input', `access task "${accessTaskId}" is not in accessTasks.`, 'accessTaskId');
+    task.stages.add(stage);
+    const remedy = findingId ?? SCOPE_REMEDY;
+    if (stage === 'inspection' || stage === 'approved') task.committedRemedies.add(remedy);
+    if (stage !== 'declined') task.allRemedies.add(remedy);
+  }
+  const net = discount.isZero() ? list : list.minus(discount);
+  const rate = ctx.rates[code];
+  return { id, stage, kind, findingId, accessTaskId, code, rate, list, discount, net, cost, item: vatItem(code, rate, net, ctx) };
+}
+
 const STAGE_PRIORITY: readonly EstimateStage[] = ['inspection', 'approved', 'discovered', 'declined'];
 
 /**
@@ -233,50 +280,21 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
 
   const access = new Map<string, WorkAccess>();
   (input.accessTasks ?? []).forEach((t, i) => {
-    const path = `accessTasks[${i}]`;
-    const id = requiredId(t?.id, `${path}.id`);
-    if (access.has(id)) throw new MoneyError('invalid_input', `access task id "${id}" is used twice.`, `${path}.id`);
-    const code = oneOf(VAT_RATE_CODES, t.vatRate, `${path}.vatRate`);
-    const hours = parseDecimal(t.hours, `${path}.hours`);
-    const rate = parseAmount(t.ratePerHour, ctx.currency, `${path}.ratePerHour`);
-    const net = roundHalfUp(hours.times(rate), dp);
-    access.set(id, {
-      id,
-      code,
-      rate: ctx.rates[code],
-      net,
-      item: vatItem(code, ctx.rates[code], net, ctx),
-      stages: new Set(),
-      committedRemedies: new Set(),
-      allRemedies: new Set(),
-    });
+    try {
+      addAccessTask(t, access, ctx);
+    } catch (e) {
+      throw e instanceof MoneyError ? e.within(`accessTasks[${i}]`) : e;
+    }
   });
 
   const seen = new Set<string>();
   const work: WorkLine[] = input.lines.map((line, i) => {
-    const path = `lines[${i}]`;
-    if (!line || typeof line !== 'object') throw new MoneyError('invalid_input', 'a line must be an object.', path);
-    const id = requiredId(line.id, `${path}.id`);
-    if (seen.has(id)) throw new MoneyError('invalid_input', `line id "${id}" is used twice.`, `${path}.id`);
-    seen.add(id);
-    const stage = oneOf(ESTIMATE_STAGES, line.stage, `${path}.stage`);
-    const kind = oneOf(LINE_KINDS, line.kind, `${path}.kind`);
-    const code = oneOf(VAT_RATE_CODES, line.vatRate, `${path}.vatRate`);
-    const findingId = optionalId(line.findingId, `${path}.findingId`);
-    const accessTaskId = optionalId(line.accessTaskId, `${path}.accessTaskId`);
-    const { list, cost } = lineBase(line, ctx, path);
-    const discount = lineDiscount(line, list, ctx, path);
-    if (accessTaskId !== null) {
-      const task = access.get(accessTaskId);
-      if (!task) throw new MoneyError('invalid_input', `access task "${accessTaskId}" is not in accessTasks.`, `${path}.accessTaskId`);
-      task.stages.add(stage);
-      const remedy = findingId ?? SCOPE_REMEDY;
-      if (stage === 'inspection' || stage === 'approved') task.committedRemedies.add(remedy);
-      if (stage !== 'declined') task.allRemedies.add(remedy);
+    try {
+      return workLine(line, ctx, access, seen);
+    } catch (e) {
+      // Field paths are relative inside the loop and only built into `lines[i].field` on failure.
+      throw e instanceof MoneyError ? e.within(`lines[${i}]`) : e;
     }
-    const net = discount.isZero() ? list : list.minus(discount);
-    const rate = ctx.rates[code];
-    return { id, stage, kind, findingId, accessTaskId, code, rate, list, discount, net, cost, item: vatItem(code, rate, net, ctx) };
   });
 
   // Where each access task is paid for: the first stage in priority order that uses it.
@@ -309,7 +327,7 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
 
   const lineVat = (v: Dec | null | undefined): string | null => {
     if (v === null || v === undefined) return null;
-    return ctx.rounding === 'line-down-tenth' ? v.toFixed(dp + 1) : formatAmount(v, dp);
+    return formatAmount(v, ctx.rounding === 'line-down-tenth' ? dp + 1 : dp);
   };
 
   const lines: PricedLine[] = work.map((l) => ({
