@@ -1,10 +1,10 @@
 import { Link } from 'react-router-dom';
 import { Wordmark } from '@/components/ui/wordmark';
 
-export function NotFound({ what = 'page' }: { what?: string }) {
+export function NotFound({ what = 'page', mark = false }: { what?: string; mark?: boolean }) {
   return (
     <div className="mx-auto flex max-w-lg flex-col gap-3 py-12">
-      <Wordmark />
+      {mark ? <Wordmark /> : null}
       <h1 className="text-2xl font-bold">We could not find that {what}</h1>
       <p>
         The address may be mistyped, or the {what} may belong to someone else or no longer exist.
@@ -19,7 +19,7 @@ export function NotFound({ what = 'page' }: { what?: string }) {
 export function Component() {
   return (
     <main id="main" className="px-gutter">
-      <NotFound />
+      <NotFound mark />
     </main>
   );
 }

@@ -5,7 +5,10 @@ import { NotFound } from './not-found';
 
 export function RouteError() {
   const error = useRouteError();
-  if ((isApiError(error) && error.status === 404) || (isRouteErrorResponse(error) && error.status === 404)) {
+  // A malformed id in the address is refused by validation before any lookup: to the reader it is
+  // the same as a record that does not exist.
+  const missing = isApiError(error) && (error.status === 404 || (error.status === 400 && error.code === 'validation_failed'));
+  if (missing || (isRouteErrorResponse(error) && error.status === 404)) {
     return <NotFound what="record" />;
   }
   const message = isApiError(error)

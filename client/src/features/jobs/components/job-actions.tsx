@@ -1,4 +1,4 @@
-import { JOB_TRANSITION_ACTIONS, nextJobStates, type JobDto, type JobState, type Role } from '@wingstage/shared';
+import { JOB_STATES, JOB_TRANSITION_ACTIONS, nextJobStates, type JobDto, type JobState, type Role } from '@wingstage/shared';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
@@ -46,7 +46,9 @@ export function JobActions({ job, role }: { job: JobDto; role: Role }) {
         {states.map((s) => (
           <Button
             key={s}
-            variant={s === 'cancelled' ? 'secondary' : 'primary'}
+            // Only moves forward along the job's path take the accent; going back a step or
+            // cancelling is offered, but quieter.
+            variant={s !== 'cancelled' && JOB_STATES.indexOf(s) > JOB_STATES.indexOf(job.state) ? 'primary' : 'secondary'}
             busy={pending === s}
             disabled={pending !== null}
             onClick={() => void move(s)}
