@@ -101,9 +101,11 @@ export function createApp(parts: AppParts): Express {
 
   const indexHtml = path.join(config.CLIENT_DIST, 'index.html');
   if (fs.existsSync(indexHtml)) {
+    // Vite names built assets by content hash, so they may be cached for good; the shell may not.
+    app.use('/assets', express.static(path.join(config.CLIENT_DIST, 'assets'), { immutable: true, maxAge: '365d', fallthrough: false }));
     app.use(express.static(config.CLIENT_DIST, { index: false, maxAge: '1h' }));
-    // Client-side routes: any other GET gets the app shell.
-    app.get('/*splat', (_req, res) => {
+    // Client-side routes: any other GET, the root included, gets the app shell.
+    app.get('/{*splat}', (_req, res) => {
       res.setHeader('Cache-Control', 'no-cache');
       res.sendFile(indexHtml);
     });

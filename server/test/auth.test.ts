@@ -81,8 +81,11 @@ describe('serving the client', () => {
     expect(deep.status).toBe(200);
     expect(deep.text).toContain('<title>shell</title>');
     expect(deep.headers['content-security-policy']).toContain("script-src 'self'");
+    const root = await request(app).get('/');
+    expect(root.text).toContain('<title>shell</title>');
     const asset = await request(app).get('/app.js');
     expect(asset.text).toBe('console.log(1)');
+    expect((await request(app).get('/assets/missing-1234.js')).status).toBe(404);
     const api = await request(app).get('/api/nowhere');
     expect(api.status).toBe(404);
     expect(api.body.error.code).toBe('not_found');

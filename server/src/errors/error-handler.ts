@@ -56,6 +56,12 @@ function mapError(err: unknown): Mapped | null {
   const e = err as { type?: string; status?: number };
   if (e && e.type === 'entity.parse.failed') return { status: 400, code: 'validation_failed', message: 'The request body is not valid JSON.' };
   if (e && e.type === 'entity.too.large') return { status: 413, code: 'validation_failed', message: 'The request body is too large.' };
+  // Other client errors raised by Express middleware (e.g. a missing static file) keep their status.
+  if (e && typeof e.status === 'number' && e.status >= 400 && e.status < 500) {
+    return e.status === 404
+      ? { status: 404, code: 'not_found', message: 'That file was not found.' }
+      : { status: e.status, code: 'validation_failed', message: 'The request could not be handled.' };
+  }
   return null;
 }
 
