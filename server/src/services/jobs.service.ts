@@ -85,6 +85,8 @@ export async function listJobs(scope: Scope, q: JobListQuery): Promise<Page<JobD
     q,
     {
       number: '"Job"."number"',
+      title: 'lower("Job"."title")',
+      type: '"Job"."type"',
       bookedInOn: '"Job"."booked_in_on"',
       dueOn: '"Job"."due_on"',
       state: '"Job"."state"',
