@@ -73,10 +73,14 @@ describe('line amounts', () => {
     expect(r.rounding).toBe('invoice-nearest');
   });
 
-  it('shows each line VAT under a per-line method (0.1p for line-down-tenth)', () => {
+  it('shows each line VAT when lines are rounded to the nearest penny, and only then', () => {
     const line: EstimateLineInput = { id: 'a', stage: 'inspection', kind: 'fee', amount: '10.03', vatRate: 'standard' };
-    expect(priceEstimate({ lines: [line] }, { ...pricing, vatRounding: 'line-down-tenth' }).lines[0]!.vat).toBe('2.006');
     expect(priceEstimate({ lines: [line] }, { ...pricing, vatRounding: 'line-nearest' }).lines[0]!.vat).toBe('2.01');
+    // line-down-tenth works each line to 0.1p (2.006) as a step only; the total is what is shown.
+    const tenth = priceEstimate({ lines: [line] }, { ...pricing, vatRounding: 'line-down-tenth' });
+    expect(tenth.lines[0]!.vat).toBeNull();
+    expect(tenth.quoted.vat).toBe('2.00');
+    expect(priceEstimate({ lines: [line] }, pricing).lines[0]!.vat).toBeNull();
   });
 
   it('reads its settings from a workshop record', () => {
@@ -286,7 +290,7 @@ function pricingFor(cur: string, rounding: WorkshopPricing['vatRounding']): Work
 function amountsIn(r: PricedEstimate): string[] {
   const t = (x: { net: string; vat: string; gross: string; byRate?: { net: string; vat: string }[] }) => [x.net, x.vat, x.gross, ...(x.byRate ?? []).flatMap((g) => [g.net, g.vat])];
   return [
-    ...r.lines.flatMap((l) => [l.listNet, l.discount, l.net, ...(l.cost ? [l.cost] : [])]),
+    ...r.lines.flatMap((l) => [l.listNet, l.discount, l.net, ...(l.cost ? [l.cost] : []), ...(l.vat ? [l.vat] : [])]),
     ...r.accessTasks.flatMap((a) => [a.net, a.saving, a.savingGross, a.savingIfAllApproved]),
     ...STAGES.flatMap((s) => t(r.stages[s])),
     ...t(r.quoted),

@@ -325,10 +325,10 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
   const ifAllApproved = totalsOf(mergeVat(committedAcc, acc.discovered), ctx);
   const quoted = stages.inspection;
 
-  const lineVat = (v: Dec | null | undefined): string | null => {
-    if (v === null || v === undefined) return null;
-    return formatAmount(v, ctx.rounding === 'line-down-tenth' ? dp + 1 : dp);
-  };
+  // Only whole-penny line VAT is shown: the 0.1p figures of line-down-tenth are a working step, and
+  // no amount leaves the engine with more decimals than the currency has.
+  const lineVat = (v: Dec | null | undefined): string | null =>
+    v === null || v === undefined || ctx.rounding !== 'line-nearest' ? null : formatAmount(v, dp);
 
   const lines: PricedLine[] = work.map((l) => ({
     id: l.id,
@@ -369,7 +369,7 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
   });
 
   const findings = priceFindings(work, access, ctx);
-  const undecidedFindings = findings.filter((f) => f.stage === 'discovered' || f.stage === 'mixed').length;
+  const undecidedFindings = new Set(work.filter((l) => l.stage === 'discovered' && l.findingId !== null).map((l) => l.findingId)).size;
 
   const change = {
     net: formatAmount(new Dec(committed.net).minus(quoted.net), dp),

@@ -115,7 +115,7 @@ export interface PricedLine {
   listNet: string;
   discount: string;
   net: string;
-  /** The line's own VAT under a per-line rounding method; null when VAT is worked on the total. */
+  /** The line's own VAT when the workshop rounds each line to the nearest penny (line-nearest); null otherwise. */
   vat: string | null;
 }
 
@@ -163,7 +163,7 @@ export interface PricedEstimate {
   committed: Totals;
   /** committed − quoted. */
   change: { net: string; vat: string; gross: string };
-  /** Discovered work still awaiting the owner's decision. */
+  /** Discovered work still awaiting the owner's decision; `findings` counts findings with a line awaiting one. */
   undecided: Totals & { findings: number };
   /** committed plus everything undecided. */
   ifAllApproved: Totals;
