@@ -5,7 +5,7 @@ export function NotFound({ what = 'page', mark = false }: { what?: string; mark?
   return (
     <div className="mx-auto flex max-w-lg flex-col gap-3 py-12">
       {mark ? <Wordmark /> : null}
-      <h1 className="text-2xl font-bold">We could not find that {what}</h1>
+      <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">We could not find that {what}</h1>
       <p>
         The address may be mistyped, or the {what} may belong to someone else or no longer exist.
       </p>

@@ -16,8 +16,15 @@ export function AppShell({ session, onSignOut, signingOut, children }: { session
   const menuButton = useRef<HTMLButtonElement>(null);
   const items = navFor(session.user.role);
 
-  // A new page closes the phone menu.
-  useEffect(() => setOpen(false), [location.pathname]);
+  // A new page closes the phone menu and moves focus to its heading, so a screen reader announces
+  // the page instead of staying on the link that was followed. The first page load is left alone.
+  const firstPath = useRef(location.pathname);
+  useEffect(() => {
+    setOpen(false);
+    if (location.pathname === firstPath.current) return;
+    firstPath.current = '';
+    document.querySelector<HTMLElement>('main h1')?.focus({ preventScroll: false });
+  }, [location.pathname]);
 
   const signOutButton = (
     <button

@@ -10,7 +10,9 @@ export function PageHeader({ title, lead, actions, back }: { title: ReactNode; l
             ← {back.label}
           </Link>
         ) : null}
-        <h1 className="text-2xl font-bold tracking-tight">{title}</h1>
+        <h1 tabIndex={-1} className="text-2xl font-bold tracking-tight focus:outline-none">
+          {title}
+        </h1>
         {lead ? <div className="text-slate-soft">{lead}</div> : null}
       </div>
       {actions ? <div className="flex flex-wrap gap-2">{actions}</div> : null}

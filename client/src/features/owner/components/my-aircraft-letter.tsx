@@ -15,6 +15,12 @@ const MEANING: Record<JobState, string> = {
   cancelled: 'This job was cancelled.',
 };
 
+const WORDS = ['No', 'One', 'Two', 'Three', 'Four', 'Five', 'Six', 'Seven', 'Eight', 'Nine', 'Ten'];
+/** A letter spells out small numbers. */
+function count(n: number, one: string, many: string): string {
+  return `${WORDS[n] ?? String(n)} ${n === 1 ? one : many}`;
+}
+
 function JobEntry({ job }: { job: JobDto }) {
   return (
     <li className="rounded-card border border-seam bg-cloth-raised p-4">
@@ -36,14 +42,14 @@ export function MyAircraftLetter({ firstName, workshopName, aircraft, jobs }: { 
   return (
     <article className="mx-auto flex max-w-2xl flex-col gap-6">
       <header className="flex flex-col gap-2">
-        <h1 className="text-2xl font-bold">My aircraft</h1>
+        <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">My aircraft</h1>
         <p className="text-lg">Dear {firstName},</p>
         <p>
           {aircraft.length === 0
             ? `${workshopName} has no aircraft on record for you yet. If you expected to see one here, please give us a call.`
             : openJobs.length === 0
               ? `Here is where things stand with your aircraft at ${workshopName}. Nothing is in the hangar for you at the moment.`
-              : `Here is where things stand with your aircraft at ${workshopName}. ${openJobs.length === 1 ? 'One job is' : `${openJobs.length} jobs are`} open.`}
+              : `Here is where things stand with your aircraft at ${workshopName}. ${count(openJobs.length, 'job is', 'jobs are')} open.`}
         </p>
       </header>
       {aircraft.map((a) => {
