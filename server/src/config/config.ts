@@ -22,7 +22,8 @@ const configSchema = z
     CLIENT_DIST: z.string().min(1).default(path.join(repoRoot, 'client', 'dist')),
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
     COOKIE_SECURE: bool.optional(),
-    SIGNIN_ACCOUNT_LIMIT: z.coerce.number().int().min(1).max(100).default(10),
+    // ASVS 4.0.3 V2.2.1: at most 100 failed attempts per account per hour, so at most 25 per 15 minutes.
+    SIGNIN_ACCOUNT_LIMIT: z.coerce.number().int().min(1).max(25).default(10),
     SIGNIN_ADDRESS_LIMIT: z.coerce.number().int().min(1).max(100000).default(100),
     /** Off in unit-style tests that do not need mail delivery; on everywhere else. */
     MAIL_WORKER: bool.default(true),

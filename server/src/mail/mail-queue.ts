@@ -31,7 +31,15 @@ export class MailQueue {
     private readonly logger: Logger,
     private readonly options: { queue?: string; retryDelaySeconds?: number; retryLimit?: number } = {},
   ) {
-    this.boss = new PgBoss({ connectionString: config.DATABASE_URL, schema: 'pgboss', max: 3, application_name: 'wingstage-mail' });
+    this.boss = new PgBoss({
+      connectionString: config.DATABASE_URL,
+      schema: 'pgboss',
+      max: 3,
+      application_name: 'wingstage-mail',
+      // Queued mail holds live links in plain text; once sent, clear it out within minutes, not days.
+      archiveCompletedAfterSeconds: 60,
+      deleteAfterSeconds: 300,
+    });
     this.boss.on('error', (err) => this.logger.error({ err }, 'mail queue error'));
     this.transport = nodemailer.createTransport({
       host: config.SMTP_HOST,

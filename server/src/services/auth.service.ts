@@ -48,6 +48,8 @@ export async function signIn(deps: Deps, input: SignInInput, address: string): P
   const matches = await checkPassword(input.password, user?.passwordHash ?? (await dummyHash()));
   if (!user || !user.passwordHash || !matches) {
     await boundSequelize().query('INSERT INTO sign_in_failures (email, address) VALUES ($1, $2)', { bind: [input.email, address] });
+    // Rows outside the window no longer count; dropping them keeps the table small.
+    await boundSequelize().query(`DELETE FROM sign_in_failures WHERE email = $1 AND at < now() - interval '1 day'`, { bind: [input.email] });
     throw unauthenticated('The e-mail or password is not right.');
   }
   if (!user.active) throw unauthenticated('This sign-in has been switched off. Ask your workshop to turn it back on.');
