@@ -1,6 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { JOB_TYPES, JOB_TYPE_LABELS, jobCreateSchema, type JobCreate } from '@wingstage/shared';
-import { useState } from 'react';
+import { JOB_TYPES, JOB_TYPE_LABELS, jobCreateSchema, type JobCreate, type JobType } from '@wingstage/shared';
+import { useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { Button, ButtonLink } from '@/components/ui/button';
@@ -23,9 +23,10 @@ export function BookInForm({
   onSubmit: (values: JobCreate) => Promise<unknown>;
 }) {
   const [summary, setSummary] = useState<string | null>(null);
+  const lastType = useRef<JobType>('annual_permit_inspection');
   const { register, handleSubmit, setError, setValue, getValues, formState } = useForm<z.input<typeof jobCreateSchema>, unknown, z.output<typeof jobCreateSchema>>({
     resolver: zodResolver(jobCreateSchema),
-    defaultValues: { aircraftId: defaultAircraftId ?? '', title: '', type: 'annual_permit_inspection', bookedInOn: todayIso(), dueOn: null, notes: '' },
+    defaultValues: { aircraftId: defaultAircraftId ?? '', title: JOB_TYPE_LABELS.annual_permit_inspection, type: 'annual_permit_inspection', bookedInOn: todayIso(), dueOn: null, notes: '' },
   });
   const e = formState.errors;
 
@@ -54,9 +55,12 @@ export function BookInForm({
         required
         error={e.type?.message}
         {...register('type', {
-          // Offer the kind of work as the title until someone types their own.
+          // The kind of work doubles as the title until someone types a title of their own.
           onChange: (ev: React.ChangeEvent<HTMLSelectElement>) => {
-            if (!getValues('title')) setValue('title', JOB_TYPE_LABELS[ev.target.value as keyof typeof JOB_TYPE_LABELS] ?? '');
+            const next = ev.target.value as JobType;
+            const title = getValues('title');
+            if (!title || title === JOB_TYPE_LABELS[lastType.current]) setValue('title', JOB_TYPE_LABELS[next] ?? '');
+            lastType.current = next;
           },
         })}
       >
