@@ -84,19 +84,35 @@ export function minorUnits(currency: string): number {
 // No exponents, no leading "+", no bare "." — exactly what a person or a NUMERIC column writes.
 const DECIMAL_RE = /^-?\d{1,15}(\.\d{1,12})?$/;
 
+// Estimates repeat the same rates, hours and quantities; decimal.js values are immutable, so a
+// parsed string can be shared. Bounded so a long-running server never grows it without limit.
+const PARSED = new Map<string, Dec>();
+const PARSED_MAX = 20_000;
+const ZERO_DEC = new Dec(0);
+
+/** Empties the parse cache (for measurements that must not benefit from earlier calls). */
+export function clearParsedDecimals(): void {
+  PARSED.clear();
+}
+
 /** Parses a decimal string strictly; never accepts numbers, so a float cannot sneak in. */
 export function parseDecimal(value: unknown, path = 'value', opts: { allowNegative?: boolean } = {}): Dec {
   if (typeof value !== 'string') {
     throw new MoneyError('invalid_amount', `expected a decimal string, got ${value === null ? 'null' : typeof value}.`, path);
   }
-  if (!DECIMAL_RE.test(value)) {
-    throw new MoneyError('invalid_amount', `"${value}" is not a decimal number like 12.34.`, path);
+  let d = PARSED.get(value);
+  if (d === undefined) {
+    if (!DECIMAL_RE.test(value)) {
+      throw new MoneyError('invalid_amount', `"${value}" is not a decimal number like 12.34.`, path);
+    }
+    d = new Dec(value);
+    if (PARSED.size >= PARSED_MAX) PARSED.clear();
+    PARSED.set(value, d);
   }
-  const d = new Dec(value);
   if (!opts.allowNegative && d.isNegative() && !d.isZero()) {
     throw new MoneyError('negative_amount', `"${value}" must not be negative.`, path);
   }
-  return d.isZero() ? new Dec(0) : d; // drop "-0"
+  return d.isZero() && d.isNegative() ? ZERO_DEC : d; // drop "-0"
 }
 
 /**
@@ -132,12 +148,13 @@ export function formatAmount(d: Dec, dp: number): string {
  * VATREC12030]; sources.md: 0.125 → 0.13, −0.125 → −0.13.
  */
 export function roundHalfUp(d: Dec, dp: number): Dec {
-  return d.toDecimalPlaces(dp, Decimal.ROUND_HALF_UP);
+  // Most figures already fit; skipping the copy matters in the per-line loop.
+  return d.decimalPlaces() <= dp ? d : d.toDecimalPlaces(dp, Decimal.ROUND_HALF_UP);
 }
 
 /** Towards zero at `dp` decimals ("round down" in VAT Notice 700 §17.5 for a positive amount). */
 export function roundDown(d: Dec, dp: number): Dec {
-  return d.toDecimalPlaces(dp, Decimal.ROUND_DOWN);
+  return d.decimalPlaces() <= dp ? d : d.toDecimalPlaces(dp, Decimal.ROUND_DOWN);
 }
 
 /** Half to even, for callers that need banker's rounding (never used for VAT). */

@@ -330,7 +330,9 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
   const lineVat = (v: Dec | null | undefined): string | null =>
     v === null || v === undefined || ctx.rounding !== 'line-nearest' ? null : formatAmount(v, dp);
 
-  const lines: PricedLine[] = work.map((l) => ({
+  const lines: PricedLine[] = work.map((l) => {
+    const listNet = formatAmount(l.list, dp);
+    return {
     id: l.id,
     stage: l.stage,
     kind: l.kind,
@@ -339,11 +341,12 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
     vatRate: l.code,
     vatPercent: ctx.rateStrings[l.code],
     cost: l.cost === null ? null : formatAmount(l.cost, dp),
-    listNet: formatAmount(l.list, dp),
+    listNet,
     discount: formatAmount(l.discount, dp),
-    net: formatAmount(l.net, dp),
+    net: l.net === l.list ? listNet : formatAmount(l.net, dp),
     vat: lineVat(l.item.lineVat),
-  }));
+    };
+  });
 
   let savingNet = ZERO;
   let savingGross = ZERO;
