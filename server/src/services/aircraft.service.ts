@@ -49,7 +49,6 @@ export async function listAircraft(scope: Scope, q: ListQuery & { customerId?: s
     { registration: '"Aircraft"."registration"', type: 'lower("Aircraft"."type")', customerName: 'lower("customer"."name")', createdAt: '"Aircraft"."created_at"' },
     'registration',
   );
-  // For an owner, ownedRows overrides any customerId filter with their own.
   const { rows, count } = await Aircraft.findAndCountAll({
     where: ownedRows(scope, 'customerId', where as WhereOptions<Aircraft>),
     attributes: extraAttributes(),

@@ -19,14 +19,16 @@ export function inWorkshop<T>(scope: Scope, where: WhereOptions<T> = {}): WhereO
   return { ...(where as object), workshopId: scope.workshopId } as unknown as WhereOptions<T>;
 }
 
-/** Rows owned through a customer_id column (customers use their id, aircraft their customer_id). */
+/**
+ * Rows owned through a customer (customers by their id, aircraft by customer_id). For owners the
+ * customer condition is ANDed with whatever the caller asked, so no filter can widen it.
+ */
 export function ownedRows<T>(scope: Scope, column: 'id' | 'customerId', where: WhereOptions<T> = {}): WhereOptions<T> {
-  const base = inWorkshop(scope, where) as Record<string, unknown>;
-  if (scope.role === 'owner') {
-    // An owner without a customer record sees nothing rather than everything.
-    base[column] = scope.customerId ?? { [Op.is]: null };
-  }
-  return base as unknown as WhereOptions<T>;
+  const scoped = inWorkshop(scope, where);
+  if (scope.role !== 'owner') return scoped;
+  // An owner without a customer record sees nothing rather than everything.
+  const own = { [column]: scope.customerId ?? { [Op.is]: null } };
+  return { [Op.and]: [scoped, own] } as unknown as WhereOptions<T>;
 }
 
 export function requireStaff(scope: Scope): void {
