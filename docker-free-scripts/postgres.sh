@@ -69,7 +69,7 @@ ensure_db() {
 recreate_db() {
   local name="$1"
   # WITH (FORCE) ends leftover sessions from an earlier run that died mid-way.
-  psql_local -d postgres -c "drop database if exists \"$name\" with (force)" >/dev/null
+  PGOPTIONS='-c client_min_messages=warning' psql_local -d postgres -c "drop database if exists \"$name\" with (force)" >/dev/null
   psql_local -d postgres -c "create database \"$name\"" >/dev/null
   say "created a fresh database $name"
 }

@@ -17,7 +17,8 @@ export default defineConfig({
   forbidOnly: onCi,
   retries: onCi ? 1 : 0,
   timeout: 60_000,
-  expect: { timeout: 10_000 },
+  // A shared two-core machine running PostgreSQL, the app and two browsers at once: allow for it.
+  expect: { timeout: 15_000 },
   reporter: [['list'], ['html', { outputFolder: 'playwright-report', open: 'never' }]],
   use: {
     baseURL,
