@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
 import {
+  DatabaseError,
   ForeignKeyConstraintError,
   OptimisticLockError,
   UniqueConstraintError,
@@ -47,6 +48,13 @@ function mapError(err: unknown): Mapped | null {
   }
   if (err instanceof ForeignKeyConstraintError) {
     return { status: 409, code: 'conflict', message: 'This refers to a record that does not exist, or is still in use.' };
+  }
+  if (err instanceof DatabaseError) {
+    const code = (err.parent as { code?: string } | undefined)?.code;
+    // PostgreSQL's own checks (out-of-range number, over-long text, CHECK constraint): the input is at fault.
+    if (code === '22003' || code === '22001' || code === '23514' || code === '22007' || code === '22008') {
+      return { status: 400, code: 'validation_failed', message: 'A value is outside what can be stored. Check the numbers and dates.' };
+    }
   }
   if (err instanceof SequelizeValidationError) {
     const fields: Record<string, string> = {};
