@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { Dec, MoneyError, decidePreAuthorised, fromMinorUnits } from '../src/index.js';
+import { Dec, MoneyError, decidePreAuthorised, fromMinorUnits, priceEstimate, type WorkshopPricing } from '../src/index.js';
 
 // The owner's example from the product brief (invented figures): anything up to £150 incl. VAT, up to £400 in total.
 const limit = { perFinding: '150.00', perJob: '400.00' };
@@ -93,5 +93,37 @@ describe('pre-authorised limit', () => {
         },
       ),
     );
+  });
+
+  it('takes each undecided finding at its own price incl. VAT from the priced estimate', () => {
+    const pricing: WorkshopPricing = {
+      currency: 'GBP',
+      vatRounding: 'invoice-nearest',
+      vatRates: { standard: '20', reduced: '5', zero: '0' },
+      partsMarkupPercent: '20',
+      subcontractMarkupPercent: '10',
+    };
+    const est = priceEstimate(
+      {
+        lines: [
+          // F1: £125.00 net → £150.00 incl. VAT, exactly at the per-finding limit.
+          { id: 'a', stage: 'discovered', kind: 'labour', hours: '2', ratePerHour: '62.50', vatRate: 'standard', findingId: 'F1' },
+          // F2: £125.01 net → £150.01 incl. VAT (150.012 to the nearest penny), just over.
+          { id: 'b', stage: 'discovered', kind: 'fee', amount: '125.01', vatRate: 'standard', findingId: 'F2' },
+          // F3: 2 × £50.00 + 20% mark-up = £120.00 net → £144.00 incl. VAT.
+          { id: 'c', stage: 'discovered', kind: 'part', quantity: '2', unitCost: '50.00', vatRate: 'standard', findingId: 'F3' },
+        ],
+      },
+      pricing,
+    );
+    const offered = est.findings.filter((f) => f.stage === 'discovered').map((f) => ({ id: f.findingId, gross: f.price.gross }));
+    expect(offered).toEqual([
+      { id: 'F1', gross: '150.00' },
+      { id: 'F2', gross: '150.01' },
+      { id: 'F3', gross: '144.00' },
+    ]);
+    const r = decidePreAuthorised(limit, offered, 'GBP');
+    expect(r.decisions.map((d) => d.outcome)).toEqual(['inside', 'over-finding-limit', 'inside']);
+    expect(r.headroom).toBe('106.00');
   });
 });
