@@ -17,7 +17,13 @@ function FieldShell({ id, label, hint, error, required, children }: FieldShellPr
     <div className="flex flex-col gap-1">
       <label htmlFor={id} className="text-sm font-semibold text-slate">
         {label}
-        {required ? <span className="font-normal text-slate-soft"> (required)</span> : null}
+        {/* Screen readers hear "required" from aria-required on the control, so the label's name stays plain. */}
+        {required ? (
+          <span aria-hidden="true" className="font-normal text-slate-soft">
+            {' '}
+            (required)
+          </span>
+        ) : null}
       </label>
       {hint ? (
         <p id={`${id}-hint`} className="text-xs text-slate-soft">
