@@ -283,6 +283,21 @@ describe('password reset', () => {
     await signIn(server.app, user.email);
   });
 
+  it('when two resets were asked for and one is completed, then the other link stops working too', async () => {
+    const s = await makeWorkshop('Resets');
+    const email = s.users.manager.email;
+    await request(server.app).post('/api/auth/password-reset').send({ email });
+    const first = tokenFrom(await waitForMail(email, (m) => m.subject.includes('Reset')));
+    await request(server.app).post('/api/auth/password-reset').send({ email });
+    const second = tokenFrom(await waitForMail(email, (m) => m.subject.includes('Reset') && !m.text.includes(first)));
+    const pw = 'second-link-password';
+    expect((await request(server.app).post('/api/auth/password-reset/complete').send({ token: second, password: pw, confirmPassword: pw })).status).toBe(204);
+    const stale = await request(server.app).post('/api/auth/password-reset/complete').send({ token: first, password: 'first-link-password', confirmPassword: 'first-link-password' });
+    expect(stale.status).toBe(401);
+    expect(stale.body.error.code).toBe('token_invalid');
+    await signIn(server.app, email, pw);
+  });
+
   it('when the two new passwords differ, then it is a 400 naming confirmPassword', async () => {
     const res = await request(server.app).post('/api/auth/password-reset/complete').send({ token: 'b'.repeat(43), password: 'first-password-1', confirmPassword: 'second-password-2' });
     expect(res.status).toBe(400);

@@ -144,6 +144,11 @@ describe('optimistic locking', () => {
     expect(second.body.error.code).toBe('stale_version');
     expect(second.body.error.message).toMatch(/someone else changed/i);
     expect((await manager.get(`/api/jobs/${created.id}`)).body.title).toBe('First edit');
+    const history = (await manager.get(`/api/jobs/${created.id}/history`)).body as { action: string; detail: Record<string, unknown> }[];
+    // One record for the edit that landed, none for the refused one.
+    expect(history.filter((e) => e.action === 'job.updated')).toEqual([
+      expect.objectContaining({ detail: { before: { title: 'Race' }, after: { title: 'First edit' } } }),
+    ]);
   });
 
   it('when a state change carries an old version, then it is 409 stale_version', async () => {
