@@ -47,7 +47,8 @@ export function createApp(parts: AppParts): Express {
       },
       customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
       serializers: {
-        req: (r: { id: unknown; method: string; url: string }) => ({ id: r.id, method: r.method, url: r.url }),
+        // Invitation links carry their token in the path; it must not reach the logs.
+        req: (r: { id: unknown; method: string; url: string }) => ({ id: r.id, method: r.method, url: r.url.replace(/(\/invitations\/)[A-Za-z0-9_-]{20,}/, '$1[hidden]') }),
         res: (r: { statusCode: number }) => ({ statusCode: r.statusCode }),
       },
       autoLogging: { ignore: (req) => req.url === '/api/health' },

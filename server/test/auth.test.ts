@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { pino } from 'pino';
 import request from 'supertest';
 import { createApp } from '../src/app.js';
 import { createSequelize } from '../src/db/sequelize.js';
@@ -73,6 +74,25 @@ describe('health and errors', () => {
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('validation_failed');
     expect(res.body.error.requestId).toBe(res.headers['x-request-id']);
+  });
+});
+
+describe('request logs', () => {
+  it('when an invitation link or a sign-in is requested, then neither the token, the password nor the cookie reaches the log', async () => {
+    const lines: string[] = [];
+    const logger = pino({ level: 'info' }, { write: (l: string) => void lines.push(l) });
+    const app = createApp({ ...server.parts, logger });
+    const token = 'Zz9_secret-invitation-token-0123456789';
+    await request(app).get(`/api/auth/invitations/${token}`);
+    const signedIn = await request(app).post('/api/auth/sign-in').send({ email: w.users.admin.email, password: PASSWORD });
+    const cookie = cookieHeader(signedIn).find((c) => c.startsWith('ws_session='))!.split(';')[0]!;
+    await request(app).get('/api/auth/session').set('Cookie', cookie);
+    const all = lines.join('\n');
+    expect(lines.length).toBeGreaterThanOrEqual(3);
+    expect(all).toContain('/api/auth/invitations/[hidden]');
+    expect(all).not.toContain(token);
+    expect(all).not.toContain(PASSWORD);
+    expect(all).not.toContain(cookie.split('=')[1]!);
   });
 });
 
