@@ -75,3 +75,47 @@ export function nextJobStates(from: JobState): readonly JobState[] {
 export function isTerminalJobState(state: JobState): boolean {
   return JOB_TRANSITIONS[state].length === 0;
 }
+
+/**
+ * Findings (vocabulary.md): draft → priced → sent → approved / declined, or approved within the
+ * pre-authorised limit, or withdrawn. A priced finding goes back to draft if its lines are removed;
+ * a sent one goes back to priced when its request is replaced.
+ */
+export const FINDING_STATES = ['draft', 'priced', 'sent', 'approved', 'approved_within_limit', 'declined', 'withdrawn'] as const;
+export type FindingState = (typeof FINDING_STATES)[number];
+
+export const FINDING_STATE_LABELS: Record<FindingState, string> = {
+  draft: 'Draft',
+  priced: 'Priced',
+  sent: 'Sent to owner',
+  approved: 'Approved',
+  approved_within_limit: 'Approved within limit',
+  declined: 'Declined',
+  withdrawn: 'Withdrawn',
+};
+
+export const FINDING_TRANSITIONS: Record<FindingState, readonly FindingState[]> = {
+  draft: ['priced', 'approved_within_limit', 'withdrawn'],
+  priced: ['draft', 'sent', 'approved_within_limit', 'withdrawn'],
+  sent: ['priced', 'approved', 'declined', 'withdrawn'],
+  approved: [],
+  approved_within_limit: [],
+  declined: ['priced'],
+  withdrawn: [],
+};
+
+export function canMoveFinding(from: FindingState, to: FindingState): TransitionCheck {
+  if (FINDING_TRANSITIONS[from].includes(to)) return { ok: true };
+  return {
+    ok: false,
+    reason: `A finding that is ${FINDING_STATE_LABELS[from].toLowerCase()} cannot become ${FINDING_STATE_LABELS[to].toLowerCase()}.`,
+  };
+}
+
+/**
+ * An airworthiness finding is open until it is rectified (approved and the work recorded as done)
+ * or withdrawn; declining it does not close it. An open one blocks ready for release.
+ */
+export function isOpenAirworthiness(f: { category: string; state: FindingState; rectifiedAt: string | null }): boolean {
+  return f.category === 'airworthiness' && f.state !== 'withdrawn' && f.rectifiedAt === null;
+}

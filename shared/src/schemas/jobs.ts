@@ -31,6 +31,8 @@ export const jobCreateSchema = z
     bookedInOn: isoDate,
     dueOn: isoDate.optional().nullable().default(null),
     notes: optionalText(4000, 'Notes'),
+    /** Book in from a job template: its scope becomes the inspection stage, its checklist the job's. */
+    templateId: idSchema.nullable().optional().default(null),
   })
   .refine((v) => !v.dueOn || v.dueOn >= v.bookedInOn, { path: ['dueOn'], message: 'The due date cannot be before booking in.' });
 export type JobCreateInput = z.input<typeof jobCreateSchema>;

@@ -1,0 +1,158 @@
+import { z } from 'zod';
+import { decimalString, idSchema } from './common.js';
+import {
+  ESTIMATE_STAGES,
+  LINE_KINDS,
+  VAT_RATE_CODES,
+  type EstimateInput,
+  type EstimateLineInput,
+  type EstimateStage,
+  type LineKind,
+  type PricedEstimate,
+  type VatRateCode,
+} from '../pricing/types.js';
+
+/**
+ * One stored estimate line. The client makes ids (UUIDs) for new lines and access tasks so that a
+ * line can name an access task in the same save. Which fields matter depends on the kind:
+ * labour: quantity = hours, ratePerHour (defaults from labourRateCode);
+ * part: quantity, unitCost and either unitPrice (fixed) or markupPercent (else the workshop's);
+ * subcontract: amount = the supplier's cost, markupPercent (else the workshop's), supplierId;
+ * fee: amount.
+ */
+export const estimateLineSchema = z
+  .object({
+    id: idSchema,
+    stage: z.enum(['inspection', 'discovered']),
+    kind: z.enum(LINE_KINDS),
+    description: z.string().trim().min(1, { message: 'Describe the line.' }).max(300),
+    quantity: decimalString(2, 'Quantity').default('1'),
+    labourRateCode: z.string().trim().max(20).nullable().default(null),
+    ratePerHour: decimalString(2, 'Rate').nullable().default(null),
+    partId: idSchema.nullable().default(null),
+    supplierId: idSchema.nullable().default(null),
+    unitCost: decimalString(4, 'Unit cost').nullable().default(null),
+    unitPrice: decimalString(2, 'Sell price').nullable().default(null),
+    markupPercent: decimalString(2, 'Mark-up').nullable().default(null),
+    amount: decimalString(2, 'Amount').nullable().default(null),
+    vatRate: z.enum(VAT_RATE_CODES).default('standard'),
+    findingId: idSchema.nullable().default(null),
+    accessTaskId: idSchema.nullable().default(null),
+    discountPercent: decimalString(2, 'Discount').nullable().default(null),
+  })
+  .superRefine((l, ctx) => {
+    const need = (field: keyof typeof l, message: string) => {
+      if (l[field] === null) ctx.addIssue({ code: 'custom', path: [field], message });
+    };
+    if (l.kind === 'labour') need('ratePerHour', 'Choose a labour rate.');
+    if (l.kind === 'part' && l.unitPrice === null) need('unitCost', 'Give the unit cost or a fixed sell price.');
+    if (l.kind === 'subcontract') need('amount', "Give the supplier's cost.");
+    if (l.kind === 'fee') need('amount', 'Give the fee.');
+    if (l.discountPercent !== null && Number(l.discountPercent) > 100) {
+      ctx.addIssue({ code: 'custom', path: ['discountPercent'], message: 'A discount cannot be more than 100%.' });
+    }
+  });
+export type EstimateLineInputForm = z.input<typeof estimateLineSchema>;
+export type EstimateLineSave = z.output<typeof estimateLineSchema>;
+
+export const accessTaskSchema = z.object({
+  id: idSchema,
+  name: z.string().trim().min(1, { message: 'Name the access task.' }).max(120),
+  hours: decimalString(2, 'Hours'),
+  labourRateCode: z.string().trim().max(20).nullable().default(null),
+  ratePerHour: decimalString(2, 'Rate'),
+  vatRate: z.enum(VAT_RATE_CODES).default('standard'),
+});
+export type AccessTaskSave = z.output<typeof accessTaskSchema>;
+
+/**
+ * Saving the estimate replaces its inspection-scope and discovered lines and its access tasks.
+ * Approved and declined lines are the owner's decisions and are never changed by this save.
+ * `version` is the version the editor loaded: a stale one is refused (409 stale_version).
+ */
+export const estimateSaveSchema = z
+  .object({
+    version: z.number().int().min(0),
+    lines: z.array(estimateLineSchema).max(2000),
+    accessTasks: z.array(accessTaskSchema).max(100).default([]),
+  })
+  .superRefine((v, ctx) => {
+    const tasks = new Set(v.accessTasks.map((t) => t.id));
+    const seen = new Set<string>();
+    v.lines.forEach((l, i) => {
+      if (seen.has(l.id)) ctx.addIssue({ code: 'custom', path: ['lines', i, 'id'], message: 'Each line needs its own id.' });
+      seen.add(l.id);
+      if (l.accessTaskId !== null && !tasks.has(l.accessTaskId)) {
+        ctx.addIssue({ code: 'custom', path: ['lines', i, 'accessTaskId'], message: 'That access task is not on this estimate.' });
+      }
+    });
+  });
+export type EstimateSaveInput = z.input<typeof estimateSaveSchema>;
+
+export interface EstimateLineDto {
+  id: string;
+  stage: EstimateStage;
+  kind: LineKind;
+  description: string;
+  quantity: string;
+  labourRateCode: string | null;
+  ratePerHour: string | null;
+  partId: string | null;
+  supplierId: string | null;
+  unitCost: string | null;
+  unitPrice: string | null;
+  markupPercent: string | null;
+  amount: string | null;
+  vatRate: VatRateCode;
+  findingId: string | null;
+  accessTaskId: string | null;
+  discountPercent: string | null;
+}
+
+export interface AccessTaskDto {
+  id: string;
+  name: string;
+  hours: string;
+  labourRateCode: string | null;
+  ratePerHour: string;
+  vatRate: VatRateCode;
+}
+
+export interface EstimateDto {
+  jobId: string;
+  version: number;
+  currency: string;
+  lines: EstimateLineDto[];
+  accessTasks: AccessTaskDto[];
+  /** Every figure, from the pricing engine on the server. The client's live preview uses the same engine. */
+  priced: PricedEstimate;
+}
+
+/** Maps stored lines to the pricing engine's input: the one place this mapping is written. */
+export function estimateEngineInput(lines: EstimateLineDto[], accessTasks: AccessTaskDto[]): EstimateInput {
+  return {
+    lines: lines.map((l): EstimateLineInput => {
+      const common = {
+        id: l.id,
+        stage: l.stage,
+        vatRate: l.vatRate,
+        findingId: l.findingId,
+        accessTaskId: l.accessTaskId,
+        discount: l.discountPercent !== null ? { percent: l.discountPercent } : null,
+      };
+      switch (l.kind) {
+        case 'labour':
+          return { ...common, kind: 'labour', hours: l.quantity, ratePerHour: l.ratePerHour ?? '0' };
+        case 'part':
+          return { ...common, kind: 'part', quantity: l.quantity, unitCost: l.unitCost, unitPrice: l.unitPrice, markupPercent: l.markupPercent };
+        case 'subcontract':
+          return { ...common, kind: 'subcontract', cost: l.amount ?? '0', markupPercent: l.markupPercent };
+        case 'fee':
+          return { ...common, kind: 'fee', amount: l.amount ?? '0' };
+      }
+    }),
+    accessTasks: accessTasks.map((t) => ({ id: t.id, hours: t.hours, ratePerHour: t.ratePerHour, vatRate: t.vatRate })),
+  };
+}
+
+export { ESTIMATE_STAGES };

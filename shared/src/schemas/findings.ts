@@ -1,0 +1,145 @@
+import { z } from 'zod';
+import { decimalString, idSchema, isoDate, optionalText } from './common.js';
+import type { ChecklistLimit } from './templates.js';
+
+/** The trade's three categories (product brief, "Findings and approvals"). */
+export const FINDING_CATEGORIES = ['airworthiness', 'recommended', 'advisory'] as const;
+export type FindingCategory = (typeof FINDING_CATEGORIES)[number];
+export const FINDING_CATEGORY_LABELS: Record<FindingCategory, string> = {
+  airworthiness: 'Airworthiness',
+  recommended: 'Recommended',
+  advisory: 'Advisory',
+};
+export const FINDING_CATEGORY_MEANINGS: Record<FindingCategory, string> = {
+  airworthiness: 'Must be rectified before the aircraft flies.',
+  recommended: 'Should be rectified now; will become an airworthiness item if left.',
+  advisory: 'Noted for the owner; monitor at the next inspection.',
+};
+
+/** A measured value may be negative (a temperature) and carries up to 4 decimals. */
+export const measuredValueSchema = z
+  .string()
+  .trim()
+  .regex(/^-?\d{1,8}(\.\d{1,4})?$/, { message: 'Enter the measured value as a number, e.g. 0.95.' });
+
+export const remedyPartSchema = z.object({
+  partId: idSchema,
+  quantity: decimalString(2, 'Quantity'),
+});
+
+/** What the engineer proposes; the manager turns it into priced estimate lines. */
+export const remedySchema = z.object({
+  description: optionalText(1000, 'Remedy'),
+  hours: decimalString(2, 'Hours').nullable().default(null),
+  labourRateCode: z.string().trim().max(20).nullable().default(null),
+  parts: z.array(remedyPartSchema).max(30).default([]),
+  /** The opening-up work this remedy needs, by name (e.g. "Gearbox off"); shared with other remedies. */
+  accessTask: z.string().trim().max(120).nullable().default(null),
+});
+export type RemedyInput = z.input<typeof remedySchema>;
+
+export const findingCreateSchema = z.object({
+  title: z.string().trim().min(1, { message: 'Give the finding a short title.' }).max(160),
+  location: z.string().trim().min(1, { message: 'Say where on the aircraft.' }).max(160),
+  category: z.enum(FINDING_CATEGORIES, { message: 'Choose airworthiness, recommended or advisory.' }),
+  seen: z.string().trim().min(1, { message: 'Say what was seen.' }).max(4000),
+  checklistItemId: idSchema.nullable().optional().default(null),
+  measuredValue: measuredValueSchema.nullable().optional().default(null),
+  remedy: remedySchema.default({ description: '', hours: null, labourRateCode: null, parts: [], accessTask: null }),
+});
+export type FindingCreateInput = z.input<typeof findingCreateSchema>;
+
+export const findingUpdateSchema = z.object({
+  version: z.number().int().min(0),
+  title: z.string().trim().min(1).max(160).optional(),
+  location: z.string().trim().min(1).max(160).optional(),
+  category: z.enum(FINDING_CATEGORIES).optional(),
+  seen: z.string().trim().min(1).max(4000).optional(),
+  remedy: remedySchema.optional(),
+});
+export type FindingUpdateInput = z.input<typeof findingUpdateSchema>;
+
+export const findingActionSchema = z.object({
+  version: z.number().int().min(0),
+  reason: z.string().trim().max(500).optional().default(''),
+});
+export type FindingActionInput = z.input<typeof findingActionSchema>;
+
+export interface FindingDto {
+  id: string;
+  jobId: string;
+  /** F-1, F-2 … within the job. */
+  number: string;
+  title: string;
+  location: string;
+  category: FindingCategory;
+  seen: string;
+  checklistItemId: string | null;
+  measuredValue: string | null;
+  limit: ChecklistLimit | null;
+  state: import('../states.js').FindingState;
+  remedy: z.output<typeof remedySchema>;
+  raisedByName: string;
+  raisedAt: string;
+  rectifiedAt: string | null;
+  rectifiedByName: string | null;
+  version: number;
+}
+
+/** Checklist results (vocabulary.md: pass, fail, n/a, or a measured value). */
+export const CHECKLIST_RESULTS = ['pass', 'fail', 'na', 'measured'] as const;
+export type ChecklistResult = (typeof CHECKLIST_RESULTS)[number];
+export const CHECKLIST_RESULT_LABELS: Record<ChecklistResult, string> = {
+  pass: 'Pass',
+  fail: 'Fail',
+  na: 'N/A',
+  measured: 'Measured',
+};
+
+export const checklistRecordSchema = z
+  .object({
+    version: z.number().int().min(0),
+    result: z.enum(CHECKLIST_RESULTS),
+    measuredValue: measuredValueSchema.nullable().optional().default(null),
+    note: optionalText(1000, 'Note'),
+  })
+  .refine((v) => (v.result === 'measured') === (v.measuredValue !== null), {
+    path: ['measuredValue'],
+    message: 'Record the measured value (and only for a measured result).',
+  });
+export type ChecklistRecordInput = z.input<typeof checklistRecordSchema>;
+
+export interface JobChecklistItemDto {
+  id: string;
+  section: string;
+  text: string;
+  limit: ChecklistLimit | null;
+  result: ChecklistResult | null;
+  measuredValue: string | null;
+  /** 'within' | 'below' | 'above' for a measured value against its limit; null when not measured or no limit. */
+  limitCheck: import('../checklist.js').LimitCheck | null;
+  note: string;
+  recordedByName: string | null;
+  recordedAt: string | null;
+  /** The finding raised from this item, if any. */
+  findingId: string | null;
+  version: number;
+}
+
+export const timeLogCreateSchema = z.object({
+  hours: decimalString(2, 'Hours').refine((h) => Number.parseFloat(h) > 0, { message: 'Log more than zero hours.' }),
+  workedOn: isoDate,
+  note: optionalText(500, 'Note'),
+  findingId: idSchema.nullable().optional().default(null),
+});
+export type TimeLogCreateInput = z.input<typeof timeLogCreateSchema>;
+
+export interface TimeLogDto {
+  id: string;
+  userName: string;
+  hours: string;
+  workedOn: string;
+  note: string;
+  findingId: string | null;
+  createdAt: string;
+}

@@ -1,0 +1,92 @@
+import { z } from 'zod';
+import { JOB_TYPES, type JobType } from './jobs.js';
+import { decimalString, idSchema, optionalText } from './common.js';
+import { LINE_KINDS, VAT_RATE_CODES, type LineKind, type VatRateCode } from '../pricing/types.js';
+
+/** Units a checklist limit may be measured in (SI where the trade uses it). */
+export const LIMIT_UNITS = ['mm', 'in', 'N·m', 'bar', 'psi', '%', 'h', '°C', 'kg', 'V'] as const;
+
+/**
+ * A limit on a measured value. Template limits are examples for the demo: the screen tells the
+ * engineer to use the manufacturer's current data.
+ */
+export const checklistLimitSchema = z
+  .object({
+    min: decimalString(4, 'Minimum').nullable().default(null),
+    max: decimalString(4, 'Maximum').nullable().default(null),
+    unit: z.enum(LIMIT_UNITS),
+    /** Where the figure comes from, e.g. "Example only — use the manufacturer's current data". */
+    source: optionalText(200, 'Source'),
+  })
+  .refine((l) => l.min !== null || l.max !== null, { path: ['max'], message: 'Give a minimum, a maximum or both.' });
+export type ChecklistLimit = z.output<typeof checklistLimitSchema>;
+
+export const templateChecklistItemSchema = z.object({
+  section: z.string().trim().max(80).default(''),
+  text: z.string().trim().min(1, { message: 'Say what to check.' }).max(300),
+  limit: checklistLimitSchema.nullable().default(null),
+});
+
+/**
+ * A scope line of a template. Amounts are decimal strings; the estimate line built from it is
+ * priced by the engine with the workshop's rates and mark-ups at booking time.
+ */
+export const templateLineSchema = z.object({
+  kind: z.enum(LINE_KINDS),
+  description: z.string().trim().min(1, { message: 'Describe the line.' }).max(300),
+  /** labour: hours; part: quantity; fee/subcontract: 1. */
+  quantity: decimalString(2, 'Quantity').default('1'),
+  labourRateCode: z.string().trim().max(20).nullable().default(null),
+  partId: idSchema.nullable().default(null),
+  supplierId: idSchema.nullable().default(null),
+  /** fee: the amount; subcontract: the supplier's cost; part without partId: unit cost. */
+  amount: decimalString(2, 'Amount').nullable().default(null),
+  vatRate: z.enum(VAT_RATE_CODES).default('standard'),
+});
+
+export const templateSaveSchema = z.object({
+  name: z.string().trim().min(1, { message: 'Name is required.' }).max(160),
+  jobType: z.enum(JOB_TYPES),
+  description: optionalText(2000, 'Description'),
+  lines: z.array(templateLineSchema).max(200),
+  checklist: z.array(templateChecklistItemSchema).max(300),
+  active: z.boolean().default(true),
+});
+export type TemplateSaveInput = z.input<typeof templateSaveSchema>;
+/** PUT replaces the whole template; `version` guards against a concurrent edit. */
+export const templateUpdateSchema = templateSaveSchema.extend({ version: z.number().int().min(0) });
+export type TemplateUpdateInput = z.input<typeof templateUpdateSchema>;
+
+export interface TemplateLineDto {
+  kind: LineKind;
+  description: string;
+  quantity: string;
+  labourRateCode: string | null;
+  partId: string | null;
+  supplierId: string | null;
+  amount: string | null;
+  vatRate: VatRateCode;
+}
+export interface TemplateChecklistItemDto {
+  section: string;
+  text: string;
+  limit: ChecklistLimit | null;
+}
+export interface TemplateDto {
+  id: string;
+  name: string;
+  jobType: JobType;
+  description: string;
+  lines: TemplateLineDto[];
+  checklist: TemplateChecklistItemDto[];
+  active: boolean;
+  version: number;
+}
+export interface TemplateSummaryDto {
+  id: string;
+  name: string;
+  jobType: JobType;
+  lineCount: number;
+  checklistCount: number;
+  active: boolean;
+}
