@@ -6,6 +6,15 @@ import { Aircraft } from './aircraft.model.js';
 import { Job } from './job.model.js';
 import { AuditEvent } from './audit-event.model.js';
 import { OneTimeToken } from './one-time-token.model.js';
+import { Supplier } from './supplier.model.js';
+import { Part } from './part.model.js';
+import { JobTemplate } from './job-template.model.js';
+import { Estimate } from './estimate.model.js';
+import { EstimateLine } from './estimate-line.model.js';
+import { AccessTask } from './access-task.model.js';
+import { JobChecklistItem } from './job-checklist-item.model.js';
+import { Finding } from './finding.model.js';
+import { TimeLog } from './time-log.model.js';
 
 let bound: Sequelize | null = null;
 
@@ -14,6 +23,7 @@ export function initModels(sequelize: Sequelize): void {
   if (bound === sequelize) return;
   if (bound) throw new Error('Models are already bound to another database connection.');
   for (const m of [Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken]) m.initModel(sequelize);
+  for (const m of [Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog]) m.initModel(sequelize);
 
   Workshop.hasMany(User, { foreignKey: 'workshopId' });
   User.belongsTo(Workshop, { foreignKey: 'workshopId', as: 'workshop' });
@@ -26,6 +36,12 @@ export function initModels(sequelize: Sequelize): void {
   Job.hasMany(AuditEvent, { foreignKey: 'jobId', as: 'history' });
   AuditEvent.belongsTo(User, { foreignKey: 'actorUserId', as: 'actor' });
   OneTimeToken.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  Part.belongsTo(Supplier, { foreignKey: 'supplierId', as: 'supplier' });
+  Job.hasOne(Estimate, { foreignKey: 'jobId', as: 'estimate' });
+  JobChecklistItem.belongsTo(User, { foreignKey: 'recordedBy', as: 'recorder' });
+  Finding.belongsTo(User, { foreignKey: 'raisedBy', as: 'raiser' });
+  Finding.belongsTo(User, { foreignKey: 'rectifiedBy', as: 'rectifier' });
+  TimeLog.belongsTo(User, { foreignKey: 'userId', as: 'user' });
   bound = sequelize;
 }
 
@@ -34,4 +50,4 @@ export function boundSequelize(): Sequelize {
   return bound;
 }
 
-export { Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken };
+export { Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken, Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog };
