@@ -15,6 +15,8 @@ import { authRoutes } from './routes/auth.routes.js';
 import { customersRoutes } from './routes/customers.routes.js';
 import { jobsRoutes } from './routes/jobs.routes.js';
 import { usersRoutes } from './routes/users.routes.js';
+import { partsRoutes, suppliersRoutes } from './routes/catalogue.routes.js';
+import { templatesRoutes } from './routes/templates.routes.js';
 import { workshopRoutes } from './routes/workshop.routes.js';
 import type { Deps } from './services/deps.js';
 
@@ -98,6 +100,9 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/customers', customersRoutes(deps));
   app.use('/api/aircraft', aircraftRoutes(deps));
   app.use('/api/jobs', jobsRoutes(deps));
+  app.use('/api/suppliers', suppliersRoutes(deps));
+  app.use('/api/parts', partsRoutes(deps));
+  app.use('/api/templates', templatesRoutes(deps));
   app.use('/api', apiNotFound);
 
   const indexHtml = path.join(config.CLIENT_DIST, 'index.html');
