@@ -14,6 +14,13 @@ export const can = {
   manageStaff: (r: Role) => r === 'admin',
   manageSettings: (r: Role) => r === 'admin',
   seeHistory: (r: Role) => r !== 'owner',
+  seeCatalogue: (r: Role) => r !== 'owner',
+  editCatalogue: (r: Role) => r === 'admin' || r === 'manager',
+  seeTemplates: (r: Role) => r !== 'owner',
+  editTemplates: (r: Role) => r === 'admin' || r === 'manager',
+  editEstimate: (r: Role) => r === 'admin' || r === 'manager',
+  useHangar: (r: Role) => r === 'engineer' || r === 'manager' || r === 'admin',
+  raiseFinding: (r: Role) => r === 'engineer' || r === 'manager' || r === 'admin',
 };
 
 export interface NavItem {
@@ -23,9 +30,15 @@ export interface NavItem {
 
 export function navFor(role: Role): NavItem[] {
   if (role === 'owner') return [{ to: '/my-aircraft', label: 'My aircraft' }];
-  const items: NavItem[] = [{ to: '/jobs', label: 'Jobs' }];
+  const items: NavItem[] = [];
+  // The hangar comes first for engineers: it is where their day starts.
+  if (role === 'engineer') items.push({ to: '/hangar', label: 'Hangar' });
+  items.push({ to: '/jobs', label: 'Jobs' });
   if (can.seeAircraft(role)) items.push({ to: '/aircraft', label: 'Aircraft' });
   if (can.seeOwners(role)) items.push({ to: '/owners', label: 'Owners' });
+  if (role === 'manager' || role === 'admin') items.push({ to: '/hangar', label: 'Hangar' });
+  if (can.seeCatalogue(role)) items.push({ to: '/catalogue', label: 'Catalogue' });
+  if (can.seeTemplates(role)) items.push({ to: '/templates', label: 'Templates' });
   if (can.manageStaff(role)) items.push({ to: '/staff', label: 'Staff' });
   if (can.manageSettings(role)) items.push({ to: '/settings', label: 'Settings' });
   return items;

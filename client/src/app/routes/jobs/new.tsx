@@ -1,9 +1,10 @@
-import { useSuspenseQuery } from '@tanstack/react-query';
+import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { ButtonLink } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page';
 import { aircraftListQueryOptions } from '@/features/aircraft/api/get-aircraft-list';
+import { templatesQueryOptions } from '@/features/templates/api/get-templates';
 import { useCreateJob } from '@/features/jobs/api/create-job';
 import { BookInForm } from '@/features/jobs/components/job-form';
 import { queryClient } from '@/lib/query-client';
@@ -23,6 +24,8 @@ export function Component() {
   const navigate = useNavigate();
   const { data: aircraft } = useSuspenseQuery(aircraftListQueryOptions(ALL_AIRCRAFT));
   const create = useCreateJob();
+  // Booking in still works if templates cannot be loaded: the picker is simply not offered.
+  const templates = useQuery(templatesQueryOptions());
   const back = search.get('aircraftId') ? `/aircraft/${search.get('aircraftId')}` : '/jobs';
   return (
     <>
@@ -39,6 +42,7 @@ export function Component() {
           aircraft={aircraft.items}
           defaultAircraftId={search.get('aircraftId') ?? undefined}
           cancelTo={back}
+          templates={(templates.data ?? []).filter((t) => t.active)}
           onSubmit={async (v) => {
             const job = await create.mutateAsync(v);
             await navigate(`/jobs/${job.id}`);

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { JOB_TYPES, JOB_TYPE_LABELS, jobCreateSchema, type JobCreate, type JobType } from '@wingstage/shared';
+import { JOB_TYPES, JOB_TYPE_LABELS, jobCreateSchema, type JobCreate, type JobType, type TemplateSummaryDto } from '@wingstage/shared';
 import { useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
@@ -9,14 +9,16 @@ import { FormErrorSummary } from '@/components/ui/notice';
 import { applyServerErrors } from '@/lib/form-errors';
 import { todayIso } from '@/lib/format';
 
-const LABELS = { aircraftId: 'Aircraft', title: 'Title', type: 'Kind of work', bookedInOn: 'Booked in on', dueOn: 'Due back', notes: 'Notes' };
+const LABELS = { aircraftId: 'Aircraft', templateId: 'Start from a template', title: 'Title', type: 'Kind of work', bookedInOn: 'Booked in on', dueOn: 'Due back', notes: 'Notes' };
 
 export function BookInForm({
   aircraft,
   defaultAircraftId,
   cancelTo,
   onSubmit,
+  templates = [],
 }: {
+  templates?: TemplateSummaryDto[];
   aircraft: { id: string; registration: string; customerName: string }[];
   defaultAircraftId?: string;
   cancelTo: string;
@@ -24,9 +26,11 @@ export function BookInForm({
 }) {
   const [summary, setSummary] = useState<string | null>(null);
   const lastType = useRef<JobType>('annual_permit_inspection');
+  // The title a template filled in, so a later template choice may replace it but never a typed one.
+  const lastTemplateTitle = useRef<string | null>(null);
   const { register, handleSubmit, setError, setValue, getValues, formState } = useForm<z.input<typeof jobCreateSchema>, unknown, z.output<typeof jobCreateSchema>>({
     resolver: zodResolver(jobCreateSchema),
-    defaultValues: { aircraftId: defaultAircraftId ?? '', title: JOB_TYPE_LABELS.annual_permit_inspection, type: 'annual_permit_inspection', bookedInOn: todayIso(), dueOn: null, notes: '' },
+    defaultValues: { aircraftId: defaultAircraftId ?? '', templateId: null, title: JOB_TYPE_LABELS.annual_permit_inspection, type: 'annual_permit_inspection', bookedInOn: todayIso(), dueOn: null, notes: '' },
   });
   const e = formState.errors;
 
@@ -50,6 +54,32 @@ export function BookInForm({
           </option>
         ))}
       </SelectField>
+      {templates.length > 0 ? (
+        <SelectField
+          label={LABELS.templateId}
+          hint="Copies the template's inspection scope into the estimate and its checklist onto the job."
+          error={e.templateId?.message}
+          {...register('templateId', {
+            setValueAs: (v: unknown) => (v === '' || v == null ? null : v),
+            onChange: (ev: React.ChangeEvent<HTMLSelectElement>) => {
+              const t = templates.find((x) => x.id === ev.target.value);
+              if (!t) return;
+              setValue('type', t.jobType);
+              const title = getValues('title');
+              if (!title || title === JOB_TYPE_LABELS[lastType.current] || title === lastTemplateTitle.current) setValue('title', t.name);
+              lastTemplateTitle.current = t.name;
+              lastType.current = t.jobType;
+            },
+          })}
+        >
+          <option value="">No template (empty estimate and checklist)</option>
+          {templates.map((t) => (
+            <option key={t.id} value={t.id}>
+              {t.name}
+            </option>
+          ))}
+        </SelectField>
+      ) : null}
       <SelectField
         label={LABELS.type}
         required

@@ -1,0 +1,15 @@
+import type { Page, PartDto } from '@wingstage/shared';
+import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import { api } from '@/lib/api-client';
+import type { ListParams } from '@/lib/list-params';
+import { partKeys } from './keys';
+
+export type PartListParams = Partial<ListParams> & { supplierId?: string; active?: 'true' | 'false' };
+
+export const getParts = (params: PartListParams, signal?: AbortSignal) => api.get<Page<PartDto>>('/parts', params, signal);
+
+export const partsQueryOptions = (params: PartListParams) =>
+  queryOptions({ queryKey: partKeys.list(params), queryFn: ({ signal }) => getParts(params, signal), placeholderData: keepPreviousData });
+
+/** Pickers (estimate lines, remedies) need the whole active catalogue; the list endpoint caps a page at 100. */
+export const ALL_ACTIVE_PARTS: PartListParams = { active: 'true', pageSize: 100, sort: 'partNumber', dir: 'asc' };

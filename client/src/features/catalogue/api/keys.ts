@@ -1,0 +1,4 @@
+import { createQueryKeys } from '@/lib/query-keys';
+
+export const partKeys = createQueryKeys('parts');
+export const supplierKeys = createQueryKeys('suppliers');

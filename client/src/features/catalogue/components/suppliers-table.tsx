@@ -1,0 +1,57 @@
+import { SUPPLIER_KIND_LABELS, type Page, type SupplierDto } from '@wingstage/shared';
+import { createColumnHelper } from '@tanstack/react-table';
+import { ServerTable } from '@/components/ui/data-table';
+import type { ListParams } from '@/lib/list-params';
+
+const col = createColumnHelper<SupplierDto>();
+
+export function SuppliersTable({
+  page,
+  params,
+  onChange,
+  onEdit,
+  busy,
+}: {
+  page: Page<SupplierDto>;
+  params: ListParams;
+  onChange: (p: Record<string, string | number | undefined>) => void;
+  onEdit?: (s: SupplierDto) => void;
+  busy?: boolean;
+}) {
+  const columns = [
+    col.accessor('name', {
+      header: 'Name',
+      meta: { primary: true },
+      cell: (c) =>
+        onEdit ? (
+          <button type="button" className="min-h-8 text-left font-semibold text-harbour-deep underline underline-offset-2" onClick={() => onEdit(c.row.original)}>
+            {c.getValue()}
+            <span className="sr-only"> (edit)</span>
+          </button>
+        ) : (
+          <span className="font-semibold">{c.getValue()}</span>
+        ),
+    }),
+    col.accessor('kind', { header: 'What they do', cell: (c) => SUPPLIER_KIND_LABELS[c.getValue()] }),
+    col.accessor('email', { header: 'E-mail', enableSorting: false, cell: (c) => c.getValue() || '—' }),
+    col.accessor('phone', { header: 'Phone', enableSorting: false, cell: (c) => c.getValue() || '—' }),
+    col.accessor('active', { header: 'In use', enableSorting: false, cell: (c) => (c.getValue() ? 'Yes' : 'No (hidden from new lines)') }),
+  ];
+  return (
+    <ServerTable
+      caption="Suppliers"
+      columns={columns}
+      rows={page.items}
+      total={page.total}
+      page={page.page}
+      pageSize={page.pageSize}
+      sort={params.sort}
+      dir={params.dir}
+      onSort={(sort, dir) => onChange({ sort, dir })}
+      onPage={(p) => onChange({ page: p })}
+      getRowId={(r) => r.id}
+      busy={busy}
+      empty={params.q ? 'No suppliers match this search.' : 'No suppliers yet.'}
+    />
+  );
+}
