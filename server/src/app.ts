@@ -17,6 +17,7 @@ import { jobsRoutes } from './routes/jobs.routes.js';
 import { usersRoutes } from './routes/users.routes.js';
 import { partsRoutes, suppliersRoutes } from './routes/catalogue.routes.js';
 import { templatesRoutes } from './routes/templates.routes.js';
+import { jobWorkRoutes } from './routes/job-work.routes.js';
 import { workshopRoutes } from './routes/workshop.routes.js';
 import type { Deps } from './services/deps.js';
 
@@ -100,6 +101,7 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/customers', customersRoutes(deps));
   app.use('/api/aircraft', aircraftRoutes(deps));
   app.use('/api/jobs', jobsRoutes(deps));
+  app.use('/api/jobs', jobWorkRoutes(deps));
   app.use('/api/suppliers', suppliersRoutes(deps));
   app.use('/api/parts', partsRoutes(deps));
   app.use('/api/templates', templatesRoutes(deps));

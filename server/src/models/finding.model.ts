@@ -18,7 +18,7 @@ export class Finding extends Model<InferAttributes<Finding>, InferCreationAttrib
   declare checklistItemId: string | null;
   declare measuredValue: string | null;
   declare limit: ChecklistLimit | null;
-  declare state: CreationOptional<FindingState>;
+  declare state: FindingState;
   declare remedy: Remedy;
   declare raisedBy: string | null;
   declare raisedAt: CreationOptional<Date>;

@@ -14,26 +14,14 @@ import { AppError, forbidden, notFound, staleVersion } from '../errors/app-error
 import { Aircraft, AuditEvent, Customer, Job, User, boundSequelize } from '../models/index.js';
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
-import { inWorkshop, ownedRows, requireStaff, type Scope } from './scope.js';
+import { inWorkshop, requireStaff, type Scope } from './scope.js';
+import { findJob, scopedInclude, type JobRow } from './job-access.js';
+import { applyTemplate, ensureEstimate } from './estimates.service.js';
+import { releaseBlockers } from './findings.service.js';
 
 type JobListQuery = z.output<typeof jobListQuerySchema>;
 type JobUpdate = z.output<typeof jobUpdateSchema>;
 type JobTransition = z.output<typeof jobTransitionSchema>;
-type JobRow = Job & { aircraft: Aircraft & { customer: Customer } };
-
-/** Jobs reach owners through their aircraft: the owner filter rides on the required join. */
-function scopedInclude(scope: Scope): Includeable[] {
-  return [
-    {
-      model: Aircraft,
-      as: 'aircraft',
-      required: true,
-      attributes: ['id', 'registration', 'type', 'customerId'],
-      where: ownedRows(scope, 'customerId'),
-      include: [{ model: Customer, as: 'customer', required: true, attributes: ['id', 'name'] }],
-    },
-  ];
-}
 
 function toDto(j: JobRow): JobDto {
   return {
@@ -54,18 +42,6 @@ function toDto(j: JobRow): JobDto {
     createdAt: j.createdAt.toISOString(),
     updatedAt: j.updatedAt.toISOString(),
   };
-}
-
-async function findJob(scope: Scope, id: string, t?: Transaction, lock = false): Promise<JobRow> {
-  const job = await Job.findOne({
-    where: inWorkshop(scope, { id }),
-    include: scopedInclude(scope),
-    transaction: t,
-    // Lock only the job row; the joined rows are read, not changed.
-    lock: lock && t ? { level: t.LOCK.UPDATE, of: Job } : undefined,
-  });
-  if (!job) throw notFound('That job');
-  return job as JobRow;
 }
 
 export async function listJobs(scope: Scope, q: JobListQuery): Promise<Page<JobDto>> {
@@ -128,12 +104,15 @@ export async function createJob(scope: Scope, input: JobCreate): Promise<JobDto>
     const aircraft = await Aircraft.findOne({ where: inWorkshop(scope, { id: input.aircraftId }), transaction: t });
     if (!aircraft) throw new AppError('not_found', 404, 'That aircraft was not found.', { aircraftId: 'That aircraft was not found.' });
     const number = await nextJobNumber(scope, t);
-    const job = await Job.create({ ...input, workshopId: scope.workshopId, number, state: 'booked_in' }, { transaction: t });
+    const { templateId, ...fields } = input;
+    const job = await Job.create({ ...fields, workshopId: scope.workshopId, number, state: 'booked_in' }, { transaction: t });
+    await ensureEstimate(scope, job.id, t);
+    const template = templateId ? await applyTemplate(scope, job.id, templateId, t) : null;
     await recordAudit(scope, t, {
       jobId: job.id,
       action: 'job.booked_in',
-      summary: `Booked in ${aircraft.registration} as ${number}: ${job.title}`,
-      detail: { number, aircraftId: aircraft.id, type: job.type, bookedInOn: job.bookedInOn, dueOn: job.dueOn },
+      summary: `Booked in ${aircraft.registration} as ${number}: ${job.title}${template ? ` (from template ${template.name}: ${template.lines} scope lines, ${template.checks} checks)` : ''}`,
+      detail: { number, aircraftId: aircraft.id, type: job.type, bookedInOn: job.bookedInOn, dueOn: job.dueOn, templateId },
     });
     return job.id;
   });
@@ -189,6 +168,10 @@ export async function transitionJob(scope: Scope, id: string, input: JobTransiti
     if (job.version !== input.version) throw staleVersion();
     const check = canTransition(job.state, input.to);
     if (!check.ok) throw new AppError('invalid_transition', 409, check.reason);
+    if (input.to === 'ready_for_release') {
+      const blocker = await releaseBlockers(scope, job.id, t);
+      if (blocker) throw new AppError('invalid_transition', 409, blocker);
+    }
     if (input.to === 'cancelled' && !input.reason) {
       throw new AppError('validation_failed', 400, 'Some fields need attention.', { reason: 'Say why the job is cancelled.' });
     }

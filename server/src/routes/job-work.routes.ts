@@ -1,0 +1,70 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import {
+  ROLES,
+  STAFF_ROLES,
+  checklistRecordSchema,
+  estimateSaveSchema,
+  findingActionSchema,
+  findingCreateSchema,
+  findingUpdateSchema,
+  idParamsSchema,
+  idSchema,
+  timeLogCreateSchema,
+} from '@wingstage/shared';
+import { authorize, scopeOf } from '../middleware/authorize.js';
+import { validBody, validParams, validate } from '../middleware/validate.js';
+import type { Deps } from '../services/deps.js';
+import * as estimates from '../services/estimates.service.js';
+import * as findings from '../services/findings.service.js';
+
+const itemParams = z.object({ id: idSchema, itemId: idSchema });
+const findingParams = z.object({ id: idSchema, findingId: idSchema });
+
+/** What hangs off one job: its estimate, checklist, findings and time. Mounted under /api/jobs. */
+export function jobWorkRoutes({ config }: Deps): Router {
+  const router = Router();
+  const hands = authorize(config, 'admin', 'manager', 'engineer');
+
+  router.get('/:id/estimate', authorize(config, ...ROLES), validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await estimates.getEstimate(scopeOf(req), validParams(req, idParamsSchema).id));
+  });
+  router.put('/:id/estimate', authorize(config, 'admin', 'manager'), validate({ params: idParamsSchema, body: estimateSaveSchema }), async (req, res) => {
+    res.json(await estimates.saveEstimate(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, estimateSaveSchema)));
+  });
+
+  router.get('/:id/checklist', authorize(config, ...STAFF_ROLES), validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await findings.listChecklist(scopeOf(req), validParams(req, idParamsSchema).id));
+  });
+  router.patch('/:id/checklist/:itemId', hands, validate({ params: itemParams, body: checklistRecordSchema }), async (req, res) => {
+    const p = validParams(req, itemParams);
+    res.json(await findings.recordChecklist(scopeOf(req), p.id, p.itemId, validBody(req, checklistRecordSchema)));
+  });
+
+  router.get('/:id/findings', authorize(config, ...ROLES), validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await findings.listFindings(scopeOf(req), validParams(req, idParamsSchema).id));
+  });
+  router.post('/:id/findings', hands, validate({ params: idParamsSchema, body: findingCreateSchema }), async (req, res) => {
+    res.status(201).json(await findings.createFinding(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, findingCreateSchema)));
+  });
+  router.patch('/:id/findings/:findingId', hands, validate({ params: findingParams, body: findingUpdateSchema }), async (req, res) => {
+    const p = validParams(req, findingParams);
+    res.json(await findings.updateFinding(scopeOf(req), p.id, p.findingId, validBody(req, findingUpdateSchema)));
+  });
+  router.post('/:id/findings/:findingId/withdraw', authorize(config, 'admin', 'manager'), validate({ params: findingParams, body: findingActionSchema }), async (req, res) => {
+    const p = validParams(req, findingParams);
+    res.json(await findings.withdrawFinding(scopeOf(req), p.id, p.findingId, validBody(req, findingActionSchema)));
+  });
+  router.post('/:id/findings/:findingId/rectified', hands, validate({ params: findingParams, body: findingActionSchema }), async (req, res) => {
+    const p = validParams(req, findingParams);
+    res.json(await findings.markRectified(scopeOf(req), p.id, p.findingId, validBody(req, findingActionSchema)));
+  });
+
+  router.get('/:id/time', authorize(config, ...STAFF_ROLES), validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await findings.listTime(scopeOf(req), validParams(req, idParamsSchema).id));
+  });
+  router.post('/:id/time', hands, validate({ params: idParamsSchema, body: timeLogCreateSchema }), async (req, res) => {
+    res.status(201).json(await findings.logTime(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, timeLogCreateSchema)));
+  });
+  return router;
+}
