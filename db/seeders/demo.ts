@@ -3,6 +3,7 @@ import { JOB_STATE_LABELS, type JobState } from '../../shared/src/index.js';
 import { Aircraft, AuditEvent, Customer, Job, User, Workshop } from '../../server/src/models/index.js';
 import { hashPassword } from '../../server/src/lib/passwords.js';
 import { DEMO_JOBS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_STAFF, DEMO_WORKSHOP } from './demo-data.js';
+import { seedCatalogue, seedJobWork, type SeededJob } from './demo-estimates.js';
 
 export async function findDemoWorkshop(t?: Transaction): Promise<Workshop | null> {
   return Workshop.findOne({ where: { vatNumber: DEMO_WORKSHOP.vatNumber, name: DEMO_WORKSHOP.name }, transaction: t });
@@ -13,7 +14,7 @@ export async function removeDemo(sequelize: Sequelize): Promise<boolean> {
     const w = await findDemoWorkshop(t);
     if (!w) return false;
     // Children first, so no two cascades touch the same row in one statement.
-    for (const table of ['audit_events', 'jobs', 'job_counters', 'aircraft']) {
+    for (const table of ['audit_events', 'time_logs', 'estimate_lines', 'access_tasks', 'findings', 'job_checklist_items', 'estimates', 'jobs', 'job_counters', 'aircraft', 'job_templates', 'parts', 'suppliers']) {
       await sequelize.query(`DELETE FROM ${table} WHERE workshop_id = $1`, { bind: [w.id], transaction: t });
     }
     await sequelize.query('DELETE FROM users WHERE workshop_id = $1', { bind: [w.id], transaction: t });
@@ -32,7 +33,12 @@ export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<
   return sequelize.transaction(async (t) => {
     // Serialise concurrent seeders; the second one then sees the workshop and stops.
     await sequelize.query('SELECT pg_advisory_xact_lock(727412)', { transaction: t });
-    if (await findDemoWorkshop(t)) return false;
+    const existing = await findDemoWorkshop(t);
+    if (existing) {
+      // A demo seeded before the catalogue existed gets its suppliers, parts and templates.
+      await seedCatalogue(existing, t);
+      return false;
+    }
     const w = await Workshop.create({ ...DEMO_WORKSHOP }, { transaction: t });
     const staff = new Map<string, User>();
     for (const s of DEMO_STAFF) {
@@ -45,6 +51,7 @@ export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<
       aircraftByReg.set(o.aircraft.registration, await Aircraft.create({ ...o.aircraft, workshopId: w.id, customerId: c.id }, { transaction: t }));
     }
     let n = 0;
+    const seeded: SeededJob[] = [];
     for (const j of DEMO_JOBS) {
       n += 1;
       const aircraft = aircraftByReg.get(j.aircraft)!;
@@ -59,6 +66,7 @@ export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<
         { transaction: t },
       );
       const manager = staff.get('declan')!;
+      seeded.push({ job, registration: aircraft.registration, at: new Date(booked.getTime() + (now.getTime() - booked.getTime()) / (j.path.length + 2)) });
       await AuditEvent.create(
         { workshopId: w.id, jobId: job.id, actorUserId: manager.id, action: 'job.booked_in', summary: `Booked in ${aircraft.registration} as ${number}: ${j.title}`, detail: { number }, at: booked },
         { transaction: t },
@@ -78,6 +86,8 @@ export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<
         from = step.to;
       }
     }
+    const catalogue = await seedCatalogue(w, t);
+    if (catalogue) await seedJobWork(w, catalogue, seeded, staff, t);
     await sequelize.query('INSERT INTO job_counters (workshop_id, last_number) VALUES ($1, $2)', { bind: [w.id, n], transaction: t });
     return true;
   });

@@ -240,7 +240,7 @@ export async function releaseBlockers(scope: Scope, jobId: string, t: Transactio
   const one = open.length === 1;
   return (
     `The aircraft cannot be marked ready for release while ${one ? 'an airworthiness finding is' : 'airworthiness findings are'} open: ${names}. ` +
-    `${one ? 'It has' : 'They have'} to be rectified or withdrawn first. The inspector decides whether the aircraft is fit to release; Wingstage only records it.`
+    `${one ? 'It has' : 'They have'} to be put right and recorded as rectified first (or withdrawn, if raised in error). The inspector decides whether the aircraft is fit to release; Wingstage only records it.`
   );
 }
 
