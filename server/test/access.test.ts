@@ -1,8 +1,8 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '@wingstage/shared';
-import { User } from '../src/models/index.js';
-import { makeJob, makeWorkshop, passwordHash, signIn, startTestServer, uniq, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
+import { JobChecklistItem, JobTemplate, Part, Supplier, User } from '../src/models/index.js';
+import { makeFinding, makeJob, makeWorkshop, passwordHash, signIn, startTestServer, uniq, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
 let a: WorkshopFixture;
@@ -29,7 +29,7 @@ async function invitedOwner(): Promise<User> {
 
 interface RouteCase {
   route: string;
-  method: 'get' | 'post' | 'patch';
+  method: 'get' | 'post' | 'patch' | 'put';
   /** Built fresh for each caller, so one caller's write does not spoil the next. */
   req: () => Promise<{ path: string; body?: object }>;
   allowed: Role[];
@@ -37,6 +37,18 @@ interface RouteCase {
 }
 
 const version = async (path: string) => (await clients.admin.get(path)).body.version as number;
+const STAFF: Role[] = ['admin', 'manager', 'engineer', 'accounts'];
+const HANDS: Role[] = ['admin', 'manager', 'engineer'];
+const ALL_SIGNED_IN: Role[] = [...STAFF, 'owner'];
+const supplier = () => Supplier.create({ workshopId: a.workshop.id, name: `Prop shop ${uniq()}`, kind: 'propeller_shop' });
+const part = () => Part.create({ workshopId: a.workshop.id, partNumber: `P-${uniq()}`, description: 'Split pin', unitCost: '0.2000', unitPrice: null, markupPercent: null, supplierId: null });
+const templateBody = () => ({
+  name: `Matrix template ${uniq()}`,
+  jobType: 'other',
+  lines: [{ kind: 'labour', description: 'Look-over', quantity: '1', labourRateCode: 'standard' }],
+  checklist: [{ text: 'Tyre pressures' }],
+});
+const template = () => JobTemplate.create({ workshopId: a.workshop.id, name: `T ${uniq()}`, jobType: 'other', lines: [], checklist: [] });
 
 /** Every route in the contract that needs a session, with who may use it (DEVELOPERS.md, HTTP contract). */
 const MATRIX: RouteCase[] = [
@@ -97,6 +109,65 @@ const MATRIX: RouteCase[] = [
     allowed: ['admin', 'manager', 'engineer'], ok: 200,
   },
   { route: 'GET /api/jobs/:id/history', method: 'get', req: async () => ({ path: `/api/jobs/${a.owners[0].job.id}/history` }), allowed: ['admin', 'manager', 'engineer', 'accounts'], ok: 200 },
+  // Catalogue, templates, estimates, checklist, findings and time.
+  { route: 'GET /api/suppliers', method: 'get', req: async () => ({ path: '/api/suppliers' }), allowed: STAFF, ok: 200 },
+  { route: 'POST /api/suppliers', method: 'post', req: async () => ({ path: '/api/suppliers', body: { name: `Loft ${uniq()}`, kind: 'sail_loft' } }), allowed: ['admin', 'manager'], ok: 201 },
+  { route: 'PATCH /api/suppliers/:id', method: 'patch', req: async () => ({ path: `/api/suppliers/${(await supplier()).id}`, body: { version: 0, phone: '01632 960 001' } }), allowed: ['admin', 'manager'], ok: 200 },
+  { route: 'GET /api/parts', method: 'get', req: async () => ({ path: '/api/parts' }), allowed: STAFF, ok: 200 },
+  { route: 'POST /api/parts', method: 'post', req: async () => ({ path: '/api/parts', body: { partNumber: `M-${uniq()}`, description: 'Matrix washer', unitCost: '0.50' } }), allowed: ['admin', 'manager'], ok: 201 },
+  { route: 'PATCH /api/parts/:id', method: 'patch', req: async () => ({ path: `/api/parts/${(await part()).id}`, body: { version: 0, leadTimeDays: 3 } }), allowed: ['admin', 'manager'], ok: 200 },
+  { route: 'GET /api/templates', method: 'get', req: async () => ({ path: '/api/templates' }), allowed: STAFF, ok: 200 },
+  { route: 'POST /api/templates', method: 'post', req: async () => ({ path: '/api/templates', body: templateBody() }), allowed: ['admin', 'manager'], ok: 201 },
+  { route: 'GET /api/templates/:id', method: 'get', req: async () => ({ path: `/api/templates/${(await template()).id}` }), allowed: STAFF, ok: 200 },
+  { route: 'PUT /api/templates/:id', method: 'put', req: async () => ({ path: `/api/templates/${(await template()).id}`, body: { ...templateBody(), version: 0 } }), allowed: ['admin', 'manager'], ok: 200 },
+  { route: 'GET /api/jobs/:id/estimate', method: 'get', req: async () => ({ path: `/api/jobs/${a.owners[0].job.id}/estimate` }), allowed: ALL_SIGNED_IN, ok: 200 },
+  {
+    route: 'PUT /api/jobs/:id/estimate', method: 'put',
+    req: async () => ({ path: `/api/jobs/${(await makeJob(a.workshop.id, a.owners[0].aircraft.id, 'inspecting')).id}/estimate`, body: { version: 0, lines: [], accessTasks: [] } }),
+    allowed: ['admin', 'manager'], ok: 200,
+  },
+  { route: 'GET /api/jobs/:id/checklist', method: 'get', req: async () => ({ path: `/api/jobs/${a.owners[0].job.id}/checklist` }), allowed: STAFF, ok: 200 },
+  {
+    route: 'PATCH /api/jobs/:id/checklist/:itemId', method: 'patch',
+    req: async () => {
+      const job = await makeJob(a.workshop.id, a.owners[0].aircraft.id, 'inspecting');
+      const item = await JobChecklistItem.create({ workshopId: a.workshop.id, jobId: job.id, sortOrder: 0, text: 'Tyre pressures', limit: null });
+      return { path: `/api/jobs/${job.id}/checklist/${item.id}`, body: { version: 0, result: 'pass' } };
+    },
+    allowed: HANDS, ok: 200,
+  },
+  { route: 'GET /api/jobs/:id/findings', method: 'get', req: async () => ({ path: `/api/jobs/${a.owners[0].job.id}/findings` }), allowed: ALL_SIGNED_IN, ok: 200 },
+  {
+    route: 'POST /api/jobs/:id/findings', method: 'post',
+    req: async () => ({ path: `/api/jobs/${(await makeJob(a.workshop.id, a.owners[0].aircraft.id, 'inspecting')).id}/findings`, body: { title: 'Chafed cable', location: 'Rudder cable, rear fuselage', category: 'recommended', seen: 'Outer strands worn.' } }),
+    allowed: HANDS, ok: 201,
+  },
+  {
+    route: 'PATCH /api/jobs/:id/findings/:findingId', method: 'patch',
+    req: async () => {
+      const f = await makeFinding(await makeJob(a.workshop.id, a.owners[0].aircraft.id, 'inspecting'));
+      return { path: `/api/jobs/${f.jobId}/findings/${f.id}`, body: { version: 0, title: 'Chafed rudder cable' } };
+    },
+    allowed: HANDS, ok: 200,
+  },
+  {
+    route: 'POST /api/jobs/:id/findings/:findingId/withdraw', method: 'post',
+    req: async () => {
+      const f = await makeFinding(await makeJob(a.workshop.id, a.owners[0].aircraft.id, 'inspecting'));
+      return { path: `/api/jobs/${f.jobId}/findings/${f.id}/withdraw`, body: { version: 0, reason: 'Raised twice' } };
+    },
+    allowed: ['admin', 'manager'], ok: 200,
+  },
+  {
+    route: 'POST /api/jobs/:id/findings/:findingId/rectified', method: 'post',
+    req: async () => {
+      const f = await makeFinding(await makeJob(a.workshop.id, a.owners[0].aircraft.id, 'in_work'), { state: 'approved' });
+      return { path: `/api/jobs/${f.jobId}/findings/${f.id}/rectified`, body: { version: 0 } };
+    },
+    allowed: HANDS, ok: 200,
+  },
+  { route: 'GET /api/jobs/:id/time', method: 'get', req: async () => ({ path: `/api/jobs/${a.owners[0].job.id}/time` }), allowed: STAFF, ok: 200 },
+  { route: 'POST /api/jobs/:id/time', method: 'post', req: async () => ({ path: `/api/jobs/${a.owners[0].job.id}/time`, body: { hours: '1.25', workedOn: '2026-12-01' } }), allowed: HANDS, ok: 201 },
 ];
 
 describe('role × route matrix', () => {

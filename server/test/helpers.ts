@@ -6,7 +6,7 @@ import type { Role } from '@wingstage/shared';
 import { createApp, type AppParts } from '../src/app.js';
 import { loadConfig, type Config } from '../src/config/config.js';
 import { hashPassword } from '../src/lib/passwords.js';
-import { Aircraft, Customer, Job, User, Workshop } from '../src/models/index.js';
+import { Aircraft, Customer, Finding, Job, User, Workshop } from '../src/models/index.js';
 import { startParts, stopParts } from '../src/runtime.js';
 
 export const PASSWORD = 'runway-heading-270';
@@ -117,6 +117,7 @@ export interface Client {
   get(path: string): request.Test;
   post(path: string, body?: object): request.Test;
   patch(path: string, body?: object): request.Test;
+  put(path: string, body?: object): request.Test;
 }
 
 export function clientFor(agent: ReturnType<typeof request.agent>, csrf: string): Client {
@@ -126,6 +127,7 @@ export function clientFor(agent: ReturnType<typeof request.agent>, csrf: string)
     get: (p) => agent.get(p),
     post: (p, body) => agent.post(p).set('X-CSRF-Token', csrf).send(body ?? {}),
     patch: (p, body) => agent.patch(p).set('X-CSRF-Token', csrf).send(body ?? {}),
+    put: (p, body) => agent.put(p).set('X-CSRF-Token', csrf).send(body ?? {}),
   };
 }
 
@@ -168,4 +170,24 @@ export function tokenFrom(mail: MaildevMail): string {
   const m = /token=([A-Za-z0-9_-]+)/.exec(mail.text);
   if (!m) throw new Error(`no token link in e-mail "${mail.subject}"`);
   return m[1]!;
+}
+
+/** A finding straight in the database, for states the API reaches only through the owner's decision. */
+export async function makeFinding(job: Job, over: Partial<{ state: Finding['state']; category: Finding['category']; seq: number; title: string }> = {}): Promise<Finding> {
+  const seq = over.seq ?? ((await Finding.max<number, Finding>('seq', { where: { jobId: job.id } })) ?? 0) + 1;
+  return Finding.create({
+    workshopId: job.workshopId,
+    jobId: job.id,
+    seq,
+    title: over.title ?? `Finding ${seq}`,
+    location: 'Engine bay',
+    category: over.category ?? 'recommended',
+    seen: 'Seen during the inspection.',
+    checklistItemId: null,
+    measuredValue: null,
+    limit: null,
+    state: over.state ?? 'draft',
+    remedy: { description: '', hours: null, labourRateCode: null, parts: [], accessTask: null },
+    raisedBy: null,
+  });
 }
