@@ -46,6 +46,8 @@ export function createRouter() {
             { path: '/templates', lazy: () => import('./routes/templates/list') },
             { path: '/templates/new', lazy: () => import('./routes/templates/edit') },
             { path: '/templates/:id', lazy: () => import('./routes/templates/edit') },
+            { path: '/hangar', lazy: () => import('./routes/hangar/list') },
+            { path: '/hangar/:id', lazy: () => import('./routes/hangar/job') },
           ],
         },
       ],

@@ -118,3 +118,51 @@ export const CheckIcon = (p: IconProps) => (
     <path d="m5 12.5 4.5 4.5L19 7.5" />
   </Svg>
 );
+/** Airworthiness: a shield with a bar — the aircraft must not fly until it is dealt with. */
+export const ShieldBarIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <path d="M12 3 4.5 6v5.5c0 4.5 3.2 8 7.5 9.5 4.3-1.5 7.5-5 7.5-9.5V6Z" />
+    <path d="M12 8v5M12 16.5v.01" />
+  </Svg>
+);
+/** Recommended: an hourglass — it should be done now, before it becomes pressing. */
+export const HourglassIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <path d="M6.5 3h11M6.5 21h11M7.5 3c0 5 9 5 9 9s-9 4-9 9M16.5 3c0 5-9 5-9 9" />
+  </Svg>
+);
+/** Advisory: an eye — watch it at the next inspection. */
+export const EyeIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <path d="M2.5 12s3.5-6.5 9.5-6.5 9.5 6.5 9.5 6.5-3.5 6.5-9.5 6.5S2.5 12 2.5 12Z" />
+    <circle cx="12" cy="12" r="2.5" />
+  </Svg>
+);
+export const PencilIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <path d="M4 20h4L19.5 8.5a2.1 2.1 0 0 0-4-4L4 16Z" />
+  </Svg>
+);
+export const TagIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <path d="M3.5 12.5V4h8.5l8.5 8.5-8.5 8.5Z" />
+    <circle cx="8" cy="8" r="1.3" />
+  </Svg>
+);
+export const CrossIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <path d="m6.5 6.5 11 11M17.5 6.5l-11 11" />
+  </Svg>
+);
+export const GaugeIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <path d="M3.5 16a8.5 8.5 0 1 1 17 0" />
+    <path d="m12 16 4-5" />
+  </Svg>
+);
+export const ClockIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <circle cx="12" cy="12" r="9" />
+    <path d="M12 7v5l3.5 2" />
+  </Svg>
+);

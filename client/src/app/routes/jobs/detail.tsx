@@ -1,11 +1,21 @@
-import { JOB_TYPE_LABELS } from '@wingstage/shared';
+import { JOB_TYPE_LABELS, workshopPricingFrom, type EstimateDto, type FindingDto, type JobDto, type Role, type WorkshopDto } from '@wingstage/shared';
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
-import { useState } from 'react';
+import { useMemo, useRef, useState } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
 import { Caution, Loading, Notice } from '@/components/ui/notice';
 import { Card, Facts, PageHeader } from '@/components/ui/page';
 import { StateBadge } from '@/components/ui/state-badge';
+import { ALL_ACTIVE_PARTS, partsQueryOptions } from '@/features/catalogue/api/get-parts';
+import { ALL_SUPPLIERS, suppliersQueryOptions } from '@/features/catalogue/api/get-suppliers';
+import { estimateQueryOptions } from '@/features/estimates/api/get-estimate';
+import { EstimateBuilder } from '@/features/estimates/components/estimate-builder';
+import { linesFromFinding } from '@/features/estimates/components/lines-from-finding';
+import { ReleaseGuard } from '@/features/estimates/components/release-guard';
+import { useEstimateDraft } from '@/features/estimates/components/use-estimate-draft';
+import { findingsQueryOptions } from '@/features/findings/api/get-job-work';
+import { FindingsList } from '@/features/findings/components/findings-list';
+import { workshopQueryOptions } from '@/features/workshop/api/get-workshop';
 import { jobQueryOptions } from '@/features/jobs/api/get-job';
 import { jobHistoryQueryOptions } from '@/features/jobs/api/get-job-history';
 import { JobActions } from '@/features/jobs/components/job-actions';
@@ -31,6 +41,9 @@ export function Component() {
   const history = useQuery({ ...jobHistoryQueryOptions(id), enabled: can.seeHistory(role) });
   const [editing, setEditing] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
+  const estimate = useQuery(estimateQueryOptions(id));
+  const workshop = useQuery(workshopQueryOptions());
+  const findings = useQuery(findingsQueryOptions(id));
 
   return (
     <>
@@ -54,7 +67,10 @@ export function Component() {
         <div className="flex flex-col gap-5">
           {can.moveJob(role) ? (
             <Card title="Next step">
-              <JobActions job={job} role={role} />
+              <div className="flex flex-col gap-3">
+                {findings.data && ['in_work', 'awaiting_owner', 'inspecting'].includes(job.state) ? <ReleaseGuard findings={findings.data} /> : null}
+                <JobActions job={job} role={role} />
+              </div>
             </Card>
           ) : null}
           <Card
@@ -98,7 +114,79 @@ export function Component() {
           <Card title="History">{history.data ? <JobHistory events={history.data} /> : history.isError ? <p>History could not be loaded.</p> : <Loading />}</Card>
         ) : null}
       </div>
+      <div className="mt-5">
+        {estimate.data && workshop.data ? (
+          <JobEstimate job={job} role={role} estimate={estimate.data} workshop={workshop.data} findings={findings.data ?? []} />
+        ) : estimate.isError || workshop.isError ? (
+          <Notice tone="problem">The estimate could not be loaded.</Notice>
+        ) : (
+          <Loading label="Loading the estimate…" />
+        )}
+      </div>
       <Caution />
     </>
+  );
+}
+
+const CLOSED_FOR_EDITS = new Set(['invoiced', 'paid', 'closed', 'cancelled']);
+
+/** The builder and the findings that feed it share one draft, so "Price finding" adds lines to it. */
+function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto; role: Role; estimate: EstimateDto; workshop: WorkshopDto; findings: FindingDto[] }) {
+  const pricing = useMemo(() => workshopPricingFrom(workshop), [workshop]);
+  const draft = useEstimateDraft(job.id, estimate, pricing);
+  const editable = can.editEstimate(role) && !CLOSED_FOR_EDITS.has(job.state);
+  const parts = useQuery({ ...partsQueryOptions(ALL_ACTIVE_PARTS), enabled: editable });
+  const suppliers = useQuery({ ...suppliersQueryOptions(ALL_SUPPLIERS), enabled: editable });
+  const [priceNote, setPriceNote] = useState<string | null>(null);
+  const builderRef = useRef<HTMLDivElement>(null);
+  const hasLines = new Set(draft.draft.lines.map((l) => l.findingId).filter(Boolean));
+
+  const price = (f: FindingDto) => {
+    const { lines, tasks, missingParts } = linesFromFinding(f, { parts: parts.data?.items ?? [], workshop, accessTasks: draft.draft.accessTasks });
+    draft.addLines(lines, tasks);
+    setPriceNote(
+      `${f.number} added to discovered work from the engineer's proposal${tasks.length ? '; set the hours of the new access task' : ''}${
+        missingParts.length ? `; ${missingParts.length} proposed part${missingParts.length > 1 ? 's are' : ' is'} no longer in the catalogue` : ''
+      }. Check the lines, then save the estimate.`,
+    );
+    builderRef.current?.scrollIntoView({ block: 'start' });
+  };
+
+  return (
+    <div className="flex flex-col gap-5">
+      <Card title="Findings">
+        <FindingsList
+          findings={findings}
+          empty="No findings yet. Engineers raise them from the Hangar."
+          action={
+            editable
+              ? (f) =>
+                  f.state === 'draft' && !hasLines.has(f.id) ? (
+                    <Button onClick={() => price(f)} disabled={!parts.data}>
+                      Price finding
+                    </Button>
+                  ) : hasLines.has(f.id) && (f.state === 'draft' || f.state === 'priced') ? (
+                    <span className="text-sm">Priced in discovered work below{f.state === 'draft' ? ' (not saved yet)' : ''}.</span>
+                  ) : null
+              : undefined
+          }
+        />
+      </Card>
+      <div ref={builderRef} className="scroll-mt-4">
+        {priceNote ? (
+          <div className="mb-3">
+            <Notice title="Lines added">{priceNote}</Notice>
+          </div>
+        ) : null}
+        <EstimateBuilder
+          draft={draft}
+          workshop={workshop}
+          parts={parts.data?.items ?? []}
+          suppliers={(suppliers.data?.items ?? []).filter((s) => s.active)}
+          findings={findings}
+          editable={editable}
+        />
+      </div>
+    </div>
   );
 }

@@ -1,0 +1,148 @@
+import { ALL_ACTIVE_PARTS, partsQueryOptions } from '@/features/catalogue/api/get-parts';
+import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
+import { useEffect, useRef, useState } from 'react';
+import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Button } from '@/components/ui/button';
+import { Caution, Loading, Notice } from '@/components/ui/notice';
+import { Card, PageHeader } from '@/components/ui/page';
+import { StateBadge } from '@/components/ui/state-badge';
+import { useRaiseFinding } from '@/features/findings/api/record-work';
+import { checklistQueryOptions, findingsQueryOptions, timeQueryOptions } from '@/features/findings/api/get-job-work';
+import { Checklist } from '@/features/findings/components/checklist';
+import { FindingForm, type FindingPrefill } from '@/features/findings/components/finding-form';
+import { FindingsList } from '@/features/findings/components/findings-list';
+import { TimeLog } from '@/features/findings/components/time-log';
+import { jobQueryOptions } from '@/features/jobs/api/get-job';
+import { workshopQueryOptions } from '@/features/workshop/api/get-workshop';
+import { SAFETY_CAUTION } from '@/lib/cautions';
+import { can } from '@/lib/permissions';
+import { queryClient } from '@/lib/query-client';
+import { requireSession } from '../../guards';
+import { useCurrentSession } from '../../use-current-session';
+
+const HANDS_ON = ['admin', 'manager', 'engineer'] as const;
+
+export async function loader({ request, params }: LoaderFunctionArgs) {
+  await requireSession(request, HANDS_ON);
+  await Promise.all([
+    queryClient.ensureQueryData(jobQueryOptions(params.id!)),
+    queryClient.ensureQueryData(checklistQueryOptions(params.id!)),
+    queryClient.ensureQueryData(workshopQueryOptions()),
+  ]);
+  return null;
+}
+
+export function Component() {
+  const { id } = useParams() as { id: string };
+  const session = useCurrentSession();
+  const role = session.user.role;
+  const { data: job } = useSuspenseQuery(jobQueryOptions(id));
+  const { data: checklist } = useSuspenseQuery(checklistQueryOptions(id));
+  const { data: workshop } = useSuspenseQuery(workshopQueryOptions());
+  const findings = useQuery(findingsQueryOptions(id));
+  const time = useQuery(timeQueryOptions(id));
+  const parts = useQuery(partsQueryOptions(ALL_ACTIVE_PARTS));
+  const raise = useRaiseFinding(id);
+  const [raising, setRaising] = useState<FindingPrefill | null>(null);
+  const [raised, setRaised] = useState<string | null>(null);
+  const formRef = useRef<HTMLDivElement>(null);
+  const canWork = can.raiseFinding(role) && (job.state === 'inspecting' || job.state === 'in_work');
+
+  useEffect(() => {
+    if (raising) formRef.current?.scrollIntoView({ block: 'start' });
+  }, [raising]);
+
+  return (
+    <>
+      <PageHeader
+        back={{ to: '/hangar', label: 'Hangar' }}
+        title={
+          <>
+            {job.registration} · {job.title}
+          </>
+        }
+        lead={
+          <span className="flex flex-wrap items-center gap-2">
+            <StateBadge state={job.state} />
+            <span>
+              {job.aircraftType} · <span className="tabular-nums">{job.number}</span>
+            </span>
+            {can.seeJobs(role) && role !== 'engineer' ? <Link to={`/jobs/${job.id}`}>Open the job and estimate</Link> : null}
+          </span>
+        }
+      />
+      <div className="mb-4">
+        <Notice title="Safety">
+          <p>{SAFETY_CAUTION}</p>
+        </Notice>
+      </div>
+      {!canWork ? (
+        <div className="mb-4">
+          <Notice>This job is not being inspected or worked on, so the checklist and findings are read-only here.</Notice>
+        </div>
+      ) : null}
+      {raised ? (
+        <div className="mb-4">
+          <Notice title="Finding raised">{raised}</Notice>
+        </div>
+      ) : null}
+
+      <div className="flex flex-col gap-5 lg:grid lg:grid-cols-[3fr_2fr] lg:items-start">
+        <div className="flex flex-col gap-5">
+          {raising ? (
+            <div ref={formRef} className="scroll-mt-4">
+              <Card title="Raise finding">
+                <FindingForm
+                  prefill={raising}
+                  parts={parts.data?.items ?? []}
+                  workshop={workshop}
+                  onCancel={() => setRaising(null)}
+                  onSubmit={async (v) => {
+                    const f = await raise.mutateAsync(v);
+                    setRaising(null);
+                    setRaised(`${f.number} “${f.title}” is with the manager to price.`);
+                  }}
+                />
+              </Card>
+            </div>
+          ) : null}
+          <Card title="Checklist">
+            <Checklist
+              jobId={id}
+              items={checklist}
+              canRecord={canWork}
+              onRaise={(p) => {
+                setRaised(null);
+                setRaising(p);
+              }}
+            />
+          </Card>
+        </div>
+        <div className="flex flex-col gap-5">
+          <Card
+            title="Findings"
+            actions={
+              canWork && !raising ? (
+                <Button
+                  size="lg"
+                  onClick={() => {
+                    setRaised(null);
+                    setRaising({});
+                  }}
+                >
+                  Raise finding
+                </Button>
+              ) : null
+            }
+          >
+            {findings.data ? <FindingsList findings={findings.data} /> : findings.isError ? <p>Findings could not be loaded.</p> : <Loading />}
+          </Card>
+          <Card title="Time">
+            {time.data ? <TimeLog jobId={id} entries={time.data} canLog={canWork} /> : time.isError ? <p>Time could not be loaded.</p> : <Loading />}
+          </Card>
+        </div>
+      </div>
+      <Caution>{SAFETY_CAUTION}</Caution>
+    </>
+  );
+}
