@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { JOB_STATES } from '@wingstage/shared';
-import { Aircraft, Job, User, boundSequelize } from '../src/models/index.js';
+import { Aircraft, Finding, Job, JobTemplate, Part, User, boundSequelize } from '../src/models/index.js';
 import { DEMO_PASSWORD, demoSignIns } from '../../db/seeders/demo-data.js';
 import { findDemoWorkshop, removeDemo, seedDemo } from '../../db/seeders/demo.js';
 import { startTestServer, type TestServer } from './helpers.js';
@@ -30,9 +30,58 @@ describe('demo seed', () => {
   });
 
   it('when seeded twice, then the second run changes nothing', async () => {
-    const before = await User.count();
+    const w = (await findDemoWorkshop())!;
+    // Counted within the demo workshop: other test files add rows to the same database meanwhile.
+    const counts = async () => ({
+      users: await User.count({ where: { workshopId: w.id } }),
+      parts: await Part.count({ where: { workshopId: w.id } }),
+      templates: await JobTemplate.count({ where: { workshopId: w.id } }),
+      findings: await Finding.count({ where: { workshopId: w.id } }),
+    });
+    const before = await counts();
     expect(await seedDemo(boundSequelize())).toBe(false);
-    expect(await User.count()).toBe(before);
+    expect(await counts()).toEqual(before);
+  });
+
+  it('when seeded, then the catalogue, templates and example limits are there, labelled as examples', async () => {
+    const agent = request.agent(server.app);
+    await agent.post('/api/auth/sign-in').send({ email: 'manager@brackenfold.example', password: DEMO_PASSWORD });
+    const suppliers = (await agent.get('/api/suppliers')).body.items.map((s: { kind: string }) => s.kind).sort();
+    expect(suppliers).toEqual(['parts', 'propeller_shop', 'sail_loft']);
+    expect((await agent.get('/api/parts?pageSize=100')).body.total).toBeGreaterThanOrEqual(10);
+    const templates = (await agent.get('/api/templates')).body as { id: string; jobType: string }[];
+    expect(templates.map((t) => t.jobType).sort()).toEqual(['annual_permit_inspection', 'engine_service_100h', 'engine_service_200h', 'gearbox_inspection', 'wing_strip_recover']);
+    const limits = [];
+    for (const t of templates) for (const c of (await agent.get(`/api/templates/${t.id}`)).body.checklist) if (c.limit) limits.push(c.limit);
+    expect(limits.length).toBeGreaterThanOrEqual(4);
+    expect(limits.every((l: { source: string }) => /^Example/.test(l.source) && /common practice/.test(l.source))).toBe(true);
+  });
+
+  it('when seeded, then the job awaiting the owner has priced findings sharing an access task, and the declined airworthiness finding blocks release', async () => {
+    const agent = request.agent(server.app);
+    const s = await agent.post('/api/auth/sign-in').send({ email: 'manager@brackenfold.example', password: DEMO_PASSWORD });
+    const waiting = (await agent.get('/api/jobs?state=awaiting_owner')).body.items[0];
+    const est = (await agent.get(`/api/jobs/${waiting.id}/estimate`)).body;
+    const findings = (await agent.get(`/api/jobs/${waiting.id}/findings`)).body as { id: string; state: string }[];
+    expect(findings.map((f) => f.state)).toEqual(['priced', 'priced', 'priced']);
+    expect(est.priced.undecided.findings).toBe(3);
+    const shared = est.accessTasks[0].id;
+    const users = new Set(est.lines.filter((l: { accessTaskId: string | null }) => l.accessTaskId === shared).map((l: { findingId: string }) => l.findingId));
+    expect(users.size).toBe(2);
+    expect(est.priced.accessTasks[0].remediesIfAllApproved).toBe(2);
+    const checklist = (await agent.get(`/api/jobs/${waiting.id}/checklist`)).body as { limitCheck: string | null; measuredValue: string | null }[];
+    expect(checklist.find((c) => c.measuredValue !== null)).toMatchObject({ measuredValue: '0.9500', limitCheck: 'above' });
+
+    const inWork = (await agent.get('/api/jobs?state=in_work')).body.items[0];
+    const move = await agent.post(`/api/jobs/${inWork.id}/transition`).set('X-CSRF-Token', s.body.csrfToken).send({ to: 'ready_for_release', version: inWork.version });
+    expect(move.status).toBe(409);
+    expect(move.body.error.message).toMatch(/declined by the owner/);
+    const declinedLines = (await agent.get(`/api/jobs/${inWork.id}/estimate`)).body.lines.filter((l: { stage: string }) => l.stage === 'declined');
+    expect(declinedLines.length).toBeGreaterThan(0);
+
+    const closed = (await agent.get('/api/jobs?state=closed')).body.items[0];
+    const closedEst = (await agent.get(`/api/jobs/${closed.id}/estimate`)).body;
+    expect(Number(closedEst.priced.stages.approved.gross)).toBeGreaterThan(0);
   });
 
   it('when a demo owner signs in with the printed password, then they see only their own aircraft', async () => {
