@@ -39,3 +39,8 @@ export function todayIso(now = new Date()): string {
 export function formatHours(h: string): string {
   return `${h.replace(/\.0+$/, '')} h`;
 }
+
+/** "0.9700" → "0.97", "12.0000" → "12": measurements are stored with four decimals but read as taken. */
+export function trimDecimal(v: string): string {
+  return v.includes('.') ? v.replace(/0+$/, '').replace(/\.$/, '') : v;
+}

@@ -100,7 +100,7 @@ export function EstimateBuilder({
         </h2>
         {editable ? (
           <div className="flex flex-wrap items-center gap-3">
-            <span className="text-sm" role="status">
+            <span className="text-sm" role="status" data-testid="estimate-save-state">
               {draft.dirty ? (
                 <>
                   <span aria-hidden="true">● </span>Unsaved changes

@@ -3,6 +3,7 @@ import { useId, useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { AlertIcon, CheckIcon, CrossIcon, GaugeIcon, SlashCircleIcon } from '@/components/ui/icons';
 import { isApiError } from '@/lib/api-client';
+import { trimDecimal } from '@/lib/format';
 import { useRecordChecklist } from '../api/record-work';
 import type { FindingPrefill } from './finding-form';
 
@@ -14,9 +15,9 @@ export function prefillFromItem(item: JobChecklistItemDto): FindingPrefill {
   return {
     title: `${item.text}: outside limit`,
     location: item.section || '',
-    seen: item.measuredValue ? `Measured ${item.measuredValue}${unit}${where}. ${item.note}`.trim() : item.note,
+    seen: item.measuredValue ? `Measured ${trimDecimal(item.measuredValue)}${unit}${where}. ${item.note}`.trim() : item.note,
     checklistItemId: item.id,
-    measuredValue: item.measuredValue,
+    measuredValue: item.measuredValue ? trimDecimal(item.measuredValue) : null,
     limit,
   };
 }
@@ -53,7 +54,7 @@ export function Checklist({ jobId, items, canRecord, onRaise }: { jobId: string;
 function ChecklistItem({ jobId, item, canRecord, onRaise }: { jobId: string; item: JobChecklistItemDto; canRecord: boolean; onRaise: (p: FindingPrefill) => void }) {
   const record = useRecordChecklist(jobId);
   const [measuring, setMeasuring] = useState(false);
-  const [value, setValue] = useState(item.measuredValue ?? '');
+  const [value, setValue] = useState(item.measuredValue ? trimDecimal(item.measuredValue) : '');
   const [problem, setProblem] = useState<string | null>(null);
   const inputId = useId();
   const outside = item.limitCheck === 'below' || item.limitCheck === 'above';
@@ -103,7 +104,7 @@ function ChecklistItem({ jobId, item, canRecord, onRaise }: { jobId: string; ite
           {ResultIcon ? <ResultIcon size={16} /> : null}
           {item.result ? (
             <>
-              <span className="font-semibold">{item.result === 'measured' ? `Measured ${item.measuredValue}${item.limit ? ` ${item.limit.unit}` : ''}` : CHECKLIST_RESULT_LABELS[item.result]}</span>
+              <span className="font-semibold">{item.result === 'measured' ? `Measured ${trimDecimal(item.measuredValue ?? '')}${item.limit ? ` ${item.limit.unit}` : ''}` : CHECKLIST_RESULT_LABELS[item.result]}</span>
               {item.recordedByName ? <span className="text-slate-soft">by {item.recordedByName}</span> : null}
             </>
           ) : (

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { findingCreateSchema, type ChecklistLimit, type FindingCategory, type FindingCreateInput, type PartDto, type WorkshopDto } from '@wingstage/shared';
+import { describeLimit, findingCreateSchema, type ChecklistLimit, type FindingCategory, type FindingCreateInput, type PartDto, type WorkshopDto } from '@wingstage/shared';
 import { useState } from 'react';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
@@ -67,7 +67,7 @@ export function FindingForm({
       {prefill?.measuredValue && prefill.limit ? (
         <p className="rounded-control border border-seam-strong bg-cloth-sunk px-3 py-2 text-sm tabular-nums">
           Measured <strong>{prefill.measuredValue} {prefill.limit.unit}</strong> against the example limit{' '}
-          {prefill.limit.min ?? '—'}–{prefill.limit.max ?? '—'} {prefill.limit.unit}; both are recorded with the finding.
+          ({describeLimit(prefill.limit)}); both are recorded with the finding.
         </p>
       ) : null}
       <TextField label={LABELS.title} required autoComplete="off" error={e.title?.message} {...register('title')} />

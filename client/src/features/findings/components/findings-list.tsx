@@ -1,7 +1,7 @@
-import type { FindingDto } from '@wingstage/shared';
+import { describeLimit, type FindingDto } from '@wingstage/shared';
 import type { ReactNode } from 'react';
 import { CategoryBadge, FindingStateBadge } from '@/components/ui/finding-badges';
-import { formatDateTime } from '@/lib/format';
+import { formatDateTime, trimDecimal } from '@/lib/format';
 
 export function FindingsList({ findings, action, empty = 'No findings raised on this job.' }: { findings: FindingDto[]; action?: (f: FindingDto) => ReactNode; empty?: string }) {
   if (findings.length === 0) return <p className="text-slate-soft">{empty}</p>;
@@ -25,7 +25,7 @@ export function FindingsList({ findings, action, empty = 'No findings raised on 
           <p className="whitespace-pre-line text-sm">{f.seen}</p>
           {f.measuredValue && f.limit ? (
             <p className="text-sm tabular-nums">
-              Measured {f.measuredValue} {f.limit.unit} (example limit {f.limit.min ?? '—'}–{f.limit.max ?? '—'} {f.limit.unit})
+              Measured {trimDecimal(f.measuredValue)} {f.limit.unit} (example limit {describeLimit(f.limit)})
             </p>
           ) : null}
           {f.remedy.description || f.remedy.hours || f.remedy.parts.length > 0 || f.remedy.accessTask ? (

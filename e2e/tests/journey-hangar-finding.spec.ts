@@ -1,0 +1,122 @@
+import { expect, test, type Browser, type Page, type TestInfo } from '@playwright/test';
+
+/**
+ * An engineer at phone width records a spark plug gap outside the template's example limit on the
+ * demo annual inspection of Q-BRKA and raises the proposed finding; the manager at desktop width
+ * prices it in the estimate builder, saves, and sees the discovered-work total change.
+ *
+ * It changes the demo job, so it runs once (desktop project) against a freshly seeded database,
+ * as docker-free-scripts/test.sh provides.
+ */
+
+const PASSWORD = 'wingstage-demo';
+const PHONE = { width: 375, height: 812 };
+const DESKTOP = { width: 1280, height: 900 };
+// Above the example wear limit of 0.9 mm in the demo template.
+const GAP = '0.97';
+
+async function shot(page: Page, testInfo: TestInfo, name: string) {
+  const path = testInfo.outputPath(`${name}.png`);
+  await page.screenshot({ path, fullPage: true });
+  await testInfo.attach(name, { path, contentType: 'image/png' });
+}
+
+async function signedIn(browser: Browser, baseURL: string | undefined, email: string, size: { width: number; height: number }, phone: boolean) {
+  const ctx = await browser.newContext({ baseURL, viewport: size, isMobile: phone, hasTouch: phone, locale: 'en-GB', timezoneId: 'Europe/London' });
+  const page = await ctx.newPage();
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  // Password checks are deliberately slow (bcrypt); allow for a busy machine.
+  await expect(page).not.toHaveURL(/\/sign-in/, { timeout: 30_000 });
+  return { ctx, page };
+}
+
+test('an out-of-limit plug gap becomes a finding the manager prices @approval', async ({ browser, baseURL }, testInfo) => {
+  test.skip(testInfo.project.name !== 'desktop', 'Changes the demo job: runs once, with its own phone and desktop windows.');
+  test.setTimeout(180_000);
+  let jobPath = '';
+  const findingTitle = `Spark plug gap ${GAP} mm, over the wear limit`;
+
+  await test.step('the engineer opens the job in the hangar on a phone', async () => {
+    const { ctx, page } = await signedIn(browser, baseURL, 'priya@brackenfold.example', PHONE, true);
+    await page.goto('/hangar');
+    await expect(page.getByRole('heading', { level: 1, name: 'Hangar' })).toBeVisible();
+    await shot(page, testInfo, '01-engineer-hangar-375');
+    await page.getByRole('link', { name: /Q-BRKA.*Annual permit inspection/ }).click();
+    await expect(page.getByRole('heading', { level: 1, name: /Q-BRKA/ })).toBeVisible();
+    jobPath = new URL(page.url()).pathname.replace('/hangar/', '/jobs/');
+    await expect(page.getByText("Follow the manufacturer's current data and the authority's rules").first()).toBeVisible();
+
+    const item = page.getByRole('article', { name: 'Spark plug electrode gap, each plug' });
+    await item.getByRole('button', { name: 'Record value' }).click();
+    await item.getByLabel(/Measured value/).fill(GAP);
+    await item.getByRole('button', { name: 'Save value' }).click();
+    await expect(item.getByText(`Measured ${GAP} mm`)).toBeVisible();
+    await expect(item.getByText('Outside the example limit (at most 0.9 mm)')).toBeVisible();
+    // Every button the engineer taps on the phone is at least 44 px tall.
+    for (const b of await item.getByRole('button').all()) {
+      const box = await b.boundingBox();
+      expect(box?.height ?? 0).toBeGreaterThanOrEqual(44);
+    }
+    await item.scrollIntoViewIfNeeded();
+    await shot(page, testInfo, '02-engineer-out-of-limit-375');
+
+    await item.getByRole('button', { name: 'Raise finding' }).click();
+    const form = page.getByRole('form', { name: 'Raise finding' });
+    await expect(form.getByLabel('Title')).toHaveValue(/Spark plug electrode gap/);
+    await expect(form.getByLabel('Where on the aircraft')).toHaveValue('Engine');
+    await expect(form.getByLabel('What was seen')).toHaveValue(new RegExp(`Measured ${GAP} mm`));
+    await form.getByLabel('Title').fill(findingTitle);
+    await form.getByLabel('Where on the aircraft').fill('Engine, cylinder 1 lower plug');
+    // Each category choice carries its word, its icon and its meaning.
+    const recommended = form.locator('label[data-category="recommended"]');
+    await expect(recommended).toContainText('Should be rectified now');
+    await expect(recommended.locator('svg')).toHaveCount(1);
+    await recommended.click();
+    await form.getByLabel('What should be done').fill('Fit a new set of plugs gapped to the manufacturer’s figure.');
+    await form.getByLabel('Hours').fill('0.5');
+    await form.getByRole('button', { name: '+ Part from the catalogue' }).click();
+    await form.getByLabel('Part 1').selectOption({ label: 'WS-1201 — Spark plug, resistor type, 12 mm thread' });
+    await form.getByLabel('Qty').fill('4');
+    await shot(page, testInfo, '03-engineer-raise-finding-375');
+    await form.getByRole('button', { name: 'Raise finding' }).click();
+    await expect(page.getByText(/is with the manager to price/)).toBeVisible();
+    const raised = page.locator('li[data-finding]', { hasText: findingTitle });
+    await expect(raised.getByText('Recommended', { exact: true })).toBeVisible();
+    await expect(raised.getByText('Draft', { exact: true })).toBeVisible();
+    await shot(page, testInfo, '04-engineer-finding-raised-375');
+    await ctx.close();
+  });
+
+  await test.step('the manager prices the finding in the builder and saves', async () => {
+    const { ctx, page } = await signedIn(browser, baseURL, 'manager@brackenfold.example', DESKTOP, false);
+    await page.goto(jobPath);
+    await expect(page.getByRole('heading', { name: /^Estimate/ })).toBeVisible();
+    const discovered = page.getByTestId('stage-head-discovered');
+    const before = await discovered.textContent();
+    const finding = page.locator('li[data-finding]', { hasText: findingTitle });
+    await expect(finding.getByText('Draft', { exact: true })).toBeVisible();
+    await shot(page, testInfo, '05-manager-job-1280');
+
+    await finding.getByRole('button', { name: 'Price finding' }).click();
+    // The lines arrive from the engineer's proposal and the totals follow at once, before saving.
+    const section = page.locator('section[data-stage="discovered"]');
+    await expect(section.locator('[data-line-kind="labour"]')).toHaveCount(1);
+    await expect(section.locator('[data-line-kind="part"]')).toHaveCount(1);
+    await expect(discovered).not.toHaveText(before ?? '');
+    const live = await discovered.textContent();
+    await expect(page.getByText('Unsaved changes')).toBeVisible();
+    await shot(page, testInfo, '06-manager-priced-unsaved-1280');
+
+    await page.getByRole('button', { name: 'Save estimate' }).click();
+    await expect(page.getByTestId('estimate-save-state')).toHaveText(/Saved/);
+    await expect(finding.getByText('Priced', { exact: true })).toBeVisible();
+    await page.reload();
+    // What the server priced and stored is what the builder showed live.
+    await expect(page.getByTestId('stage-head-discovered')).toHaveText(live ?? '');
+    await shot(page, testInfo, '07-manager-saved-1280');
+    await ctx.close();
+  });
+});
