@@ -205,6 +205,8 @@ describe('the staged estimate', () => {
     const cleared = await manager.put(`/api/jobs/${job.id}/estimate`, { version: 1, lines: [], accessTasks: [] });
     expect(cleared.status).toBe(200);
     expect((await Finding.findByPk(f.id))!.state).toBe('draft');
+    const history = await AuditEvent.findAll({ where: { jobId: job.id }, order: [['at', 'ASC']] });
+    expect(history.filter((h) => h.action.startsWith('finding.')).map((h) => h.summary)).toEqual(['Priced F-1', 'F-1 back to draft: no estimate lines left']);
   });
 
   it('when a finding is withdrawn, then its discovered lines leave the estimate and the estimate version moves on', async () => {
@@ -218,10 +220,21 @@ describe('the staged estimate', () => {
     expect({ version: est.version, stages: est.lines.map((l) => l.stage) }).toEqual({ version: 2, stages: ['inspection'] });
   });
 
-  it('when an owner reads their job’s estimate, then it is priced; another owner’s job is 404', async () => {
-    const mine = await owner.get(`/api/jobs/${a.owners[0].job.id}/estimate`);
+  it('when an owner reads their job’s estimate, then it is priced without the workshop’s costs; another owner’s job is 404', async () => {
+    const job = await inspectingJob();
+    await manager.put(`/api/jobs/${job.id}/estimate`, {
+      version: 0,
+      lines: [
+        { id: randomUUID(), stage: 'inspection', kind: 'part', description: 'Oil', quantity: '2', unitCost: '9.10', markupPercent: '30' },
+        { id: randomUUID(), stage: 'inspection', kind: 'subcontract', description: 'Balance', amount: '100.00' },
+      ],
+    });
+    const staffView = await estimateOf(job.id);
+    const mine = await owner.get(`/api/jobs/${job.id}/estimate`);
     expect(mine.status).toBe(200);
-    expect(mine.body.priced.currency).toBe('GBP');
+    expect(mine.body.priced.quoted).toEqual(staffView.priced.quoted);
+    expect(mine.body.lines.map((l: { unitCost: string | null; markupPercent: string | null; amount: string | null }) => [l.unitCost, l.markupPercent, l.amount])).toEqual([[null, null, null], [null, null, null]]);
+    expect(mine.body.priced.lines.map((l: { cost: string | null; net: string }) => [l.cost, l.net])).toEqual([[null, '23.66'], [null, '110.00']]);
     expect((await owner.get(`/api/jobs/${a.owners[1].job.id}/estimate`)).status).toBe(404);
     expect((await owner.get(`/api/jobs/${a.owners[1].job.id}/findings`)).status).toBe(404);
   });

@@ -94,9 +94,22 @@ async function estimateDto(scope: Scope, jobId: string, t?: Transaction): Promis
   return t ? run(t) : boundSequelize().transaction(run);
 }
 
+/**
+ * Owners see prices, not the workshop's buying costs or margins: those fields are blanked for them
+ * (the totals are unchanged, being worked on the server before this).
+ */
+function forOwner(dto: EstimateDto): EstimateDto {
+  return {
+    ...dto,
+    lines: dto.lines.map((l) => ({ ...l, unitCost: null, markupPercent: null, supplierId: null, amount: l.kind === 'subcontract' ? null : l.amount })),
+    priced: { ...dto.priced, lines: dto.priced.lines.map((l) => ({ ...l, cost: null })) },
+  };
+}
+
 export async function getEstimate(scope: Scope, jobId: string): Promise<EstimateDto> {
   const job = await findJob(scope, jobId);
-  return estimateDto(scope, job.id);
+  const dto = await estimateDto(scope, job.id);
+  return scope.role === 'owner' ? forOwner(dto) : dto;
 }
 
 const money = (currency: string, amount: string) => (currency === 'GBP' ? `£${amount}` : `${amount} ${currency}`);
@@ -197,7 +210,17 @@ export async function saveEstimate(scope: Scope, jobId: string, input: EstimateS
         { transaction: t },
       );
     }
-    await syncFindingStates(job.id, t);
+    const moved = await syncFindingStates(job.id, t);
+    for (const [to, numbers] of [['priced', moved.priced], ['draft', moved.draft]] as const) {
+      if (!numbers.length) continue;
+      const list = numbers.map((n) => `F-${n}`).join(', ');
+      await recordAudit(scope, t, {
+        jobId: job.id,
+        action: to === 'priced' ? 'finding.priced' : 'finding.unpriced',
+        summary: to === 'priced' ? `Priced ${list}` : `${list} back to draft: no estimate lines left`,
+        detail: { numbers },
+      });
+    }
     await est.update({ version: est.version + 1 }, { transaction: t });
 
     const after = await estimateDto(scope, job.id, t);
@@ -215,20 +238,24 @@ export async function saveEstimate(scope: Scope, jobId: string, input: EstimateS
 }
 
 /** A draft finding with discovered lines is priced; a priced one whose lines were all removed is a draft again. */
-export async function syncFindingStates(jobId: string, t: Transaction): Promise<void> {
+export async function syncFindingStates(jobId: string, t: Transaction): Promise<{ priced: number[]; draft: number[] }> {
   const q = boundSequelize();
-  await q.query(
+  const priced = await q.query<{ seq: number }>(
     `UPDATE findings SET state = 'priced', version = version + 1, updated_at = now()
      WHERE job_id = $1 AND state = 'draft'
-       AND id IN (SELECT finding_id FROM estimate_lines WHERE job_id = $1 AND stage = 'discovered' AND finding_id IS NOT NULL)`,
-    { bind: [jobId], transaction: t, type: QueryTypes.UPDATE },
+       AND id IN (SELECT finding_id FROM estimate_lines WHERE job_id = $1 AND stage = 'discovered' AND finding_id IS NOT NULL)
+     RETURNING seq`,
+    { bind: [jobId], transaction: t, type: QueryTypes.SELECT },
   );
-  await q.query(
+  const draft = await q.query<{ seq: number }>(
     `UPDATE findings SET state = 'draft', version = version + 1, updated_at = now()
      WHERE job_id = $1 AND state = 'priced'
-       AND id NOT IN (SELECT finding_id FROM estimate_lines WHERE job_id = $1 AND finding_id IS NOT NULL)`,
-    { bind: [jobId], transaction: t, type: QueryTypes.UPDATE },
+       AND id NOT IN (SELECT finding_id FROM estimate_lines WHERE job_id = $1 AND finding_id IS NOT NULL)
+     RETURNING seq`,
+    { bind: [jobId], transaction: t, type: QueryTypes.SELECT },
   );
+  const seqs = (rows: { seq: number }[]) => rows.map((r) => Number(r.seq)).sort((x, y) => x - y);
+  return { priced: seqs(priced), draft: seqs(draft) };
 }
 
 /**
