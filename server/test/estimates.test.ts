@@ -117,6 +117,31 @@ describe('booking from a template', () => {
   });
 });
 
+describe('catalogue', () => {
+  it('when parts are priced by a fixed price, their own mark-up or the workshop’s, then the sell price follows the engine', async () => {
+    const fixed = await manager.post('/api/parts', { partNumber: `F-${uniq()}`, description: 'Clamp', unitCost: '1.15', unitPrice: '2.50' });
+    const own = await manager.post('/api/parts', { partNumber: `O-${uniq()}`, description: 'Filter', unitCost: '24.50', markupPercent: '25' });
+    const both = await manager.post('/api/parts', { partNumber: `B-${uniq()}`, description: 'Both', unitCost: '1', unitPrice: '2', markupPercent: '5' });
+    // 24.50 × 1.25 = 30.625, rounded half up to the penny: 30.63.
+    expect([fixed.body.sellPrice, own.body.sellPrice]).toEqual(['2.50', '30.63']);
+    expect(both.status).toBe(400);
+    const dup = await manager.post('/api/parts', { partNumber: fixed.body.partNumber, description: 'Again', unitCost: '1' });
+    expect(dup.status).toBe(409);
+    expect(dup.body.error.fields.partNumber).toMatch(/already/);
+    const switched = await manager.patch(`/api/parts/${fixed.body.id}`, { version: fixed.body.version, markupPercent: '100' });
+    expect(switched.body).toMatchObject({ unitPrice: null, markupPercent: '100.00', sellPrice: '2.30' });
+    const stale = await admin.patch(`/api/parts/${fixed.body.id}`, { version: fixed.body.version, description: 'Late' });
+    expect(stale.status).toBe(409);
+  });
+
+  it("when a part names another workshop's supplier, then it is refused", async () => {
+    const theirs = await bAdmin.post('/api/suppliers', { name: 'Their loft', kind: 'sail_loft' });
+    const res = await manager.post('/api/parts', { partNumber: `X-${uniq()}`, description: 'Cloth', unitCost: '18', supplierId: theirs.body.id });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.supplierId).toBeTruthy();
+  });
+});
+
 describe('the staged estimate', () => {
   it('when an estimate is saved, then the stored totals equal the hand-worked figures', async () => {
     const job = await inspectingJob();

@@ -14,6 +14,7 @@ import { AppError } from './app-error.js';
 const UNIQUE_MESSAGES: Record<string, { field: string; message: string }> = {
   users_email_key: { field: 'email', message: 'Someone already signs in with this e-mail.' },
   aircraft_workshop_registration_key: { field: 'registration', message: 'An aircraft with this registration is already on file.' },
+  parts_workshop_number_key: { field: 'partNumber', message: 'A part with this number is already in the catalogue.' },
 };
 
 function zodFields(err: ZodError): Record<string, string> {

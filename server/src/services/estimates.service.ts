@@ -266,6 +266,7 @@ export async function syncFindingStates(jobId: string, t: Transaction): Promise<
 export async function applyTemplate(scope: Scope, jobId: string, templateId: string, t: Transaction): Promise<{ name: string; lines: number; checks: number }> {
   const template = await JobTemplate.findOne({ where: inWorkshop(scope, { id: templateId }), transaction: t });
   if (!template) throw invalid({ templateId: 'That template was not found.' });
+  if (!template.active) throw invalid({ templateId: 'That template is retired; choose a current one.' });
   const w = await loadWorkshop(scope, t);
   const parts = await loadParts(scope, template.lines.map((l) => l.partId), (i) => `templateId.lines.${i}.partId`, t);
   const lines = template.lines.map((l, i) => {
