@@ -31,7 +31,7 @@ export function AppShell({ session, onSignOut, signingOut, children }: { session
       type="button"
       onClick={onSignOut}
       disabled={signingOut}
-      className="flex min-h-11 items-center rounded-control border border-seam-strong px-3 text-sm font-semibold hover:bg-cloth-sunk md:min-h-10"
+      className="flex min-h-11 items-center whitespace-nowrap rounded-control border border-seam-strong px-3 text-sm font-semibold hover:bg-cloth-sunk md:min-h-10"
     >
       Sign out
     </button>
@@ -47,8 +47,8 @@ export function AppShell({ session, onSignOut, signingOut, children }: { session
           <Link to="/" className="flex shrink-0 items-center no-underline" aria-label="Wingstage home">
             <Wordmark />
           </Link>
-          <span className="hidden border-l border-seam pl-4 text-sm text-slate-soft lg:inline">{session.workshop.name}</span>
-          <nav aria-label="Main" className="ml-auto hidden md:block">
+          <span className="hidden border-l border-seam pl-4 text-sm text-slate-soft 2xl:inline">{session.workshop.name}</span>
+          <nav aria-label="Main" className="ml-auto hidden lg:block">
             <ul className="flex items-center gap-1">
               {items.map((it) => (
                 <li key={it.to}>
@@ -59,8 +59,8 @@ export function AppShell({ session, onSignOut, signingOut, children }: { session
               ))}
             </ul>
           </nav>
-          <div className="hidden items-center gap-3 md:flex">
-            <span className="text-right text-sm leading-tight">
+          <div className="hidden items-center gap-3 lg:flex">
+            <span className="text-right text-sm leading-tight whitespace-nowrap">
               <span className="block font-semibold">{session.user.name}</span>
               <span className="block text-slate-soft">{ROLE_LABELS[session.user.role]}</span>
             </span>
@@ -69,7 +69,7 @@ export function AppShell({ session, onSignOut, signingOut, children }: { session
           <button
             ref={menuButton}
             type="button"
-            className="ml-auto inline-flex min-h-11 min-w-11 items-center justify-center gap-1 rounded-control border border-seam-strong px-2 font-semibold md:hidden"
+            className="ml-auto inline-flex min-h-11 min-w-11 items-center justify-center gap-1 rounded-control border border-seam-strong px-2 font-semibold lg:hidden"
             aria-expanded={open}
             aria-controls="phone-menu"
             onClick={() => setOpen((o) => !o)}
@@ -79,7 +79,7 @@ export function AppShell({ session, onSignOut, signingOut, children }: { session
           </button>
         </div>
         {open ? (
-          <div id="phone-menu" className="border-t border-seam px-gutter pb-4 md:hidden">
+          <div id="phone-menu" className="border-t border-seam px-gutter pb-4 lg:hidden">
             <p className="py-3 text-sm">
               <span className="font-semibold">{session.user.name}</span>
               <span className="text-slate-soft"> · {ROLE_LABELS[session.user.role]}</span>

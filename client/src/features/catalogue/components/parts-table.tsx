@@ -64,7 +64,7 @@ export function PartsTable({
     col.accessor('leadTimeDays', {
       header: 'Lead time',
       meta: { numeric: true, sortWords: ['shortest first', 'longest first'] },
-      cell: (c) => (c.getValue() === 0 ? 'in stock' : `${c.getValue()} days`),
+      cell: (c) => (c.getValue() === 0 ? 'in stock' : `${c.getValue()} ${c.getValue() === 1 ? 'day' : 'days'}`),
     }),
   ];
   return (

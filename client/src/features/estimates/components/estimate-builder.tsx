@@ -235,10 +235,10 @@ function ReadLine({ line, net, currency, finding, declined }: { line: EstimateLi
   );
 }
 
-function Small({ label, children, wide }: { label: string; children: (id: string) => ReactNode; wide?: boolean }) {
+function Small({ label, children, wide, full }: { label: string; children: (id: string) => ReactNode; wide?: boolean; full?: boolean }) {
   const id = useId();
   return (
-    <div className={`flex flex-col gap-0.5 ${wide ? 'min-w-40 flex-[2_1_10rem]' : 'min-w-24 flex-[1_1_6rem]'}`}>
+    <div className={`flex flex-col gap-0.5 ${full ? '' : wide ? 'min-w-40 flex-[2_1_10rem]' : 'min-w-24 flex-[1_1_6rem]'}`}>
       <label htmlFor={id} className="text-xs font-semibold text-slate-soft">
         {label}
       </label>
@@ -278,8 +278,11 @@ function EditableLine({
         <span className="ml-auto font-semibold tabular-nums" data-testid="line-net">
           {net !== undefined ? formatMoney(net, currency, { vat: 'excl' }) : '—'}
         </span>
+        <Button variant="quiet" className="min-h-8 px-2" onClick={() => api.removeLine(l.id)} aria-label={`Remove line ${l.description || LINE_KIND_LABELS[l.kind]}`}>
+          Remove
+        </Button>
       </div>
-      <Small label="Description" wide>
+      <Small label="Description" full>
         {(id) => <input id={id} className={inputClass} value={l.description} onChange={(e) => set({ description: e.target.value })} />}
       </Small>
       <div className="flex flex-wrap gap-2">
@@ -379,19 +382,12 @@ function EditableLine({
           </Small>
         ) : null}
       </div>
-      <div className="flex flex-wrap items-center justify-between gap-2">
-        {error ? (
-          <p className="text-sm font-semibold text-ember" role="alert">
-            <span aria-hidden="true">▲ </span>
-            {error}
-          </p>
-        ) : (
-          <span />
-        )}
-        <Button variant="quiet" onClick={() => api.removeLine(l.id)} aria-label={`Remove line ${l.description || LINE_KIND_LABELS[l.kind]}`}>
-          Remove line
-        </Button>
-      </div>
+      {error ? (
+        <p className="text-sm font-semibold text-ember" role="alert">
+          <span aria-hidden="true">▲ </span>
+          {error}
+        </p>
+      ) : null}
     </div>
   );
 }

@@ -13,9 +13,9 @@ function Money({ amount, currency, vat, testId }: { amount: string; currency: st
 
 function Row({ label, totals, currency, testId, strong }: { label: string; totals: Totals; currency: string; testId: string; strong?: boolean }) {
   return (
-    <div className={`flex flex-wrap items-baseline justify-between gap-x-3 py-1.5 ${strong ? 'font-semibold' : ''}`}>
-      <dt>{label}</dt>
-      <dd className="text-right">
+    <div className={`flex items-baseline justify-between gap-x-3 py-1.5 ${strong ? 'font-semibold' : ''}`}>
+      <dt className="min-w-0">{label}</dt>
+      <dd className="shrink-0 whitespace-nowrap text-right">
         <Money amount={totals.gross} currency={currency} vat="incl" testId={`${testId}-gross`} />
         <span className="block text-xs font-normal text-slate-soft">
           <Money amount={totals.net} currency={currency} vat="excl" testId={`${testId}-net`} />
@@ -40,14 +40,14 @@ export function EstimateTotals({ priced, paused }: { priced: PricedEstimate; pau
         <dl className="divide-y divide-seam">
           <Row label="Quoted (inspection scope)" totals={priced.quoted} currency={c} testId="total-quoted" />
           <Row label="Approved so far" totals={priced.committed} currency={c} testId="total-committed" strong />
-          <div className="flex flex-wrap items-baseline justify-between gap-x-3 py-1.5">
-            <dt>
+          <div className="flex items-baseline justify-between gap-x-3 py-1.5">
+            <dt className="min-w-0">
               Undecided
               <span className="block text-xs text-slate-soft">
                 {priced.undecided.findings} {priced.undecided.findings === 1 ? 'finding' : 'findings'} awaiting the owner
               </span>
             </dt>
-            <dd className="text-right">
+            <dd className="shrink-0 whitespace-nowrap text-right">
               <Money amount={priced.undecided.gross} currency={c} vat="incl" testId="total-undecided-gross" />
               <span className="block text-xs text-slate-soft">
                 <Money amount={priced.undecided.net} currency={c} vat="excl" />

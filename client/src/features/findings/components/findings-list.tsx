@@ -25,7 +25,8 @@ export function FindingsList({ findings, action, empty = 'No findings raised on 
           <p className="whitespace-pre-line text-sm">{f.seen}</p>
           {f.measuredValue && f.limit ? (
             <p className="text-sm tabular-nums">
-              Measured {trimDecimal(f.measuredValue)} {f.limit.unit} (example limit {describeLimit(f.limit)})
+              <span className="text-slate-soft">Recorded measurement: </span>
+              {trimDecimal(f.measuredValue)} {f.limit.unit} · example limit {describeLimit(f.limit)}
             </p>
           ) : null}
           {f.remedy.description || f.remedy.hours || f.remedy.parts.length > 0 || f.remedy.accessTask ? (
