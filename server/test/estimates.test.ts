@@ -307,6 +307,10 @@ describe('checklist, findings and time', () => {
     const bad = await engineer.post(`/api/jobs/${job.id}/findings`, { ...body, remedy: { parts: [{ partId: randomUUID(), quantity: '1' }] } });
     expect(bad.status).toBe(400);
     expect((await engineer.post(`/api/jobs/${job.id}/findings`, body)).body.number).toBe('F-2');
+    // Three people raising at the same moment still get distinct, consecutive numbers.
+    const burst = await Promise.all([engineer, manager, admin].map((c) => c.post(`/api/jobs/${job.id}/findings`, body)));
+    expect(burst.map((r) => r.status)).toEqual([201, 201, 201]);
+    expect(burst.map((r) => r.body.number).sort()).toEqual(['F-3', 'F-4', 'F-5']);
   });
 
   it('when an owner lists findings, then drafts are not shown', async () => {
