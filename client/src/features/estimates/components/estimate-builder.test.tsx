@@ -1,0 +1,147 @@
+import * as shared from '@wingstage/shared';
+import { estimateEngineInput, workshopPricingFrom, type EstimateDto, type EstimateLineDto, type WorkshopDto } from '@wingstage/shared';
+import { fireEvent, screen, waitFor, within } from '@testing-library/react';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { formatMoney } from '@/lib/format';
+import { renderWithApp } from '@/testing/render';
+import { EstimateBuilder } from './estimate-builder';
+import { useEstimateDraft } from './use-estimate-draft';
+
+// The builder must show the engine's own figures; wrapping the engine lets a test swap its answer.
+vi.mock('@wingstage/shared', async (importOriginal) => {
+  const real = await importOriginal<typeof import('@wingstage/shared')>();
+  return { ...real, priceEstimate: vi.fn(real.priceEstimate) };
+});
+
+const workshop: WorkshopDto = {
+  id: 'w',
+  name: 'Test workshop',
+  addressLines: '',
+  postcode: '',
+  vatNumber: 'GB999000173',
+  currency: 'GBP',
+  vatRates: { standard: '20', reduced: '5', zero: '0' },
+  labourRates: [
+    { code: 'standard', name: 'Workshop labour', ratePerHour: '62.00' },
+    { code: 'sailcloth', name: 'Sail and fabric work', ratePerHour: '70.00' },
+  ],
+  settings: { vatRounding: 'invoice-nearest', partsMarkupPercent: '20', subcontractMarkupPercent: '10', approvalLinkDays: 14, chaseAfterHours: 48 },
+  version: 1,
+};
+const pricing = workshopPricingFrom(workshop);
+const JOB = '0b4f2f7e-3c1a-4d8e-9b6a-1c2d3e4f5a6b';
+
+function line(over: Partial<EstimateLineDto>): EstimateLineDto {
+  return {
+    id: crypto.randomUUID(),
+    stage: 'inspection',
+    kind: 'labour',
+    description: 'Annual inspection',
+    quantity: '6',
+    labourRateCode: 'standard',
+    ratePerHour: '62.00',
+    partId: null,
+    supplierId: null,
+    unitCost: null,
+    unitPrice: null,
+    markupPercent: null,
+    amount: null,
+    vatRate: 'standard',
+    findingId: null,
+    accessTaskId: null,
+    discountPercent: null,
+    ...over,
+  };
+}
+
+function estimateOf(lines: EstimateLineDto[], version = 3): EstimateDto {
+  const real = vi.mocked(shared.priceEstimate);
+  return { jobId: JOB, version, currency: 'GBP', lines, accessTasks: [], priced: real(estimateEngineInput(lines, []), pricing) };
+}
+
+function Harness({ estimate }: { estimate: EstimateDto }) {
+  const draft = useEstimateDraft(JOB, estimate, pricing);
+  return <EstimateBuilder draft={draft} workshop={workshop} parts={[]} suppliers={[]} findings={[]} editable />;
+}
+
+const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
+
+describe('EstimateBuilder', () => {
+  const fetchMock = vi.fn<typeof fetch>();
+  beforeEach(async () => {
+    vi.stubGlobal('fetch', fetchMock);
+    const real = await vi.importActual<typeof import('@wingstage/shared')>('@wingstage/shared');
+    vi.mocked(shared.priceEstimate).mockImplementation(real.priceEstimate);
+  });
+  afterEach(() => {
+    vi.unstubAllGlobals();
+    fetchMock.mockReset();
+  });
+
+  it('shows the totals the shared engine gives for the lines on screen, and follows edits before saving', async () => {
+    const labour = line({});
+    const fee = line({ kind: 'fee', description: 'Permit paperwork', quantity: '1', labourRateCode: null, ratePerHour: null, amount: '45.00' });
+    const found = line({ stage: 'discovered', description: 'New plugs', quantity: '0.5', findingId: null });
+    const estimate = estimateOf([labour, fee, found]);
+    renderWithApp(<Harness estimate={estimate} />);
+
+    const expected = estimate.priced;
+    expect(screen.getByTestId('stage-head-inspection').textContent).toBe(
+      `${formatMoney(expected.stages.inspection.net, 'GBP', { vat: 'excl' })} · ${formatMoney(expected.stages.inspection.gross, 'GBP', { vat: 'incl' })}`,
+    );
+    expect(screen.getByTestId('total-quoted-gross').textContent).toBe(formatMoney(expected.quoted.gross, 'GBP', { vat: 'incl' }));
+    expect(screen.getByTestId('total-committed-gross').textContent).toBe(formatMoney(expected.committed.gross, 'GBP', { vat: 'incl' }));
+
+    // Change the labour hours: the figures are the engine's answer for the edited lines.
+    const hours = within(screen.getByRole('region', { name: 'Inspection scope' })).getAllByLabelText('Hours')[0]!;
+    fireEvent.change(hours, { target: { value: '7.5' } });
+    const edited = shared.priceEstimate(estimateEngineInput([{ ...labour, quantity: '7.5' }, fee, found], []), pricing);
+    expect(screen.getByTestId('total-quoted-gross').textContent).toBe(formatMoney(edited.quoted.gross, 'GBP', { vat: 'incl' }));
+    expect(edited.quoted.gross).not.toBe(expected.quoted.gross);
+    expect(screen.getByText('Unsaved changes')).toBeTruthy();
+  });
+
+  it('lays out whatever the engine returns rather than adding lines up itself', () => {
+    const estimate = estimateOf([line({})]);
+    const real = estimate.priced;
+    vi.mocked(shared.priceEstimate).mockImplementation(() => ({ ...real, quoted: { ...real.quoted, gross: '1234.56' } }));
+    renderWithApp(<Harness estimate={estimate} />);
+    expect(screen.getByTestId('total-quoted-gross').textContent).toBe('£1,234.56 incl. VAT');
+    expect(shared.priceEstimate).toHaveBeenCalled();
+  });
+
+  it('pauses the totals, with the reason, while a figure is not a number', () => {
+    const estimate = estimateOf([line({})]);
+    renderWithApp(<Harness estimate={estimate} />);
+    fireEvent.change(screen.getAllByLabelText('Hours')[0]!, { target: { value: '7,5' } });
+    expect(screen.getByText(/Totals paused until every figure is a number/)).toBeTruthy();
+  });
+
+  it('when someone else saved first, says so, shows their version and keeps the unsaved lines', async () => {
+    const mine = line({ description: 'Annual inspection' });
+    const estimate = estimateOf([mine], 3);
+    const theirs = estimateOf([line({ description: 'Their new scope line', quantity: '2' })], 4);
+    fetchMock.mockImplementation(async (url, init) => {
+      if (init?.method === 'PUT') return json({ error: { code: 'stale_version', message: 'Someone else changed this estimate.', fields: { version: '4' } } }, 409);
+      if (String(url).endsWith('/estimate')) return json(theirs);
+      return json({});
+    });
+    renderWithApp(<Harness estimate={estimate} />);
+    fireEvent.change(screen.getAllByLabelText('Description')[0]!, { target: { value: 'Annual inspection with extra checks' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Save estimate' }));
+
+    expect(await screen.findByText('Not saved: someone else changed this estimate')).toBeTruthy();
+    const [, init] = fetchMock.mock.calls.find(([, i]) => i?.method === 'PUT')!;
+    expect(JSON.parse(String(init?.body)).version).toBe(3);
+    await waitFor(() => expect(screen.getByText(/Their version: quoted/)).toBeTruthy());
+    expect(screen.getByText(/nothing has been lost/)).toBeTruthy();
+    expect(screen.getByText('4', { selector: 'strong' })).toBeTruthy();
+    // The manager's own edit is still on screen, not replaced by theirs.
+    expect((screen.getAllByLabelText('Description')[0] as HTMLInputElement).value).toBe('Annual inspection with extra checks');
+    expect(screen.queryByDisplayValue('Their new scope line')).toBeNull();
+
+    fireEvent.click(screen.getByRole('button', { name: 'Show their version (drop my changes)' }));
+    expect(screen.getByDisplayValue('Their new scope line')).toBeTruthy();
+    expect(screen.getByRole('heading', { name: /Estimate/ }).textContent).toContain('version 4');
+  });
+});
