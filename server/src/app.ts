@@ -79,6 +79,8 @@ export function createApp(parts: AppParts): Express {
       hsts: config.NODE_ENV === 'production',
     }),
   );
+  // An estimate may carry up to 2000 lines (shared schema), about 1 MB of JSON; every other body stays small.
+  app.put('/api/jobs/:id/estimate', express.json({ limit: '1mb' }));
   app.use(express.json({ limit: '200kb' }));
   app.use(cookieParser());
   app.use('/api', (_req, res, next) => {

@@ -264,6 +264,18 @@ describe('the staged estimate', () => {
     expect((await owner.get(`/api/jobs/${a.owners[1].job.id}/findings`)).status).toBe(404);
   });
 
+  it('when a large estimate of 1500 lines is saved, then it is accepted whole and priced', async () => {
+    const job = await inspectingJob();
+    const lines = Array.from({ length: 1500 }, (_, i) => labour({ description: `Task ${i + 1} of a long strip-down`, quantity: '0.10' }));
+    const started = Date.now();
+    const res = await manager.put(`/api/jobs/${job.id}/estimate`, { version: 0, lines });
+    const ms = Date.now() - started;
+    expect(res.status).toBe(200);
+    // 1500 × 0.10 h × £62.00 = £9,300.00 net; VAT 20% = £1,860.00; gross £11,160.00.
+    expect(res.body.priced.quoted).toMatchObject({ net: '9300.00', vat: '1860.00', gross: '11160.00' });
+    expect(ms).toBeLessThan(15_000);
+  });
+
   it('when an invoiced job’s estimate is saved, then it is refused', async () => {
     const job = await makeJob(a.workshop.id, a.owners[0].aircraft.id, 'invoiced');
     const res = await manager.put(`/api/jobs/${job.id}/estimate`, { version: 0, lines: [labour()] });
