@@ -17,6 +17,20 @@ describe('BookInForm', () => {
     expect(title.value).toBe('Gearbox and clutch check');
   });
 
+  it('a template sets the kind of work and the title, and is sent with the booking', async () => {
+    const templates = [
+      { id: '3e4f5a6b-7c8d-4e9f-8a1b-2c3d4e5f6a7b', name: '100-hour engine service (trike)', jobType: 'engine_service_100h' as const, lineCount: 4, checklistCount: 8, active: true },
+    ];
+    const onSubmit = vi.fn().mockResolvedValue(undefined);
+    renderWithApp(<BookInForm aircraft={aircraft} defaultAircraftId={aircraft[0]!.id} cancelTo="/jobs" onSubmit={onSubmit} templates={templates} />);
+    fireEvent.change(screen.getByLabelText(/^Start from a template/), { target: { value: templates[0]!.id } });
+    expect((screen.getByLabelText(/^Kind of work/) as HTMLSelectElement).value).toBe('engine_service_100h');
+    expect((screen.getByLabelText(/^Title/) as HTMLInputElement).value).toBe('100-hour engine service (trike)');
+    fireEvent.click(screen.getByRole('button', { name: 'Book in' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(onSubmit.mock.calls[0]![0]).toMatchObject({ templateId: templates[0]!.id, type: 'engine_service_100h', title: '100-hour engine service (trike)' });
+  });
+
   it("refuses a due date before booking in, with the shared schema's message, and sends null for no due date", async () => {
     const onSubmit = vi.fn().mockResolvedValue(undefined);
     renderWithApp(<BookInForm aircraft={aircraft} defaultAircraftId={aircraft[0]!.id} cancelTo="/jobs" onSubmit={onSubmit} />);
