@@ -21,7 +21,7 @@ import { jobHistoryQueryOptions } from '@/features/jobs/api/get-job-history';
 import { JobActions } from '@/features/jobs/components/job-actions';
 import { JobEditForm } from '@/features/jobs/components/job-edit-form';
 import { JobHistory } from '@/features/jobs/components/job-history';
-import { formatDate } from '@/lib/format';
+import { formatDate, formatMoney } from '@/lib/format';
 import { can } from '@/lib/permissions';
 import { queryClient } from '@/lib/query-client';
 import { requireSession, STAFF } from '../../guards';
@@ -140,6 +140,8 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
   const [priceNote, setPriceNote] = useState<string | null>(null);
   const builderRef = useRef<HTMLDivElement>(null);
   const hasLines = new Set(draft.draft.lines.map((l) => l.findingId).filter(Boolean));
+  // Each finding's own price, as the owner would be asked to approve it, from the live engine result.
+  const pricedFindings = new Map(draft.live.priced?.findings.map((p) => [p.findingId, p]) ?? []);
 
   const price = (f: FindingDto) => {
     const { lines, tasks, missingParts } = linesFromFinding(f, { parts: parts.data?.items ?? [], workshop, accessTasks: draft.draft.accessTasks });
@@ -158,18 +160,26 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
         <FindingsList
           findings={findings}
           empty="No findings yet. Engineers raise them from the Hangar."
-          action={
-            editable
-              ? (f) =>
-                  f.state === 'draft' && !hasLines.has(f.id) ? (
-                    <Button onClick={() => price(f)} disabled={!parts.data}>
-                      Price finding
-                    </Button>
-                  ) : hasLines.has(f.id) && (f.state === 'draft' || f.state === 'priced') ? (
-                    <span className="text-sm">Priced in discovered work below{f.state === 'draft' ? ' (not saved yet)' : ''}.</span>
-                  ) : null
-              : undefined
-          }
+          action={(f) => {
+            const p = pricedFindings.get(f.id);
+            return (
+              <>
+                {p && hasLines.has(f.id) ? (
+                  <span className="text-sm tabular-nums" data-testid="finding-price">
+                    Its price: <strong>{formatMoney(p.price.gross, workshop.currency, { vat: 'incl' })}</strong> ({formatMoney(p.price.net, workshop.currency, { vat: 'excl' })})
+                    {p.accessCovered.length > 0 ? ' · opening-up already paid for elsewhere' : ''}
+                  </span>
+                ) : null}
+                {editable && f.state === 'draft' && !hasLines.has(f.id) ? (
+                  <Button onClick={() => price(f)} disabled={!parts.data}>
+                    Price finding
+                  </Button>
+                ) : editable && hasLines.has(f.id) && (f.state === 'draft' || f.state === 'priced') ? (
+                  <span className="text-sm">Lines in discovered work below{f.state === 'draft' ? ' (not saved yet)' : ''}.</span>
+                ) : null}
+              </>
+            );
+          }}
         />
       </Card>
       <div ref={builderRef} className="scroll-mt-4">
