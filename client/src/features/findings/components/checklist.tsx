@@ -133,6 +133,16 @@ function ChecklistItem({ jobId, item, canRecord, onRaise }: { jobId: string; ite
         </div>
       ) : null}
 
+      {item.result === 'fail' && !item.findingId && canRecord ? (
+        <div>
+          <Button size="lg" variant="secondary" onClick={() => onRaise({ ...prefillFromItem(item), title: item.text })}>
+            Raise finding for this item
+          </Button>
+        </div>
+      ) : item.result === 'fail' && item.findingId ? (
+        <p className="text-sm">A finding has been raised for this item.</p>
+      ) : null}
+
       {problem ? (
         <p role="alert" className="text-sm font-semibold text-ember">
           <span aria-hidden="true">▲ </span>
