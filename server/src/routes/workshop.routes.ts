@@ -4,6 +4,7 @@ import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validate } from '../middleware/validate.js';
 import type { Deps } from '../services/deps.js';
 import * as workshop from '../services/workshop.service.js';
+import { onlySent } from './partial-body.js';
 
 export function workshopRoutes({ config }: Deps): Router {
   const router = Router();
@@ -11,7 +12,10 @@ export function workshopRoutes({ config }: Deps): Router {
     res.json(await workshop.getWorkshop(scopeOf(req)));
   });
   router.patch('/', authorize(config, 'admin'), validate({ body: workshopUpdateSchema }), async (req, res) => {
-    res.json(await workshop.updateWorkshop(scopeOf(req), validBody(req, workshopUpdateSchema)));
+    const body = validBody(req, workshopUpdateSchema);
+    const rawSettings = (req.body as { settings?: unknown } | undefined)?.settings;
+    const settings = body.settings ? onlySent(body.settings, rawSettings) : undefined;
+    res.json(await workshop.updateWorkshop(scopeOf(req), { ...body, settings }));
   });
   return router;
 }
