@@ -4,7 +4,6 @@ import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validate } from '../middleware/validate.js';
 import type { Deps } from '../services/deps.js';
 import * as workshop from '../services/workshop.service.js';
-import { onlySent } from './partial-body.js';
 
 export function workshopRoutes({ config }: Deps): Router {
   const router = Router();
@@ -13,9 +12,7 @@ export function workshopRoutes({ config }: Deps): Router {
   });
   router.patch('/', authorize(config, 'admin'), validate({ body: workshopUpdateSchema }), async (req, res) => {
     const body = validBody(req, workshopUpdateSchema);
-    const rawSettings = (req.body as { settings?: unknown } | undefined)?.settings;
-    const settings = body.settings ? onlySent(body.settings, rawSettings) : undefined;
-    res.json(await workshop.updateWorkshop(scopeOf(req), { ...body, settings }));
+    res.json(await workshop.updateWorkshop(scopeOf(req), body));
   });
   return router;
 }
