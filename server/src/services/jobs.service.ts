@@ -189,9 +189,6 @@ export async function transitionJob(scope: Scope, id: string, input: JobTransiti
     if (job.version !== input.version) throw staleVersion();
     const check = canTransition(job.state, input.to);
     if (!check.ok) throw new AppError('invalid_transition', 409, check.reason);
-    if (input.to === 'cancelled' && !input.reason) {
-      throw new AppError('validation_failed', 400, 'Some fields need attention.', { reason: 'Say why the job is cancelled.' });
-    }
     const from: JobState = job.state;
     await job.update({ state: input.to }, { transaction: t });
     await recordAudit(scope, t, {
