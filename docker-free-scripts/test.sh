@@ -39,6 +39,7 @@ cleanup() {
   echo
   say "test summary (profile test, total $(( $(date +%s) - began )) s)"
   if [ "${#results[@]}" -gt 0 ]; then printf '%s\n' "${results[@]}"; fi
+  [ "$rc" = 130 ] && printf '  %-22s\n' "interrupted"
   if [ "$failed" = 1 ] || [ "$rc" != 0 ]; then
     say "FAILED — logs in .local/logs/, Playwright report in e2e/playwright-report/"
     exit 1
