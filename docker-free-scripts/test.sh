@@ -1,9 +1,11 @@
 #!/usr/bin/env bash
 # npm test: the same set-up as npm start on the test profile (own ports, own PostgreSQL data folder,
-# own databases), then every test: vitest (shared, server, client) and the Playwright journeys
-# against the built app in Debian's Chromium. Prints which stage failed and exits non-zero if any did.
+# own databases), then every check: tsc in every workspace, vitest (shared, server, client) and the
+# Playwright journeys against the built app in Debian's Chromium. Prints which stage failed and
+# exits non-zero if any did.
 #
 #   npm test                      everything
+#   npm test -- --only types      tsc --noEmit only
 #   npm test -- --only unit       vitest only (extra arguments go to vitest)
 #   npm test -- --only e2e smoke  Playwright only (extra arguments go to playwright test)
 #   WS_KEEP_SERVICES=1 npm test   leave PostgreSQL and maildev running afterwards (faster reruns)
@@ -12,8 +14,8 @@ export WS_PROFILE=test
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 
 only=""
-if [ "${1:-}" = "--only" ]; then only="${2:?--only unit|e2e}"; shift 2; fi
-case "$only" in ""|unit|e2e) ;; *) die "--only takes unit or e2e, not '$only'" ;; esac
+if [ "${1:-}" = "--only" ]; then only="${2:?--only types|unit|e2e}"; shift 2; fi
+case "$only" in ""|types|unit|e2e) ;; *) die "--only takes types, unit or e2e, not '$only'" ;; esac
 : "${WS_E2E_DB:=wingstage_e2e}"
 
 began=$(date +%s)
@@ -37,6 +39,7 @@ cleanup() {
   echo
   say "test summary (profile test, total $(( $(date +%s) - began )) s)"
   if [ "${#results[@]}" -gt 0 ]; then printf '%s\n' "${results[@]}"; fi
+  [ "$rc" = 130 ] && printf '  %-22s\n' "interrupted"
   if [ "$failed" = 1 ] || [ "$rc" != 0 ]; then
     say "FAILED — logs in .local/logs/, Playwright report in e2e/playwright-report/"
     exit 1
@@ -70,6 +73,13 @@ export MAILDEV_API_URL="http://127.0.0.1:$WS_MAIL_WEB_PORT"
 export E2E_BASE_URL="http://127.0.0.1:$WS_APP_PORT"
 export E2E_MAILDEV_URL="$MAILDEV_API_URL"
 cd "$ROOT"
+
+run_types() {
+  local t=$(date +%s)
+  say "type-checking every workspace (tsc --noEmit)"
+  if npm run --silent typecheck; then record "typecheck" passed $(( $(date +%s) - t ))
+  else record "typecheck" failed $(( $(date +%s) - t )); fi
+}
 
 run_unit() {
   local t=$(date +%s)
@@ -107,7 +117,8 @@ run_e2e() {
 }
 
 case "$only" in
-  unit) run_unit "$@"; record "playwright" skipped 0 ;;
-  e2e) record "vitest" skipped 0; run_e2e "$@" ;;
-  *) run_unit; run_e2e ;;
+  types) run_types ;;
+  unit) run_unit "$@" ;;
+  e2e) run_e2e "$@" ;;
+  *) run_types; run_unit; run_e2e ;;
 esac

@@ -81,9 +81,11 @@ test('a new owner accepts an invitation and sees only their own job', async ({ p
   await test.step('the manager adds the owner', async () => {
     await page.goto('/owners');
     await page.getByRole('link', { name: 'Add owner' }).click();
-    await page.getByLabel('Name').fill(u.ownerName);
-    await page.getByLabel('E-mail').fill(u.ownerEmail);
-    await page.getByLabel('Phone').fill('01632 960 417');
+    // The form page loads on demand: wait for it, or the list's search box ("Search name, …") takes the typing.
+    await expect(page.getByRole('heading', { level: 1, name: 'Add owner' })).toBeVisible();
+    await page.getByRole('textbox', { name: 'Name', exact: true }).fill(u.ownerName);
+    await page.getByRole('textbox', { name: 'E-mail', exact: true }).fill(u.ownerEmail);
+    await page.getByRole('textbox', { name: 'Phone', exact: true }).fill('01632 960 417');
     await shot(page, testInfo, '02-add-owner');
     await page.getByRole('button', { name: 'Add owner' }).click();
     await expect(page.getByRole('heading', { level: 1, name: u.ownerName })).toBeVisible();

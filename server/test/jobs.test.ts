@@ -217,6 +217,29 @@ describe('all-or-nothing writes', () => {
   });
 });
 
+describe('workshop settings', () => {
+  it('when an admin changes one setting, then the others keep their saved values', async () => {
+    const fresh = await makeWorkshop('Settings');
+    const a = await signIn(server.app, fresh.users.admin.email);
+    const w0 = (await a.get('/api/workshop')).body;
+    const first = await a.patch('/api/workshop', { version: w0.version, settings: { partsMarkupPercent: '35' } });
+    expect(first.status).toBe(200);
+    const second = await a.patch('/api/workshop', { version: first.body.version, settings: { vatRounding: 'line-nearest' }, vatNumber: 'gb999000999' });
+    expect(second.status).toBe(200);
+    expect(second.body.settings).toMatchObject({ partsMarkupPercent: '35', vatRounding: 'line-nearest' });
+    expect(second.body.vatNumber).toBe('GB999000999');
+  });
+
+  it('when a labour rate is written as a float-like number, then it is 400 naming the field', async () => {
+    const fresh = await makeWorkshop('Rates');
+    const a = await signIn(server.app, fresh.users.admin.email);
+    const w0 = (await a.get('/api/workshop')).body;
+    const res = await a.patch('/api/workshop', { version: w0.version, labourRates: [{ code: 'standard', name: 'Workshop labour', ratePerHour: '62.005' }] });
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields)).toEqual(['labourRates.0.ratePerHour']);
+  });
+});
+
 describe('lists', () => {
   it('when jobs are filtered by state and searched by registration, then only matching jobs come back, paged', async () => {
     const reg = w.owners[1].aircraft.registration;

@@ -34,6 +34,7 @@ describe('demo seed', () => {
     // Counted within the demo workshop: other test files add rows to the same database meanwhile.
     const counts = async () => ({
       users: await User.count({ where: { workshopId: w.id } }),
+      jobs: await Job.count({ where: { workshopId: w.id } }),
       parts: await Part.count({ where: { workshopId: w.id } }),
       templates: await JobTemplate.count({ where: { workshopId: w.id } }),
       findings: await Finding.count({ where: { workshopId: w.id } }),

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import {
   aircraftCreateSchema,
+  aircraftUpdateSchema,
+  customerUpdateSchema,
   customerCreateSchema,
   invitationAcceptSchema,
   invitationCreateSchema,
@@ -121,5 +123,22 @@ describe('lists and settings', () => {
   it('when the VAT rounding method is not one of the four in VAT Notice 700 §17.5, then it is refused', () => {
     expect(workshopUpdateSchema.safeParse({ version: 0, settings: { vatRounding: 'line-nearest' } }).success).toBe(true);
     expect(workshopUpdateSchema.safeParse({ version: 0, settings: { vatRounding: 'banker' } }).success).toBe(false);
+  });
+});
+
+describe('PATCH schemas', () => {
+  it('when a PATCH sends one field, then no other field gets a default', () => {
+    // A one-field change must not reset the others to their create defaults.
+    expect(customerUpdateSchema.parse({ version: 2, name: 'Hazel Brambury' })).toEqual({ version: 2, name: 'Hazel Brambury' });
+    expect(aircraftUpdateSchema.parse({ version: 0, engineHours: '412.5' })).toEqual({ version: 0, engineHours: '412.5' });
+    expect(workshopUpdateSchema.parse({ version: 1, settings: { approvalLinkDays: 10 } })).toEqual({
+      version: 1,
+      settings: { approvalLinkDays: 10 },
+    });
+  });
+
+  it('when a PATCH sends a bad value, then it is still validated', () => {
+    expect(customerUpdateSchema.safeParse({ version: 0, email: 'not-an-address' }).success).toBe(false);
+    expect(aircraftUpdateSchema.safeParse({ version: 0, registration: 'not a reg!' }).success).toBe(false);
   });
 });

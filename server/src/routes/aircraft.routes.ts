@@ -5,7 +5,6 @@ import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validParams, validQuery, validate } from '../middleware/validate.js';
 import * as aircraft from '../services/aircraft.service.js';
 import type { Deps } from '../services/deps.js';
-import { onlySent } from './partial-body.js';
 
 const aircraftListQuerySchema = listQuerySchema.extend({ customerId: idSchema.optional() });
 
@@ -22,7 +21,7 @@ export function aircraftRoutes({ config }: Deps): Router {
   });
   router.patch('/:id', authorize(config, 'admin', 'manager'), validate({ params: idParamsSchema, body: aircraftUpdateSchema }), async (req, res) => {
     const body = validBody(req, aircraftUpdateSchema);
-    res.json(await aircraft.updateAircraft(scopeOf(req), validParams(req, idParamsSchema).id, { ...onlySent(body, req.body), version: body.version }));
+    res.json(await aircraft.updateAircraft(scopeOf(req), validParams(req, idParamsSchema).id, body));
   });
   return router;
 }

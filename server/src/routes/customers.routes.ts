@@ -4,7 +4,6 @@ import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validParams, validQuery, validate } from '../middleware/validate.js';
 import * as customers from '../services/customers.service.js';
 import type { Deps } from '../services/deps.js';
-import { onlySent } from './partial-body.js';
 
 export function customersRoutes({ config }: Deps): Router {
   const router = Router();
@@ -19,7 +18,7 @@ export function customersRoutes({ config }: Deps): Router {
   });
   router.patch('/:id', authorize(config, 'admin', 'manager'), validate({ params: idParamsSchema, body: customerUpdateSchema }), async (req, res) => {
     const body = validBody(req, customerUpdateSchema);
-    res.json(await customers.updateCustomer(scopeOf(req), validParams(req, idParamsSchema).id, { ...onlySent(body, req.body), version: body.version }));
+    res.json(await customers.updateCustomer(scopeOf(req), validParams(req, idParamsSchema).id, body));
   });
   return router;
 }

@@ -11,7 +11,8 @@ export function workshopRoutes({ config }: Deps): Router {
     res.json(await workshop.getWorkshop(scopeOf(req)));
   });
   router.patch('/', authorize(config, 'admin'), validate({ body: workshopUpdateSchema }), async (req, res) => {
-    res.json(await workshop.updateWorkshop(scopeOf(req), validBody(req, workshopUpdateSchema)));
+    const body = validBody(req, workshopUpdateSchema);
+    res.json(await workshop.updateWorkshop(scopeOf(req), body));
   });
   return router;
 }

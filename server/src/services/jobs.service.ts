@@ -172,9 +172,6 @@ export async function transitionJob(scope: Scope, id: string, input: JobTransiti
       const blocker = await releaseBlockers(scope, job.id, t);
       if (blocker) throw new AppError('invalid_transition', 409, blocker);
     }
-    if (input.to === 'cancelled' && !input.reason) {
-      throw new AppError('validation_failed', 400, 'Some fields need attention.', { reason: 'Say why the job is cancelled.' });
-    }
     const from: JobState = job.state;
     await job.update({ state: input.to }, { transaction: t });
     await recordAudit(scope, t, {

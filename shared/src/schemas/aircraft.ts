@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { decimalString, idSchema, optionalText } from './common.js';
+import { decimalString, idSchema, optionalText, patchOf } from './common.js';
 
 /** Registrations are stored upper-case; letters, digits and one or more hyphens. */
 export const registrationSchema = z
@@ -21,7 +21,7 @@ export const aircraftCreateSchema = z.object({
 export type AircraftCreateInput = z.input<typeof aircraftCreateSchema>;
 export type AircraftCreate = z.output<typeof aircraftCreateSchema>;
 
-export const aircraftUpdateSchema = aircraftCreateSchema.partial().extend({ version: z.number().int().min(0) });
+export const aircraftUpdateSchema = patchOf(aircraftCreateSchema).extend({ version: z.number().int().min(0) });
 export type AircraftUpdateInput = z.input<typeof aircraftUpdateSchema>;
 
 export interface AircraftDto {

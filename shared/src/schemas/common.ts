@@ -47,3 +47,22 @@ export interface Page<T> {
   page: number;
   pageSize: number;
 }
+
+type PatchShape<T extends z.ZodRawShape> = {
+  [K in keyof T]: z.ZodOptional<T[K] extends z.ZodDefault<infer Inner extends z.ZodType> ? Inner : T[K]>;
+};
+
+/**
+ * The PATCH form of a create schema: every field optional and no defaults. zod 4's `.partial()`
+ * keeps a field's `.default()`, so a PATCH that sends one field would reset the others; this
+ * strips the defaults so absent keys stay absent.
+ */
+export function patchOf<T extends z.ZodRawShape>(schema: z.ZodObject<T>): z.ZodObject<PatchShape<T>> {
+  const shape = Object.fromEntries(
+    Object.entries(schema.shape).map(([k, field]) => {
+      const f = field as z.ZodType;
+      return [k, (f instanceof z.ZodDefault ? (f.unwrap() as z.ZodType) : f).optional()];
+    }),
+  );
+  return z.object(shape) as unknown as z.ZodObject<PatchShape<T>>;
+}

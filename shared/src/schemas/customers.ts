@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { emailSchema, optionalText } from './common.js';
+import { emailSchema, optionalText, patchOf } from './common.js';
 
 export const CUSTOMER_KINDS = ['private', 'group'] as const;
 export const CUSTOMER_KIND_LABELS = { private: 'Private owner', group: 'Flying group' } as const;
@@ -22,7 +22,7 @@ export const customerCreateSchema = z.object({
 export type CustomerCreateInput = z.input<typeof customerCreateSchema>;
 export type CustomerCreate = z.output<typeof customerCreateSchema>;
 
-export const customerUpdateSchema = customerCreateSchema.partial().extend({ version: z.number().int().min(0) });
+export const customerUpdateSchema = patchOf(customerCreateSchema).extend({ version: z.number().int().min(0) });
 export type CustomerUpdateInput = z.input<typeof customerUpdateSchema>;
 
 export interface CustomerDto {

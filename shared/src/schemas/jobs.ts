@@ -48,11 +48,13 @@ export const jobUpdateSchema = z.object({
 });
 export type JobUpdateInput = z.input<typeof jobUpdateSchema>;
 
-export const jobTransitionSchema = z.object({
-  to: z.enum(JOB_STATES),
-  version: z.number().int().min(0),
-  reason: z.string().trim().max(500).optional().default(''),
-});
+export const jobTransitionSchema = z
+  .object({
+    to: z.enum(JOB_STATES),
+    version: z.number().int().min(0),
+    reason: z.string().trim().max(500).optional().default(''),
+  })
+  .refine((v) => v.to !== 'cancelled' || v.reason !== '', { path: ['reason'], message: 'Say why the job is cancelled.' });
 export type JobTransitionInput = z.input<typeof jobTransitionSchema>;
 
 export const jobListQuerySchema = listQuerySchema.extend({

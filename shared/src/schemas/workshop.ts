@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { decimalString } from './common.js';
+import { decimalString, patchOf } from './common.js';
 
 export const VAT_ROUNDING_METHODS = ['invoice-down', 'invoice-nearest', 'line-nearest', 'line-down-tenth'] as const;
 
@@ -31,7 +31,7 @@ export const workshopUpdateSchema = z.object({
   postcode: z.string().trim().max(16).optional(),
   vatNumber: vatNumberSchema.optional(),
   labourRates: z.array(labourRateSchema).min(1).max(20).optional(),
-  settings: workshopSettingsSchema.partial().optional(),
+  settings: patchOf(workshopSettingsSchema).optional(),
 });
 export type WorkshopUpdateInput = z.input<typeof workshopUpdateSchema>;
 

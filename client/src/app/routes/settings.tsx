@@ -18,7 +18,7 @@ export function Component() {
     <>
       <PageHeader title="Settings" lead="The workshop's details as they appear on estimates and VAT invoices." />
       <div className="max-w-3xl">
-        <SettingsForm key={workshop.version} workshop={workshop} />
+        <SettingsForm workshop={workshop} />
       </div>
     </>
   );

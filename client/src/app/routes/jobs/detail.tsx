@@ -63,7 +63,7 @@ export function Component() {
           </span>
         }
       />
-      <div className="grid gap-5 lg:grid-cols-[2fr_1fr]">
+      <div className="grid items-start gap-5 lg:grid-cols-[2fr_1fr]">
         <div className="flex flex-col gap-5">
           {can.moveJob(role) ? (
             <Card title="Next step">

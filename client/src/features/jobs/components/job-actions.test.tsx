@@ -75,4 +75,20 @@ describe('JobActions', () => {
     renderWithApp(<JobActions job={{ ...job, state: 'closed' }} role="admin" />);
     expect(screen.getByText(/No further steps/)).toBeTruthy();
   });
+  it('when a job is cancelled, then the reason is asked for first and sent with the move', async () => {
+    fetchMock.mockResolvedValue(new Response(JSON.stringify({ ...job, state: 'cancelled', version: 4 }), { status: 200, headers: { 'Content-Type': 'application/json' } }));
+    renderWithApp(<JobActions job={job} role="manager" />);
+    fireEvent.click(screen.getByRole('button', { name: 'Cancel job' }));
+    // Nothing is sent until a reason is given.
+    const form = screen.getByLabelText(/Why is this job cancelled/);
+    fireEvent.submit(form.closest('form')!);
+    expect(await screen.findByText('Say why the job is cancelled.')).toBeTruthy();
+    expect(fetchMock).not.toHaveBeenCalled();
+
+    fireEvent.change(form, { target: { value: 'Owner sold the aircraft' } });
+    fireEvent.submit(form.closest('form')!);
+    await waitFor(() => expect(fetchMock).toHaveBeenCalled());
+    const [, init] = fetchMock.mock.calls[0]!;
+    expect(JSON.parse(String(init?.body))).toEqual({ to: 'cancelled', version: 3, reason: 'Owner sold the aircraft' });
+  });
 });

@@ -1,6 +1,6 @@
 import { ROLE_LABELS, STAFF_ROLES, type Page, type Role, type UserDto } from '@wingstage/shared';
 import { createColumnHelper } from '@tanstack/react-table';
-import { useState } from 'react';
+import { useId, useState } from 'react';
 import { ServerTable } from '@/components/ui/data-table';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
@@ -19,6 +19,8 @@ function RowActions({ user, selfId, onProblem }: { user: UserDto; selfId: string
   const update = useUpdateUser();
   const resend = useResendInvitation();
   const self = user.id === selfId;
+  // The row renders twice (table on a desktop, card on a phone), so ids must not come from the user id.
+  const selectId = useId();
   const run = async (fn: () => Promise<unknown>, done?: string) => {
     onProblem(null);
     try {
@@ -32,11 +34,11 @@ function RowActions({ user, selfId, onProblem }: { user: UserDto; selfId: string
     <div className="flex flex-wrap items-center gap-2">
       {user.role !== 'owner' ? (
         <>
-          <label htmlFor={`role-${user.id}`} className="sr-only">
+          <label htmlFor={selectId} className="sr-only">
             Role for {user.name}
           </label>
           <select
-            id={`role-${user.id}`}
+            id={selectId}
             value={user.role}
             disabled={self || update.isPending}
             onChange={(e) => void run(() => update.mutateAsync({ id: user.id, body: { role: e.target.value as Role } }))}
@@ -52,7 +54,7 @@ function RowActions({ user, selfId, onProblem }: { user: UserDto; selfId: string
       ) : null}
       {user.invited && user.active ? (
         <Button variant="quiet" onClick={() => void run(() => resend.mutateAsync(user.id), `A fresh link is on its way to ${user.email}.`)}>
-          Resend invitation
+          Resend invitation<span className="sr-only"> to {user.name}</span>
         </Button>
       ) : null}
       {!self ? (
@@ -65,6 +67,7 @@ function RowActions({ user, selfId, onProblem }: { user: UserDto; selfId: string
           }}
         >
           {user.active ? 'Deactivate' : 'Reactivate'}
+          <span className="sr-only"> {user.name}</span>
         </Button>
       ) : (
         <span className="text-sm text-slate-soft">This is you</span>

@@ -9,6 +9,7 @@ import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary, Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
 import { applyServerErrors } from '@/lib/form-errors';
+import { formatMoney } from '@/lib/format';
 import { useUpdateWorkshop } from '../api/update-workshop';
 
 // Wording follows the options HMRC VAT Notice 700 §17.5 allows: VAT on the invoice total rounded
@@ -45,7 +46,7 @@ export function SettingsForm({ workshop }: { workshop: WorkshopDto }) {
   const [summary, setSummary] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
   const update = useUpdateWorkshop();
-  const { register, control, handleSubmit, setError, reset, formState } = useForm<FormIn, unknown, z.output<typeof workshopUpdateSchema>>({
+  const { register, control, handleSubmit, setError, reset, watch, formState } = useForm<FormIn, unknown, z.output<typeof workshopUpdateSchema>>({
     resolver: zodResolver(workshopUpdateSchema),
     defaultValues: toForm(workshop),
   });
@@ -84,7 +85,7 @@ export function SettingsForm({ workshop }: { workshop: WorkshopDto }) {
         <div className="flex flex-col gap-4">
           <TextField label={LABELS.name!} required error={e.name?.message} {...register('name')} />
           <TextAreaField label={LABELS.addressLines!} rows={3} error={e.addressLines?.message} {...register('addressLines')} />
-          <div className="grid gap-4 sm:grid-cols-2">
+          <div className="grid items-end gap-4 sm:grid-cols-2">
             <TextField label={LABELS.postcode!} error={e.postcode?.message} {...register('postcode')} />
             <TextField label={LABELS.vatNumber!} hint="Printed on every VAT invoice." error={e.vatNumber?.message} {...register('vatNumber')} />
           </div>
@@ -95,11 +96,19 @@ export function SettingsForm({ workshop }: { workshop: WorkshopDto }) {
         <ul className="flex flex-col gap-4">
           {rates.fields.map((f, i) => {
             const re = e.labourRates?.[i];
+            const typed = watch(`labourRates.${i}.ratePerHour`) ?? '';
             return (
               <li key={f.id} className="grid items-end gap-3 border-b border-seam pb-4 last:border-0 sm:grid-cols-[1fr_2fr_1fr_auto]">
                 <TextField label="Code" error={re?.code?.message} {...register(`labourRates.${i}.code`)} />
                 <TextField label="Name" error={re?.name?.message} {...register(`labourRates.${i}.name`)} />
-                <TextField label="Rate per hour" inputMode="decimal" className="tabular-nums" error={re?.ratePerHour?.message} {...register(`labourRates.${i}.ratePerHour`)} />
+                <TextField
+                  label="Rate per hour"
+                  inputMode="decimal"
+                  className="tabular-nums"
+                  hint={/^\d+(\.\d{1,2})?$/.test(typed.trim()) ? `${formatMoney(typed.trim(), workshop.currency, { vat: 'excl' })} an hour` : 'For example 62.00'}
+                  error={re?.ratePerHour?.message}
+                  {...register(`labourRates.${i}.ratePerHour`)}
+                />
                 <Button variant="quiet" disabled={rates.fields.length <= 1} onClick={() => rates.remove(i)}>
                   Remove
                 </Button>
