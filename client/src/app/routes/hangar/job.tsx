@@ -10,6 +10,7 @@ import { useRaiseFinding } from '@/features/findings/api/record-work';
 import { checklistQueryOptions, findingsQueryOptions, timeQueryOptions } from '@/features/findings/api/get-job-work';
 import { Checklist } from '@/features/findings/components/checklist';
 import { FindingForm, type FindingPrefill } from '@/features/findings/components/finding-form';
+import { FindingActions } from '@/features/findings/components/finding-actions';
 import { FindingsList } from '@/features/findings/components/findings-list';
 import { TimeLog } from '@/features/findings/components/time-log';
 import { jobQueryOptions } from '@/features/jobs/api/get-job';
@@ -135,7 +136,7 @@ export function Component() {
               ) : null
             }
           >
-            {findings.data ? <FindingsList findings={findings.data} /> : findings.isError ? <p>Findings could not be loaded.</p> : <Loading />}
+            {findings.data ? <FindingsList findings={findings.data} action={(f) => <FindingActions jobId={job.id} finding={f} role={session.user.role} />} /> : findings.isError ? <p>Findings could not be loaded.</p> : <Loading />}
           </Card>
           <Card title="Time">
             {time.data ? <TimeLog jobId={id} entries={time.data} canLog={canWork} /> : time.isError ? <p>Time could not be loaded.</p> : <Loading />}

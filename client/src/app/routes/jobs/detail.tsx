@@ -14,6 +14,7 @@ import { linesFromFinding } from '@/features/estimates/components/lines-from-fin
 import { ReleaseGuard } from '@/features/estimates/components/release-guard';
 import { useEstimateDraft } from '@/features/estimates/components/use-estimate-draft';
 import { findingsQueryOptions } from '@/features/findings/api/get-job-work';
+import { FindingActions } from '@/features/findings/components/finding-actions';
 import { FindingsList } from '@/features/findings/components/findings-list';
 import { workshopQueryOptions } from '@/features/workshop/api/get-workshop';
 import { jobQueryOptions } from '@/features/jobs/api/get-job';
@@ -177,6 +178,7 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
                 ) : editable && hasLines.has(f.id) && (f.state === 'draft' || f.state === 'priced') ? (
                   <span className="text-sm">Lines in discovered work below{f.state === 'draft' ? ' (not saved yet)' : ''}.</span>
                 ) : null}
+                <FindingActions jobId={job.id} finding={f} role={role} />
               </>
             );
           }}
