@@ -119,3 +119,24 @@ export function canMoveFinding(from: FindingState, to: FindingState): Transition
 export function isOpenAirworthiness(f: { category: string; state: FindingState; rectifiedAt: string | null }): boolean {
   return f.category === 'airworthiness' && f.state !== 'withdrawn' && f.rectifiedAt === null;
 }
+
+/**
+ * Approval requests (vocabulary.md): sent → decided, or expired, revoked, or replaced when a price
+ * changed after sending (the newer request supersedes it).
+ */
+export const APPROVAL_REQUEST_STATES = ['sent', 'decided', 'expired', 'revoked', 'replaced'] as const;
+export type ApprovalRequestState = (typeof APPROVAL_REQUEST_STATES)[number];
+export const APPROVAL_REQUEST_STATE_LABELS: Record<ApprovalRequestState, string> = {
+  sent: 'Sent',
+  decided: 'Decided',
+  expired: 'Expired',
+  revoked: 'Link revoked',
+  replaced: 'Replaced',
+};
+export const APPROVAL_REQUEST_TRANSITIONS: Record<ApprovalRequestState, readonly ApprovalRequestState[]> = {
+  sent: ['decided', 'expired', 'revoked', 'replaced'],
+  decided: [],
+  expired: [],
+  revoked: [],
+  replaced: [],
+};

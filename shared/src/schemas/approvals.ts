@@ -1,0 +1,143 @@
+import { z } from 'zod';
+import { decimalString, idSchema, optionalText } from './common.js';
+import type { FindingCategory } from './findings.js';
+import type { ChecklistLimit } from './templates.js';
+import type { LineKind, Totals } from '../pricing/types.js';
+import type { ApprovalRequestState } from '../states.js';
+
+/**
+ * The owner's standing go-ahead for one job, amounts incl. VAT (product brief, "Pre-authorised
+ * limit"). Null means no limit of that kind; both null means no pre-authorisation.
+ */
+export const preAuthorisationSchema = z.object({
+  version: z.number().int().min(0),
+  perFinding: decimalString(2, 'Per-finding limit').nullable(),
+  perJob: decimalString(2, 'Per-job limit').nullable(),
+  /** How the owner gave it, e.g. "Phone call with Elspeth, 26 Nov". */
+  agreedHow: optionalText(300, 'How it was agreed'),
+});
+export type PreAuthorisationInput = z.input<typeof preAuthorisationSchema>;
+
+export interface PreAuthorisationDto {
+  perFinding: string | null;
+  perJob: string | null;
+  agreedHow: string;
+  /** Gross already approved within the limit on this job. */
+  usedSoFar: string;
+  /** perJob − usedSoFar, or null without a per-job limit. */
+  headroom: string | null;
+}
+
+/** Send for approval: the manager picks priced findings of one job. */
+export const approvalRequestCreateSchema = z.object({
+  findingIds: z.array(idSchema).min(1, { message: 'Choose at least one priced finding.' }).max(50),
+  /** A short note from the workshop shown above the findings. */
+  message: optionalText(1000, 'Message'),
+  /** The estimate version the manager was looking at: a stale one is refused (409 stale_version). */
+  estimateVersion: z.number().int().min(0),
+});
+export type ApprovalRequestCreateInput = z.input<typeof approvalRequestCreateSchema>;
+
+/** What the owner saw, frozen at sending. Its SHA-256 (hex, of the canonical JSON) is the snapshot hash. */
+export interface ApprovalSnapshot {
+  requestId: string;
+  jobId: string;
+  jobNumber: string;
+  jobTitle: string;
+  registration: string;
+  aircraftType: string;
+  ownerName: string;
+  workshopName: string;
+  currency: string;
+  /** The VAT rounding method the figures were worked with. */
+  rounding: string;
+  message: string;
+  sentAt: string;
+  expiresAt: string;
+  findings: {
+    findingId: string;
+    number: string;
+    title: string;
+    category: FindingCategory;
+    location: string;
+    seen: string;
+    measuredValue: string | null;
+    limit: ChecklistLimit | null;
+    /** Photo ids; empty until photos arrive. */
+    photoIds: string[];
+    lines: { description: string; kind: LineKind; quantity: string; net: string }[];
+    /** Its price on its own incl. any access work nothing committed already pays for. */
+    price: Totals;
+    /** Access work already paid for elsewhere (names), so not charged again here. */
+    accessCovered: string[];
+    /** The saving incl. VAT from sharing access work with committed work. */
+    accessSavingGross: string;
+  }[];
+  totals: {
+    /** The inspection scope as first quoted. */
+    quoted: Totals;
+    /** Inspection scope plus work approved before this request. */
+    approvedSoFar: Totals;
+    /** Everything in this request, if all of it were approved. */
+    thisRequest: Totals;
+    /** Other discovered work still awaiting a decision, outside this request. */
+    undecidedElsewhere: Totals;
+  };
+}
+
+export interface ApprovalRequestDto {
+  id: string;
+  jobId: string;
+  state: ApprovalRequestState;
+  findingIds: string[];
+  sentAt: string;
+  expiresAt: string;
+  decidedAt: string | null;
+  decidedByName: string | null;
+  revokedAt: string | null;
+  /** The request that replaced this one, if a price changed after sending. */
+  replacedById: string | null;
+  lastRemindedAt: string | null;
+  snapshotHash: string;
+  /** Gross of the whole request as sent. */
+  gross: string;
+}
+
+/** Result of "Send for approval": some findings may have been approved within the pre-authorised limit. */
+export interface SendForApprovalResultDto {
+  request: ApprovalRequestDto | null;
+  approvedWithinLimit: { findingId: string; number: string; gross: string }[];
+}
+
+export const DECISIONS = ['approve', 'decline'] as const;
+export type Decision = (typeof DECISIONS)[number];
+
+/** The owner's decisions on every finding of one request, confirmed by typing their name. */
+export const decisionSubmitSchema = z.object({
+  snapshotHash: z.string().regex(/^[0-9a-f]{64}$/, { message: 'This page is out of date: reload it.' }),
+  decisions: z
+    .array(
+      z.object({
+        findingId: idSchema,
+        decision: z.enum(DECISIONS, { message: 'Approve or decline this finding.' }),
+        note: optionalText(1000, 'Note'),
+      }),
+    )
+    .min(1)
+    .max(50),
+  typedName: z.string().trim().min(2, { message: 'Type your name to confirm.' }).max(120),
+});
+export type DecisionSubmitInput = z.input<typeof decisionSubmitSchema>;
+
+/** GET /api/decide/:token — everything the owner's decision page needs, without a sign-in. */
+export interface DecisionPageDto {
+  state: ApprovalRequestState;
+  /** Plain words for a request that can no longer be decided (expired, revoked, replaced, decided). */
+  closedReason: string | null;
+  snapshot: ApprovalSnapshot;
+  snapshotHash: string;
+  /** Present once decided. */
+  decisions: { findingId: string; decision: Decision; note: string }[] | null;
+  decidedByName: string | null;
+  decidedAt: string | null;
+}
