@@ -21,6 +21,8 @@ export function createRouter() {
     { path: '/forgot-password', ...forgot },
     { path: '/reset-password', ...reset },
     { path: '/accept-invitation', ...accept },
+    // The owner's e-mailed link: public, and loaded on its own so a phone fetches only this page.
+    { path: '/decide/:token', lazy: () => import('./routes/decide'), errorElement: <RouteError /> },
     {
       ...protectedLayout,
       errorElement: <RouteError />,

@@ -1,4 +1,4 @@
-const PUBLIC_PATHS = ['/sign-in', '/forgot-password', '/reset-password', '/accept-invitation'];
+const PUBLIC_PATHS = ['/sign-in', '/forgot-password', '/reset-password', '/accept-invitation', '/decide'];
 
 export function isPublicPath(pathname: string): boolean {
   return PUBLIC_PATHS.some((p) => pathname === p || pathname.startsWith(`${p}/`));

@@ -8,6 +8,11 @@ import { Card, Facts, PageHeader } from '@/components/ui/page';
 import { StateBadge } from '@/components/ui/state-badge';
 import { ALL_ACTIVE_PARTS, partsQueryOptions } from '@/features/catalogue/api/get-parts';
 import { ALL_SUPPLIERS, suppliersQueryOptions } from '@/features/catalogue/api/get-suppliers';
+import { approvalRequestsQueryOptions } from '@/features/approvals/api/approval-requests';
+import { preAuthorisationQueryOptions } from '@/features/approvals/api/pre-authorisation';
+import { ApprovalRequestsList } from '@/features/approvals/components/approval-requests-list';
+import { PreAuthorisation } from '@/features/approvals/components/pre-authorisation-form';
+import { SendForApproval, SendTick, sendable } from '@/features/approvals/components/send-for-approval';
 import { estimateQueryOptions } from '@/features/estimates/api/get-estimate';
 import { EstimateBuilder } from '@/features/estimates/components/estimate-builder';
 import { linesFromFinding } from '@/features/estimates/components/lines-from-finding';
@@ -139,6 +144,12 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
   const parts = useQuery({ ...partsQueryOptions(ALL_ACTIVE_PARTS), enabled: editable });
   const suppliers = useQuery({ ...suppliersQueryOptions(ALL_SUPPLIERS), enabled: editable });
   const [priceNote, setPriceNote] = useState<string | null>(null);
+  const [toSend, setToSend] = useState<Set<string>>(new Set());
+  const requests = useQuery(approvalRequestsQueryOptions(job.id));
+  const limit = useQuery(preAuthorisationQueryOptions(job.id));
+  // What the owner would be sent is the saved estimate's price, not the unsaved draft's.
+  const savedPrices = new Map(estimate.priced.findings.map((p) => [p.findingId, p.price.gross]));
+  const canSend = can.editEstimate(role) && !CLOSED_FOR_EDITS.has(job.state);
   const builderRef = useRef<HTMLDivElement>(null);
   const hasLines = new Set(draft.draft.lines.map((l) => l.findingId).filter(Boolean));
   // Each finding's own price, as the owner would be asked to approve it, from the live engine result.
@@ -178,12 +189,61 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
                 ) : editable && hasLines.has(f.id) && (f.state === 'draft' || f.state === 'priced') ? (
                   <span className="text-sm">Lines in discovered work below{f.state === 'draft' ? ' (not saved yet)' : ''}.</span>
                 ) : null}
+                {canSend && sendable(f) ? (
+                  <SendTick
+                    finding={f}
+                    checked={toSend.has(f.id)}
+                    onChange={(on) =>
+                      setToSend((cur) => {
+                        const next = new Set(cur);
+                        if (on) next.add(f.id);
+                        else next.delete(f.id);
+                        return next;
+                      })
+                    }
+                  />
+                ) : null}
                 <FindingActions jobId={job.id} finding={f} role={role} />
               </>
             );
           }}
         />
+        {canSend ? (
+          <div className="mt-4">
+            <SendForApproval
+              jobId={job.id}
+              ownerName={job.customerName}
+              findings={findings}
+              selected={new Set([...toSend].filter((id) => findings.some((f) => f.id === id && sendable(f))))}
+              prices={savedPrices}
+              currency={workshop.currency}
+              estimateVersion={estimate.version}
+              unsaved={draft.draft.dirty}
+              onSent={() => setToSend(new Set())}
+            />
+          </div>
+        ) : null}
       </Card>
+      <div className="grid items-start gap-5 lg:grid-cols-2">
+        <Card title="Approval requests">
+          {requests.data ? (
+            <ApprovalRequestsList jobId={job.id} requests={requests.data} findings={findings} currency={workshop.currency} canAct={canSend} />
+          ) : requests.isError ? (
+            <p>The approval requests could not be loaded.</p>
+          ) : (
+            <Loading />
+          )}
+        </Card>
+        <Card title="Pre-authorised limit">
+          {limit.data ? (
+            <PreAuthorisation jobId={job.id} jobVersion={job.version} limit={limit.data} currency={workshop.currency} canEdit={canSend} />
+          ) : limit.isError ? (
+            <p>The pre-authorised limit could not be loaded.</p>
+          ) : (
+            <Loading />
+          )}
+        </Card>
+      </div>
       <div ref={builderRef} className="scroll-mt-4">
         {priceNote ? (
           <div className="mb-3">

@@ -1,0 +1,108 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { preAuthorisationSchema, type PreAuthorisationDto } from '@wingstage/shared';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import type { z } from 'zod';
+import { Button } from '@/components/ui/button';
+import { TextField } from '@/components/ui/field';
+import { Facts } from '@/components/ui/page';
+import { FormErrorSummary } from '@/components/ui/notice';
+import { isApiError } from '@/lib/api-client';
+import { applyServerErrors } from '@/lib/form-errors';
+import { formatMoney } from '@/lib/format';
+import { useSavePreAuthorisation } from '../api/pre-authorisation';
+
+const LABELS = { perFinding: 'Up to, per finding (incl. VAT)', perJob: 'Up to, in total on this job (incl. VAT)', agreedHow: 'How the owner agreed it' };
+const blankToNull = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v);
+
+/** The owner's standing go-ahead, shown with what is left of it; the office may change it. */
+export function PreAuthorisation({ jobId, jobVersion, limit, currency, canEdit }: { jobId: string; jobVersion: number; limit: PreAuthorisationDto; currency: string; canEdit: boolean }) {
+  const [editing, setEditing] = useState(false);
+  const [notice, setNotice] = useState<string | null>(null);
+  const none = limit.perFinding === null && limit.perJob === null;
+  return (
+    <div className="flex flex-col gap-3" data-testid="pre-authorisation">
+      {notice ? <p role="status" className="text-sm font-semibold">{notice}</p> : null}
+      {editing ? (
+        <LimitForm
+          key={jobVersion}
+          jobId={jobId}
+          jobVersion={jobVersion}
+          limit={limit}
+          onDone={(n) => {
+            setEditing(false);
+            setNotice(n ?? null);
+          }}
+        />
+      ) : (
+        <>
+          {none ? (
+            <p>No pre-authorised limit: every finding goes to the owner for a decision.</p>
+          ) : (
+            <Facts
+              items={[
+                { label: 'Per finding', value: limit.perFinding ? formatMoney(limit.perFinding, currency, { vat: 'incl' }) : 'No limit of this kind' },
+                { label: 'On this job in total', value: limit.perJob ? formatMoney(limit.perJob, currency, { vat: 'incl' }) : 'No limit of this kind' },
+                { label: 'Used so far', value: formatMoney(limit.usedSoFar, currency, { vat: 'incl' }) },
+                { label: 'Headroom left', value: limit.headroom === null ? 'No job total set' : formatMoney(limit.headroom, currency, { vat: 'incl' }) },
+                { label: 'Agreed', value: limit.agreedHow },
+              ]}
+            />
+          )}
+          <p className="text-xs text-slate-soft">
+            Findings inside the limit are approved on the owner's behalf when you send, marked so, and reported to the owner. An airworthiness finding still has to be put
+            right before release, whoever approves it.
+          </p>
+          {canEdit ? (
+            <div>
+              <Button variant="secondary" onClick={() => { setNotice(null); setEditing(true); }}>
+                {none ? 'Set a limit' : 'Change the limit'}
+              </Button>
+            </div>
+          ) : null}
+        </>
+      )}
+    </div>
+  );
+}
+
+function LimitForm({ jobId, jobVersion, limit, onDone }: { jobId: string; jobVersion: number; limit: PreAuthorisationDto; onDone: (n?: string) => void }) {
+  const save = useSavePreAuthorisation(jobId);
+  const [summary, setSummary] = useState<string | null>(null);
+  const { register, handleSubmit, setError, formState } = useForm<z.input<typeof preAuthorisationSchema>, unknown, z.output<typeof preAuthorisationSchema>>({
+    resolver: zodResolver(preAuthorisationSchema),
+    defaultValues: { version: jobVersion, perFinding: limit.perFinding, perJob: limit.perJob, agreedHow: limit.agreedHow },
+  });
+  const e = formState.errors;
+  const submit = handleSubmit(async (values) => {
+    setSummary(null);
+    try {
+      await save.mutateAsync(values);
+      onDone('Limit saved.');
+    } catch (err) {
+      if (isApiError(err) && err.code === 'stale_version') {
+        onDone('Someone else changed this job meanwhile, so the limit was not saved. The page now shows the latest; set it again.');
+        return;
+      }
+      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
+    }
+  });
+  return (
+    <form onSubmit={submit} noValidate aria-label="Pre-authorised limit" className="flex flex-col gap-3">
+      <FormErrorSummary message={summary} errors={e} labels={LABELS} />
+      <div className="grid gap-3 sm:grid-cols-2">
+        <TextField label={LABELS.perFinding} inputMode="decimal" hint="Leave empty for no per-finding limit." error={e.perFinding?.message} {...register('perFinding', { setValueAs: blankToNull })} />
+        <TextField label={LABELS.perJob} inputMode="decimal" hint="Leave empty for no job total." error={e.perJob?.message} {...register('perJob', { setValueAs: blankToNull })} />
+      </div>
+      <TextField label={LABELS.agreedHow} placeholder="e.g. Phone call with the owner, 26 Nov" error={e.agreedHow?.message} {...register('agreedHow')} />
+      <div className="flex flex-wrap gap-2">
+        <Button type="submit" busy={formState.isSubmitting}>
+          Save limit
+        </Button>
+        <Button variant="secondary" onClick={() => onDone()}>
+          Cancel
+        </Button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,26 @@
+import type { DecisionPageDto, DecisionSubmitInput } from '@wingstage/shared';
+import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '@/lib/api-client';
+
+/** The owner's page is reached by its link alone, so it keys on the token and never on a session. */
+export const decideKeys = {
+  all: ['decide'] as const,
+  page: (token: string) => [...decideKeys.all, token] as const,
+};
+
+export const decisionPageQueryOptions = (token: string) =>
+  queryOptions({
+    queryKey: decideKeys.page(token),
+    queryFn: ({ signal }) => api.get<DecisionPageDto>(`/decide/${encodeURIComponent(token)}`, undefined, signal),
+    // The owner reads at their own pace; a refetch mid-choice must not reshuffle the page.
+    refetchOnWindowFocus: false,
+    retry: false,
+  });
+
+export function useSubmitDecisions(token: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: DecisionSubmitInput) => api.post<DecisionPageDto>(`/decide/${encodeURIComponent(token)}`, body, { skipUnauthorizedRedirect: true }),
+    onSuccess: (page) => qc.setQueryData(decideKeys.page(token), page),
+  });
+}

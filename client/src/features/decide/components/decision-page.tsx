@@ -1,0 +1,517 @@
+import {
+  APPROVAL_REQUEST_STATE_LABELS,
+  decisionSubmitSchema,
+  describeLimit,
+  FINDING_CATEGORY_MEANINGS,
+  type ApprovalSnapshot,
+  type Decision,
+  type DecisionPageDto,
+} from '@wingstage/shared';
+import { useId, useRef, useState, type ReactNode } from 'react';
+import { Button } from '@/components/ui/button';
+import { CategoryBadge } from '@/components/ui/finding-badges';
+import { CheckIcon, CrossIcon } from '@/components/ui/icons';
+import { Notice } from '@/components/ui/notice';
+import { isApiError } from '@/lib/api-client';
+import { formatDateTime, trimDecimal, formatMoney } from '@/lib/format';
+import { accessSavingWords, declinedAirworthinessWords, runningTotal, type Choices } from './running-total';
+
+type SnapshotFinding = ApprovalSnapshot['findings'][number];
+
+export interface DecisionPageProps {
+  page: DecisionPageDto;
+  /** Sends the owner's decisions; resolves with the page as the server now holds it. */
+  onSubmit: (body: { snapshotHash: string; decisions: { findingId: string; decision: Decision; note: string }[]; typedName: string }) => Promise<unknown>;
+  submitting?: boolean;
+  onReload?: () => void;
+}
+
+const firstName = (name: string) => name.trim().split(/\s+/)[0] ?? name;
+
+/**
+ * The owner's decision page: a letter from the workshop, one finding at a time, with the running
+ * total always in view, then a review of every choice and a typed-name confirmation.
+ */
+export function DecisionPage({ page, onSubmit, submitting = false, onReload }: DecisionPageProps) {
+  const s = page.snapshot;
+  if (page.state !== 'sent' || page.closedReason) {
+    return page.decisions && page.decidedAt ? <Receipt page={page} /> : <Closed page={page} />;
+  }
+  return <Deciding page={page} onSubmit={onSubmit} submitting={submitting} onReload={onReload} key={page.snapshotHash + s.requestId} />;
+}
+
+function Letterhead({ s, children }: { s: ApprovalSnapshot; children?: ReactNode }) {
+  return (
+    <header className="flex flex-col gap-1 border-b-2 border-seam-strong pb-3">
+      <p className="text-sm font-semibold uppercase tracking-wide text-slate-soft">{s.workshopName}</p>
+      <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">
+        Work found on {s.registration}
+      </h1>
+      <p className="text-sm text-slate-soft">
+        {s.aircraftType} · job <span className="tabular-nums">{s.jobNumber}</span>, {s.jobTitle}
+      </p>
+      {children}
+    </header>
+  );
+}
+
+function Deciding({ page, onSubmit, submitting, onReload }: Required<Pick<DecisionPageProps, 'page' | 'onSubmit'>> & Pick<DecisionPageProps, 'submitting' | 'onReload'>) {
+  const s = page.snapshot;
+  const [step, setStep] = useState(0);
+  const [choices, setChoices] = useState<Choices>({});
+  const [notes, setNotes] = useState<Record<string, string>>({});
+  const [typedName, setTypedName] = useState('');
+  const [nameError, setNameError] = useState<string | null>(null);
+  const [problem, setProblem] = useState<{ message: string; reload: boolean } | null>(null);
+  const topRef = useRef<HTMLDivElement>(null);
+  const reviewing = step === s.findings.length;
+  const totals = runningTotal(s, choices);
+
+  const go = (to: number) => {
+    setStep(to);
+    topRef.current?.scrollIntoView?.({ block: 'start' });
+  };
+
+  const confirm = async () => {
+    setProblem(null);
+    const body = {
+      snapshotHash: page.snapshotHash,
+      decisions: s.findings.map((f) => ({ findingId: f.findingId, decision: choices[f.findingId]!, note: notes[f.findingId]?.trim() ?? '' })),
+      typedName,
+    };
+    const parsed = decisionSubmitSchema.safeParse(body);
+    if (!parsed.success) {
+      const nameIssue = parsed.error.issues.find((i) => i.path[0] === 'typedName');
+      setNameError(nameIssue?.message ?? null);
+      if (!nameIssue) setProblem({ message: parsed.error.issues[0]?.message ?? 'Please check your choices.', reload: false });
+      return;
+    }
+    setNameError(null);
+    try {
+      await onSubmit(parsed.data);
+    } catch (e) {
+      if (isApiError(e) && e.status === 409) setProblem({ message: e.message, reload: true });
+      else if (isApiError(e) && e.fields.snapshotHash) setProblem({ message: e.fields.snapshotHash, reload: true });
+      else if (isApiError(e) && e.fields.typedName) setNameError(e.fields.typedName);
+      else setProblem({ message: isApiError(e) ? e.message : 'Your decisions could not be sent. Nothing was recorded; please try again.', reload: false });
+    }
+  };
+
+  return (
+    <div ref={topRef} className="flex scroll-mt-2 flex-col gap-5">
+      <Letterhead s={s}>
+        {step === 0 ? (
+          <div className="mt-3 flex flex-col gap-2">
+            <p className="text-lg">Dear {firstName(s.ownerName)},</p>
+            {s.message ? <p className="whitespace-pre-line">{s.message}</p> : null}
+            <p>
+              While working on {s.registration} we found {s.findings.length === 1 ? 'one thing' : `${s.findings.length} things`} that were not in the work we
+              quoted. Please approve or decline each one. Nothing extra is done without your say-so.
+            </p>
+            <p className="text-sm text-slate-soft">This link works until {formatDateTime(s.expiresAt)}.</p>
+          </div>
+        ) : null}
+      </Letterhead>
+
+      {reviewing ? (
+        <Review
+          s={s}
+          choices={choices}
+          notes={notes}
+          onEdit={(i) => go(i)}
+          typedName={typedName}
+          setTypedName={setTypedName}
+          nameError={nameError}
+          onConfirm={() => void confirm()}
+          submitting={submitting}
+          problem={problem}
+          onReload={onReload}
+        />
+      ) : (
+        <FindingStep
+          key={s.findings[step]!.findingId}
+          s={s}
+          index={step}
+          finding={s.findings[step]!}
+          choice={choices[s.findings[step]!.findingId]}
+          note={notes[s.findings[step]!.findingId] ?? ''}
+          onChoose={(d) => setChoices((c) => ({ ...c, [s.findings[step]!.findingId]: d }))}
+          onNote={(n) => setNotes((x) => ({ ...x, [s.findings[step]!.findingId]: n }))}
+          onBack={step > 0 ? () => go(step - 1) : undefined}
+          onNext={() => go(step + 1)}
+          last={step === s.findings.length - 1}
+        />
+      )}
+
+      <RunningTotalBar currency={s.currency} totals={totals} />
+    </div>
+  );
+}
+
+function FindingStep({
+  s,
+  index,
+  finding: f,
+  choice,
+  note,
+  onChoose,
+  onNote,
+  onBack,
+  onNext,
+  last,
+}: {
+  s: ApprovalSnapshot;
+  index: number;
+  finding: SnapshotFinding;
+  choice: Decision | undefined;
+  note: string;
+  onChoose: (d: Decision) => void;
+  onNote: (n: string) => void;
+  onBack?: () => void;
+  onNext: () => void;
+  last: boolean;
+}) {
+  const noteId = useId();
+  const saving = accessSavingWords(f, formatMoney(f.accessSavingGross, s.currency, { vat: 'incl' }));
+  return (
+    <section aria-labelledby={`f-${f.findingId}`} className="flex flex-col gap-4" data-testid="decide-finding">
+      <p className="text-sm font-semibold text-slate-soft" aria-live="polite">
+        Finding {index + 1} of {s.findings.length}
+      </p>
+      <div className="flex flex-col gap-2">
+        <h2 id={`f-${f.findingId}`} className="text-xl font-bold">
+          <span className="tabular-nums">{f.number}</span> · {f.title}
+        </h2>
+        <div className="flex flex-wrap items-center gap-2">
+          <CategoryBadge category={f.category} />
+        </div>
+        <p className="text-sm">{FINDING_CATEGORY_MEANINGS[f.category]}</p>
+      </div>
+      <dl className="flex flex-col gap-3">
+        <div>
+          <dt className="text-sm font-semibold text-slate-soft">Where</dt>
+          <dd>{f.location}</dd>
+        </div>
+        <div>
+          <dt className="text-sm font-semibold text-slate-soft">What we saw</dt>
+          <dd className="whitespace-pre-line">{f.seen}</dd>
+        </div>
+        {f.measuredValue && f.limit ? (
+          <div>
+            <dt className="text-sm font-semibold text-slate-soft">What we measured</dt>
+            <dd className="tabular-nums">
+              {trimDecimal(f.measuredValue)} {f.limit.unit}, against an example limit of {describeLimit(f.limit)}
+            </dd>
+          </div>
+        ) : null}
+        {f.lines.length > 0 ? (
+          <div>
+            <dt className="text-sm font-semibold text-slate-soft">The work</dt>
+            <dd>
+              <ul className="list-disc pl-5 text-sm">
+                {f.lines.map((l, i) => (
+                  <li key={i}>{l.description}</li>
+                ))}
+              </ul>
+            </dd>
+          </div>
+        ) : null}
+        {/* Photos arrive in a later release: the snapshot already carries their ids. */}
+      </dl>
+      <div className="rounded-card border border-seam-strong bg-cloth-raised p-4" data-testid="decide-price">
+        <p className="text-sm text-slate-soft">The price for this</p>
+        <p className="text-2xl font-bold tabular-nums">{formatMoney(f.price.gross, s.currency, { vat: 'incl' })}</p>
+        <p className="text-sm tabular-nums text-slate-soft">{formatMoney(f.price.net, s.currency, { vat: 'excl' })}</p>
+        {saving ? <p className="mt-2 text-sm">{saving}</p> : null}
+      </div>
+
+      <fieldset className="flex flex-col gap-3">
+        <legend className="mb-2 font-semibold">Your decision on {f.number}</legend>
+        <ChoiceOption name={`choice-${f.findingId}`} value="approve" checked={choice === 'approve'} onChange={() => onChoose('approve')} icon={<CheckIcon size={22} />} title="Approve" detail="Go ahead with this work at this price." />
+        <ChoiceOption name={`choice-${f.findingId}`} value="decline" checked={choice === 'decline'} onChange={() => onChoose('decline')} icon={<CrossIcon size={22} />} title="Decline" detail="Do not do this work now." />
+      </fieldset>
+      {choice === 'decline' && f.category === 'airworthiness' ? (
+        <Notice tone="problem" title="This cannot be left open for flying">
+          {declinedAirworthinessWords(s.registration)}
+        </Notice>
+      ) : null}
+      <div className="flex flex-col gap-1">
+        <label htmlFor={noteId} className="text-sm font-semibold">
+          A note for the workshop (optional)
+        </label>
+        <textarea
+          id={noteId}
+          value={note}
+          maxLength={1000}
+          onChange={(e) => onNote(e.target.value)}
+          rows={2}
+          className="block w-full rounded-control border border-seam-strong bg-cloth-raised px-3 py-2 text-base"
+        />
+      </div>
+      <nav aria-label="Findings" className="flex gap-3">
+        {onBack ? (
+          <Button variant="secondary" size="lg" className="flex-1" onClick={onBack}>
+            ← Back
+          </Button>
+        ) : null}
+        <Button size="lg" className="flex-1" onClick={onNext}>
+          {last ? 'Review your choices' : 'Next finding →'}
+        </Button>
+      </nav>
+    </section>
+  );
+}
+
+/**
+ * A large radio choice. The chosen one is told apart by a thick border, a filled mark and the word
+ * "chosen", never by colour alone.
+ */
+function ChoiceOption({ name, value, checked, onChange, icon, title, detail }: { name: string; value: Decision; checked: boolean; onChange: () => void; icon: ReactNode; title: string; detail: string }) {
+  return (
+    <label
+      data-choice={value}
+      className={`flex min-h-tap cursor-pointer items-center gap-3 rounded-card p-3 ${checked ? 'border-[3px] border-slate bg-cloth-raised' : 'border border-seam-strong bg-cloth-raised'}`}
+    >
+      <input type="radio" name={name} value={value} checked={checked} onChange={onChange} className="size-6 shrink-0 accent-harbour" />
+      <span aria-hidden="true" className="shrink-0">
+        {icon}
+      </span>
+      <span className="flex flex-col">
+        <span className="text-lg font-bold">{title}</span>
+        <span className="text-sm text-slate-soft">{detail}</span>
+      </span>
+      {checked ? (
+        <span aria-hidden="true" className="ml-auto text-sm font-semibold">
+          ● chosen
+        </span>
+      ) : null}
+    </label>
+  );
+}
+
+function ChoiceWord({ decision }: { decision: Decision | undefined }) {
+  if (!decision) return <span className="font-semibold">Not chosen yet</span>;
+  return (
+    <span className="inline-flex items-center gap-1 font-semibold" data-decision={decision}>
+      {decision === 'approve' ? <CheckIcon size={16} /> : <CrossIcon size={16} />}
+      {decision === 'approve' ? 'Approved' : 'Declined'}
+    </span>
+  );
+}
+
+function Review({
+  s,
+  choices,
+  notes,
+  onEdit,
+  typedName,
+  setTypedName,
+  nameError,
+  onConfirm,
+  submitting,
+  problem,
+  onReload,
+}: {
+  s: ApprovalSnapshot;
+  choices: Choices;
+  notes: Record<string, string>;
+  onEdit: (i: number) => void;
+  typedName: string;
+  setTypedName: (v: string) => void;
+  nameError: string | null;
+  onConfirm: () => void;
+  submitting?: boolean;
+  problem: { message: string; reload: boolean } | null;
+  onReload?: () => void;
+}) {
+  const nameId = useId();
+  const missing = s.findings.findIndex((f) => !choices[f.findingId]);
+  return (
+    <section aria-labelledby="review-heading" className="flex flex-col gap-4">
+      <h2 id="review-heading" className="text-xl font-bold">
+        Check your choices
+      </h2>
+      <ul className="flex flex-col gap-3">
+        {s.findings.map((f, i) => (
+          <li key={f.findingId} data-review={f.number} className="flex flex-col gap-1 rounded-card border border-seam bg-cloth-raised p-3">
+            <div className="flex flex-wrap items-baseline justify-between gap-2">
+              <span className="font-semibold">
+                <span className="tabular-nums">{f.number}</span> · {f.title}
+              </span>
+              <span className="tabular-nums">{formatMoney(f.price.gross, s.currency, { vat: 'incl' })}</span>
+            </div>
+            <div className="flex flex-wrap items-center gap-2">
+              <CategoryBadge category={f.category} />
+              <ChoiceWord decision={choices[f.findingId]} />
+            </div>
+            {notes[f.findingId]?.trim() ? <p className="text-sm">Your note: {notes[f.findingId]}</p> : null}
+            {choices[f.findingId] === 'decline' && f.category === 'airworthiness' ? <p className="text-sm font-semibold">{declinedAirworthinessWords(s.registration)}</p> : null}
+            <div>
+              <Button variant="quiet" size="lg" onClick={() => onEdit(i)}>
+                Change {f.number}
+              </Button>
+            </div>
+          </li>
+        ))}
+      </ul>
+      {missing >= 0 ? (
+        <Notice tone="problem" title="Some findings have no decision yet">
+          <p>Approve or decline every finding before confirming.</p>
+          <div>
+            <Button variant="secondary" size="lg" onClick={() => onEdit(missing)}>
+              Go to {s.findings[missing]!.number}
+            </Button>
+          </div>
+        </Notice>
+      ) : null}
+      <div className="flex flex-col gap-1">
+        <label htmlFor={nameId} className="font-semibold">
+          Type your full name to confirm
+        </label>
+        <p id={`${nameId}-hint`} className="text-sm text-slate-soft">
+          Your name, the time and exactly what you saw on this page are recorded with your decisions.
+        </p>
+        <input
+          id={nameId}
+          value={typedName}
+          onChange={(e) => setTypedName(e.target.value)}
+          autoComplete="name"
+          aria-invalid={nameError ? true : undefined}
+          aria-describedby={`${nameId}-hint${nameError ? ` ${nameId}-error` : ''}`}
+          className="block min-h-tap w-full rounded-control border border-seam-strong bg-cloth-raised px-3 py-2 text-base aria-[invalid=true]:border-2 aria-[invalid=true]:border-ember"
+        />
+        {nameError ? (
+          <p id={`${nameId}-error`} role="alert" className="text-sm font-semibold text-ember">
+            ▲ {nameError}
+          </p>
+        ) : null}
+      </div>
+      {problem ? (
+        <Notice tone="problem" title="Your decisions were not recorded">
+          <p>{problem.message}</p>
+          {problem.reload && onReload ? (
+            <div>
+              <Button variant="secondary" size="lg" onClick={onReload}>
+                Reload this page
+              </Button>
+            </div>
+          ) : null}
+        </Notice>
+      ) : null}
+      <Button size="lg" onClick={onConfirm} busy={submitting} disabled={missing >= 0}>
+        Confirm decisions
+      </Button>
+    </section>
+  );
+}
+
+function RunningTotalBar({ currency, totals: t }: { currency: string; totals: ReturnType<typeof runningTotal> }) {
+  const m = (a: string) => formatMoney(a, currency);
+  return (
+    <aside
+      aria-label="Running total"
+      data-testid="running-total"
+      className="fixed inset-x-0 bottom-0 z-10 border-t-2 border-slate bg-cloth-raised px-4 py-2 shadow-[0_-2px_8px_rgba(30,42,51,0.12)]"
+    >
+      <div className="mx-auto grid max-w-xl grid-cols-2 gap-x-4 gap-y-1 text-sm tabular-nums">
+        <p className="flex justify-between gap-2">
+          <span className="text-slate-soft">First quoted</span> <span data-total="quoted">{m(t.quoted)}</span>
+        </p>
+        <p className="flex justify-between gap-2">
+          <span className="text-slate-soft">Approved so far</span> <span data-total="approved-so-far">{m(t.approvedSoFar)}</span>
+        </p>
+        <p className="flex justify-between gap-2">
+          <span className="text-slate-soft">This request, as chosen</span> <span data-total="this-request">{m(t.thisRequestAsChosen)}</span>
+        </p>
+        <p className="flex justify-between gap-2">
+          <span className="text-slate-soft">Not yet decided</span> <span data-total="undecided">{m(t.undecided)}</span>
+        </p>
+        <p className="col-span-2 flex justify-between gap-2 border-t border-seam pt-1 text-base font-bold">
+          <span>New total, incl. VAT</span> <span data-total="new-total">{m(t.newTotal)}</span>
+        </p>
+      </div>
+      <p className="sr-only" aria-live="polite">
+        {t.chosen} of {t.of} decided.
+      </p>
+    </aside>
+  );
+}
+
+function Receipt({ page }: { page: DecisionPageDto }) {
+  const s = page.snapshot;
+  const byId = new Map((page.decisions ?? []).map((d) => [d.findingId, d]));
+  const chosen: Choices = Object.fromEntries((page.decisions ?? []).map((d) => [d.findingId, d.decision]));
+  const t = runningTotal(s, chosen);
+  return (
+    <article className="flex flex-col gap-5" data-testid="decision-receipt">
+      <Letterhead s={s} />
+      <div className="flex flex-col gap-2">
+        <h2 className="text-xl font-bold">Your decisions are recorded</h2>
+        <p>
+          Thank you, {page.decidedByName}. {s.workshopName} received your decisions on {formatDateTime(page.decidedAt!)}. A copy is on its way to your e-mail.
+        </p>
+      </div>
+      <ul className="flex flex-col gap-3">
+        {s.findings.map((f) => {
+          const d = byId.get(f.findingId);
+          return (
+            <li key={f.findingId} data-receipt={f.number} className="flex flex-col gap-1 rounded-card border border-seam bg-cloth-raised p-3">
+              <div className="flex flex-wrap items-baseline justify-between gap-2">
+                <span className="font-semibold">
+                  <span className="tabular-nums">{f.number}</span> · {f.title}
+                </span>
+                <span className="tabular-nums">{formatMoney(f.price.gross, s.currency, { vat: 'incl' })}</span>
+              </div>
+              <div className="flex flex-wrap items-center gap-2">
+                <CategoryBadge category={f.category} />
+                <ChoiceWord decision={d?.decision} />
+              </div>
+              {d?.note ? <p className="text-sm">Your note: {d.note}</p> : null}
+              {d?.decision === 'decline' && f.category === 'airworthiness' ? <p className="text-sm font-semibold">{declinedAirworthinessWords(s.registration)}</p> : null}
+            </li>
+          );
+        })}
+      </ul>
+      <dl className="grid grid-cols-[1fr_auto] gap-x-4 gap-y-1 tabular-nums">
+        <dt>First quoted</dt>
+        <dd className="text-right">{formatMoney(t.quoted, s.currency)}</dd>
+        <dt>You approved in this request</dt>
+        <dd className="text-right">{formatMoney(t.thisRequestAsChosen, s.currency)}</dd>
+        <dt className="font-bold">New total, incl. VAT</dt>
+        <dd className="text-right font-bold" data-total="new-total">
+          {formatMoney(t.newTotal, s.currency)}
+        </dd>
+      </dl>
+      <p>
+        With thanks,
+        <br />
+        <span className="font-semibold">{s.workshopName}</span>
+      </p>
+    </article>
+  );
+}
+
+function Closed({ page }: { page: DecisionPageDto }) {
+  const s = page.snapshot;
+  return (
+    <article className="flex flex-col gap-5" data-testid="decision-closed">
+      <Letterhead s={s} />
+      <Notice title={`This request is ${APPROVAL_REQUEST_STATE_LABELS[page.state].toLowerCase()}`}>
+        <p>{page.closedReason ?? 'This request can no longer be decided.'}</p>
+        <p>If you think something is missing, please contact {s.workshopName}.</p>
+      </Notice>
+    </article>
+  );
+}
+
+/** For a link the server does not know (typed wrong, cut short by a mail program). */
+export function UnknownLink() {
+  return (
+    <article className="flex flex-col gap-3">
+      <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">
+        We could not find this request
+      </h1>
+      <p>The link may have been cut short by your e-mail program. Open it again from the e-mail, or ask the workshop to send a new one.</p>
+    </article>
+  );
+}
