@@ -19,6 +19,7 @@ import { partsRoutes, suppliersRoutes } from './routes/catalogue.routes.js';
 import { templatesRoutes } from './routes/templates.routes.js';
 import { jobWorkRoutes } from './routes/job-work.routes.js';
 import { workshopRoutes } from './routes/workshop.routes.js';
+import { approvalRequestRoutes, decideRoutes, jobApprovalRoutes } from './routes/approvals.routes.js';
 import type { Deps } from './services/deps.js';
 
 export interface AppParts {
@@ -26,6 +27,8 @@ export interface AppParts {
   logger: Logger;
   sequelize: Sequelize;
   mail: MailQueue;
+  /** The reminder and expiry schedule, when this process runs it. */
+  chaser?: import('./mail/approval-chaser.js').ApprovalChaser;
 }
 
 const REQUEST_ID = /^[A-Za-z0-9._-]{8,64}$/;
@@ -51,7 +54,7 @@ export function createApp(parts: AppParts): Express {
       customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
       serializers: {
         // Invitation links carry their token in the path; it must not reach the logs.
-        req: (r: { id: unknown; method: string; url: string }) => ({ id: r.id, method: r.method, url: r.url.replace(/(\/invitations\/)[A-Za-z0-9_-]{20,}/, '$1[hidden]') }),
+        req: (r: { id: unknown; method: string; url: string }) => ({ id: r.id, method: r.method, url: r.url.replace(/(\/invitations\/|\/decide\/)[A-Za-z0-9_-]{20,}/, '$1[hidden]') }),
         res: (r: { statusCode: number }) => ({ statusCode: r.statusCode }),
       },
       autoLogging: { ignore: (req) => req.url === '/api/health' },
@@ -104,6 +107,9 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/aircraft', aircraftRoutes(deps));
   app.use('/api/jobs', jobsRoutes(deps));
   app.use('/api/jobs', jobWorkRoutes(deps));
+  app.use('/api/jobs', jobApprovalRoutes(deps));
+  app.use('/api/approval-requests', approvalRequestRoutes(deps));
+  app.use('/api/decide', decideRoutes(deps));
   app.use('/api/suppliers', suppliersRoutes(deps));
   app.use('/api/parts', partsRoutes(deps));
   app.use('/api/templates', templatesRoutes(deps));

@@ -5,6 +5,7 @@ import { MailQueue } from './mail/mail-queue.js';
 import { initModels } from './models/index.js';
 import { dummyHash } from './lib/passwords.js';
 import type { AppParts } from './app.js';
+import { ApprovalChaser } from './mail/approval-chaser.js';
 
 /** Connects the database, binds the models and starts the mail queue and its worker. */
 export async function startParts(config: Config): Promise<AppParts> {
@@ -16,10 +17,16 @@ export async function startParts(config: Config): Promise<AppParts> {
   await mail.start();
   // Ready before the first unknown e-mail arrives, so even that one costs no extra time.
   await dummyHash();
-  return { config, logger, sequelize, mail };
+  let chaser: ApprovalChaser | undefined;
+  if (config.APPROVAL_CHASER) {
+    chaser = new ApprovalChaser(config, { config, mail, logger }, logger.child({ part: 'approvals' }));
+    await chaser.start();
+  }
+  return { config, logger, sequelize, mail, chaser };
 }
 
 export async function stopParts(parts: AppParts): Promise<void> {
+  await parts.chaser?.stop();
   await parts.mail.stop();
   await parts.sequelize.close();
 }

@@ -23,6 +23,8 @@ export function testConfig(overrides: Record<string, string> = {}): Config {
     LOG_LEVEL: 'silent',
     COOKIE_SECURE: 'false',
     SIGNIN_ADDRESS_LIMIT: '10000',
+    DECIDE_ADDRESS_LIMIT: '10000',
+    APPROVAL_CHASER: 'false',
     CLIENT_DIST: '/nonexistent-client-dist',
     ...overrides,
   });

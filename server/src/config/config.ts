@@ -24,6 +24,10 @@ const configSchema = z
     COOKIE_SECURE: bool.optional(),
     SIGNIN_ACCOUNT_LIMIT: z.coerce.number().int().min(1).max(100).default(10),
     SIGNIN_ADDRESS_LIMIT: z.coerce.number().int().min(1).max(100000).default(100),
+    /** Requests per address per 15 minutes to the owner's decision links. */
+    DECIDE_ADDRESS_LIMIT: z.coerce.number().int().min(1).max(100000).default(120),
+    /** Runs the reminder and expiry schedule; off unless asked for in tests. */
+    APPROVAL_CHASER: bool.default(true),
     /** Off in unit-style tests that do not need mail delivery; on everywhere else. */
     MAIL_WORKER: bool.default(true),
   })

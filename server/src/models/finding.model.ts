@@ -24,6 +24,8 @@ export class Finding extends Model<InferAttributes<Finding>, InferCreationAttrib
   declare raisedAt: CreationOptional<Date>;
   declare rectifiedAt: CreationOptional<Date | null>;
   declare rectifiedBy: CreationOptional<string | null>;
+  /** Set when approved on the owner's behalf: the price incl. VAT taken from the pre-authorised limit. */
+  declare withinLimitGross: CreationOptional<string | null>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -50,6 +52,7 @@ export class Finding extends Model<InferAttributes<Finding>, InferCreationAttrib
         raisedAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
         rectifiedAt: { type: DataTypes.DATE, allowNull: true },
         rectifiedBy: { type: DataTypes.UUID, allowNull: true },
+        withinLimitGross: { type: DataTypes.DECIMAL(14, 2), allowNull: true },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -15,6 +15,7 @@ import { AccessTask } from './access-task.model.js';
 import { JobChecklistItem } from './job-checklist-item.model.js';
 import { Finding } from './finding.model.js';
 import { TimeLog } from './time-log.model.js';
+import { ApprovalRequest } from './approval-request.model.js';
 
 let bound: Sequelize | null = null;
 
@@ -23,7 +24,7 @@ export function initModels(sequelize: Sequelize): void {
   if (bound === sequelize) return;
   if (bound) throw new Error('Models are already bound to another database connection.');
   for (const m of [Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken]) m.initModel(sequelize);
-  for (const m of [Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog]) m.initModel(sequelize);
+  for (const m of [Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest]) m.initModel(sequelize);
 
   Workshop.hasMany(User, { foreignKey: 'workshopId' });
   User.belongsTo(Workshop, { foreignKey: 'workshopId', as: 'workshop' });
@@ -50,4 +51,4 @@ export function boundSequelize(): Sequelize {
   return bound;
 }
 
-export { Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken, Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog };
+export { Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken, Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest };

@@ -13,6 +13,10 @@ export class Job extends Model<InferAttributes<Job>, InferCreationAttributes<Job
   declare bookedInOn: string;
   declare dueOn: string | null;
   declare notes: CreationOptional<string>;
+  /** The owner's pre-authorised limit, incl. VAT; null means none of that kind. */
+  declare preAuthPerFinding: CreationOptional<string | null>;
+  declare preAuthPerJob: CreationOptional<string | null>;
+  declare preAuthAgreedHow: CreationOptional<string>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -31,6 +35,9 @@ export class Job extends Model<InferAttributes<Job>, InferCreationAttributes<Job
         bookedInOn: { type: DataTypes.DATEONLY, allowNull: false },
         dueOn: { type: DataTypes.DATEONLY, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        preAuthPerFinding: { type: DataTypes.DECIMAL(14, 2), allowNull: true },
+        preAuthPerJob: { type: DataTypes.DECIMAL(14, 2), allowNull: true },
+        preAuthAgreedHow: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

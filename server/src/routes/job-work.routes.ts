@@ -17,12 +17,14 @@ import { validBody, validParams, validate } from '../middleware/validate.js';
 import type { Deps } from '../services/deps.js';
 import * as estimates from '../services/estimates.service.js';
 import * as findings from '../services/findings.service.js';
+import * as approvals from '../services/approvals.service.js';
 
 const itemParams = z.object({ id: idSchema, itemId: idSchema });
 const findingParams = z.object({ id: idSchema, findingId: idSchema });
 
 /** What hangs off one job: its estimate, checklist, findings and time. Mounted under /api/jobs. */
-export function jobWorkRoutes({ config }: Deps): Router {
+export function jobWorkRoutes(deps: Deps): Router {
+  const { config } = deps;
   const router = Router();
   const hands = authorize(config, 'admin', 'manager', 'engineer');
 
@@ -30,7 +32,10 @@ export function jobWorkRoutes({ config }: Deps): Router {
     res.json(await estimates.getEstimate(scopeOf(req), validParams(req, idParamsSchema).id));
   });
   router.put('/:id/estimate', authorize(config, 'admin', 'manager'), validate({ params: idParamsSchema, body: estimateSaveSchema }), async (req, res) => {
-    res.json(await estimates.saveEstimate(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, estimateSaveSchema)));
+    const scope = scopeOf(req);
+    res.json(
+      await estimates.saveEstimate(scope, validParams(req, idParamsSchema).id, validBody(req, estimateSaveSchema), (job, t) => approvals.replaceChangedRequests(deps, scope, job, t)),
+    );
   });
 
   router.get('/:id/checklist', authorize(config, ...STAFF_ROLES), validate({ params: idParamsSchema }), async (req, res) => {

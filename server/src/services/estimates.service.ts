@@ -146,7 +146,13 @@ function invalid(fields: Record<string, string>): AppError {
  * Replaces the inspection-scope and discovered lines and the access tasks. The estimate row is
  * locked and its version compared, so of two editors who loaded the same version exactly one saves.
  */
-export async function saveEstimate(scope: Scope, jobId: string, input: EstimateSave): Promise<EstimateDto> {
+export async function saveEstimate(
+  scope: Scope,
+  jobId: string,
+  input: EstimateSave,
+  /** Runs in the save's transaction after the lines are written (a sent request whose price changed is replaced here). */
+  afterSave?: (job: JobRow, t: Transaction) => Promise<void>,
+): Promise<EstimateDto> {
   requireStaff(scope);
   return boundSequelize().transaction(async (t) => {
     const job = await findJob(scope, jobId, t);
@@ -222,6 +228,7 @@ export async function saveEstimate(scope: Scope, jobId: string, input: EstimateS
       });
     }
     await est.update({ version: est.version + 1 }, { transaction: t });
+    if (afterSave) await afterSave(job, t);
 
     const after = await estimateDto(scope, job.id, t);
     const changed = countChanged(editableBefore, input.lines as EstimateLineDto[]);

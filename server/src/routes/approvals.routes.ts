@@ -1,0 +1,81 @@
+import { Router } from 'express';
+import { rateLimit } from 'express-rate-limit';
+import {
+  ROLES,
+  approvalRequestCreateSchema,
+  decisionSubmitSchema,
+  idParamsSchema,
+  preAuthorisationSchema,
+  tokenParamsSchema,
+} from '@wingstage/shared';
+import { AppError } from '../errors/app-error.js';
+import { authorize, scopeOf } from '../middleware/authorize.js';
+import { validBody, validParams, validate } from '../middleware/validate.js';
+import * as approvals from '../services/approvals.service.js';
+import type { Deps } from '../services/deps.js';
+
+/** Staff routes on one job's approvals. Mounted under /api/jobs. */
+export function jobApprovalRoutes({ config, ...rest }: Deps): Router {
+  const deps = { config, ...rest };
+  const router = Router();
+  const managers = authorize(config, 'admin', 'manager');
+
+  router.get('/:id/pre-authorisation', authorize(config, ...ROLES), validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await approvals.getPreAuthorisation(scopeOf(req), validParams(req, idParamsSchema).id));
+  });
+  router.put('/:id/pre-authorisation', managers, validate({ params: idParamsSchema, body: preAuthorisationSchema }), async (req, res) => {
+    res.json(await approvals.putPreAuthorisation(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, preAuthorisationSchema)));
+  });
+  router.get('/:id/approval-requests', authorize(config, ...ROLES), validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await approvals.listRequests(scopeOf(req), validParams(req, idParamsSchema).id));
+  });
+  router.post('/:id/approval-requests', managers, validate({ params: idParamsSchema, body: approvalRequestCreateSchema }), async (req, res) => {
+    res.status(201).json(await approvals.sendForApproval(deps, scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, approvalRequestCreateSchema)));
+  });
+  return router;
+}
+
+/** Revoke and re-send. Mounted under /api/approval-requests. */
+export function approvalRequestRoutes(deps: Deps): Router {
+  const router = Router();
+  const managers = authorize(deps.config, 'admin', 'manager');
+  router.post('/:id/revoke', managers, validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await approvals.revokeRequest(scopeOf(req), validParams(req, idParamsSchema).id));
+  });
+  router.post('/:id/resend', managers, validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await approvals.resendRequest(deps, scopeOf(req), validParams(req, idParamsSchema).id));
+  });
+  return router;
+}
+
+/**
+ * The owner's decision page, reached by the signed link alone: no session, so no CSRF token. Every
+ * malformed or unknown token gets the same 404, and the address is rate-limited against guessing.
+ */
+export function decideRoutes(deps: Deps): Router {
+  const router = Router();
+  // Per address, in this process's memory (as sign-in); several processes would need a shared store.
+  const perAddress = rateLimit({
+    windowMs: 15 * 60_000,
+    limit: deps.config.DECIDE_ADDRESS_LIMIT,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: (_req, _res, next) => next(new AppError('too_many_requests', 429, 'Too many attempts from this address. Wait 15 minutes and try again.')),
+  });
+  const known = (token: unknown) => tokenParamsSchema.safeParse({ token }).success;
+  const notValid = () => new AppError('not_found', 404, 'This approval link is not valid. Use the link in the newest e-mail from the workshop.');
+
+  router.get('/:token', perAddress, async (req, res) => {
+    if (!known(req.params.token)) throw notValid();
+    res.json(await approvals.getDecisionPage(String(req.params.token)));
+  });
+  router.post('/:token', perAddress, validate({ body: decisionSubmitSchema }), async (req, res) => {
+    if (!known(req.params.token)) throw notValid();
+    const page = await approvals.submitDecision(deps, String(req.params.token), validBody(req, decisionSubmitSchema), {
+      ip: req.ip ?? '',
+      userAgent: String(req.headers['user-agent'] ?? ''),
+    });
+    res.json(page);
+  });
+  return router;
+}
