@@ -1,9 +1,11 @@
-import { useSuspenseQuery } from '@tanstack/react-query';
+import { isTerminalJobState } from '@wingstage/shared';
+import { useQueries, useSuspenseQuery } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
 import { Caution } from '@/components/ui/notice';
 import { myAircraftQueryOptions } from '@/features/owner/api/get-my-aircraft';
 import { myJobsQueryOptions } from '@/features/owner/api/get-my-jobs';
-import { MyAircraftLetter } from '@/features/owner/components/my-aircraft-letter';
+import { myJobEstimateQueryOptions, myJobRequestsQueryOptions } from '@/features/owner/api/get-my-job-money';
+import { MyAircraftLetter, type JobMoney } from '@/features/owner/components/my-aircraft-letter';
 import { queryClient } from '@/lib/query-client';
 import { requireSession } from '../guards';
 import { useCurrentSession } from '../use-current-session';
@@ -19,9 +21,14 @@ export function Component() {
   const { data: aircraft } = useSuspenseQuery(myAircraftQueryOptions());
   const { data: jobs } = useSuspenseQuery(myJobsQueryOptions());
   const firstName = session.user.name.split(/\s+/)[0] ?? session.user.name;
+  // Money and waiting decisions matter only while a job is open; they load after the letter shows.
+  const open = jobs.items.filter((j) => !isTerminalJobState(j.state));
+  const estimates = useQueries({ queries: open.map((j) => myJobEstimateQueryOptions(j.id)) });
+  const requests = useQueries({ queries: open.map((j) => myJobRequestsQueryOptions(j.id)) });
+  const money: Record<string, JobMoney> = Object.fromEntries(open.map((j, i) => [j.id, { estimate: estimates[i]?.data, requests: requests[i]?.data }]));
   return (
     <>
-      <MyAircraftLetter firstName={firstName} workshopName={session.workshop.name} aircraft={aircraft.items} jobs={jobs.items} />
+      <MyAircraftLetter firstName={firstName} workshopName={session.workshop.name} aircraft={aircraft.items} jobs={jobs.items} money={money} />
       <div className="mx-auto max-w-2xl">
         <Caution />
       </div>

@@ -3,4 +3,6 @@ export const ownerKeys = {
   all: ['owner'] as const,
   aircraft: () => [...ownerKeys.all, 'aircraft'] as const,
   jobs: () => [...ownerKeys.all, 'jobs'] as const,
+  jobEstimate: (jobId: string) => [...ownerKeys.all, 'jobs', jobId, 'estimate'] as const,
+  jobRequests: (jobId: string) => [...ownerKeys.all, 'jobs', jobId, 'approval-requests'] as const,
 };

@@ -1,6 +1,14 @@
-import { JOB_TYPE_LABELS, isTerminalJobState, type AircraftDto, type JobDto, type JobState } from '@wingstage/shared';
+import { JOB_TYPE_LABELS, compareAmounts, isTerminalJobState, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type JobDto, type JobState } from '@wingstage/shared';
+import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
+import { EnvelopeIcon } from '@/components/ui/icons';
 import { StateBadge } from '@/components/ui/state-badge';
-import { formatDate, formatHours } from '@/lib/format';
+import { formatDate, formatDateTime, formatHours, formatMoney } from '@/lib/format';
+
+/** What the letter knows about the money on one job; either part may still be loading. */
+export interface JobMoney {
+  estimate?: EstimateDto;
+  requests?: ApprovalRequestDto[];
+}
 
 /** What each state means for the owner, in the workshop's words rather than the system's. */
 const MEANING: Record<JobState, string> = {
@@ -21,7 +29,56 @@ function count(n: number, one: string, many: string): string {
   return `${WORDS[n] ?? String(n)} ${n === 1 ? one : many}`;
 }
 
-function JobEntry({ job }: { job: JobDto }) {
+function DecisionWaiting({ request, currency }: { request: ApprovalRequestDto; currency: string }) {
+  const n = request.findingIds.length;
+  return (
+    <div data-testid="decision-waiting" className="mt-3 flex gap-3 rounded-card border-2 border-dusk bg-dusk-tint p-3 text-slate">
+      <span className="text-dusk">
+        <EnvelopeIcon size={22} />
+      </span>
+      <div className="flex flex-col gap-1">
+        <p className="flex flex-wrap items-center gap-2 font-semibold">
+          Your decision is needed <ApprovalRequestBadge state={request.state} />
+        </p>
+        <p>
+          On {formatDateTime(request.sentAt)} we e-mailed you {count(n, 'finding', 'findings').toLowerCase()} to approve or decline,{' '}
+          <span className="tabular-nums">{formatMoney(request.gross, currency, { vat: 'incl' })}</span> if you approve them all. Open the link in that e-mail to decide; it
+          works until {formatDateTime(request.expiresAt)}.
+        </p>
+      </div>
+    </div>
+  );
+}
+
+function MoneySoFar({ estimate }: { estimate: EstimateDto }) {
+  const p = estimate.priced;
+  const m = (a: string) => formatMoney(a, estimate.currency, { vat: 'incl' });
+  const undecided = compareAmounts(p.undecided.gross, '0') > 0;
+  return (
+    <dl className="mt-3 grid grid-cols-[1fr_auto] gap-x-4 gap-y-1 text-sm tabular-nums" aria-label="The money so far">
+      <dt>First quoted</dt>
+      <dd className="text-right" data-owner-total="quoted">
+        {m(p.quoted.gross)}
+      </dd>
+      <dt className="font-semibold">Agreed so far</dt>
+      <dd className="text-right font-semibold" data-owner-total="committed">
+        {m(p.committed.gross)}
+      </dd>
+      {undecided ? (
+        <>
+          <dt>Waiting for your decision</dt>
+          <dd className="text-right" data-owner-total="undecided">
+            {m(p.undecided.gross)}
+          </dd>
+        </>
+      ) : null}
+    </dl>
+  );
+}
+
+function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
+  const waiting = money?.requests?.find((r) => r.state === 'sent');
+  const currency = money?.estimate?.currency ?? 'GBP';
   return (
     <li className="rounded-card border border-seam bg-cloth-raised p-4">
       <div className="flex flex-wrap items-start justify-between gap-2">
@@ -33,11 +90,25 @@ function JobEntry({ job }: { job: JobDto }) {
         Job <span className="tabular-nums">{job.number}</span> · {JOB_TYPE_LABELS[job.type]} · booked in {formatDate(job.bookedInOn)}
         {job.dueOn ? ` · due back ${formatDate(job.dueOn)}` : ''}
       </p>
+      {waiting ? <DecisionWaiting request={waiting} currency={currency} /> : null}
+      {money?.estimate && !isTerminalJobState(job.state) ? <MoneySoFar estimate={money.estimate} /> : null}
     </li>
   );
 }
 
-export function MyAircraftLetter({ firstName, workshopName, aircraft, jobs }: { firstName: string; workshopName: string; aircraft: AircraftDto[]; jobs: JobDto[] }) {
+export function MyAircraftLetter({
+  firstName,
+  workshopName,
+  aircraft,
+  jobs,
+  money = {},
+}: {
+  firstName: string;
+  workshopName: string;
+  aircraft: AircraftDto[];
+  jobs: JobDto[];
+  money?: Record<string, JobMoney>;
+}) {
   const openJobs = jobs.filter((j) => !isTerminalJobState(j.state));
   return (
     <article className="mx-auto flex max-w-2xl flex-col gap-6">
@@ -70,7 +141,7 @@ export function MyAircraftLetter({ firstName, workshopName, aircraft, jobs }: { 
             ) : (
               <ul className="flex flex-col gap-3" aria-label={`Jobs for ${a.registration}`}>
                 {own.map((j) => (
-                  <JobEntry key={j.id} job={j} />
+                  <JobEntry key={j.id} job={j} money={money[j.id]} />
                 ))}
               </ul>
             )}
