@@ -126,7 +126,7 @@ async function pricedJob(scope: Scope, jobId: string, t: Transaction): Promise<{
 async function moveLines(jobId: string, findingIds: string[], from: string, to: string, t: Transaction): Promise<number> {
   if (!findingIds.length) return 0;
   const [, count] = await boundSequelize().query(
-    `UPDATE estimate_lines SET stage = $4, updated_at = now() WHERE job_id = $1 AND finding_id = ANY($2::uuid[]) AND stage = $3`,
+    `UPDATE estimate_lines SET stage = $4 WHERE job_id = $1 AND finding_id = ANY($2::uuid[]) AND stage = $3`,
     { bind: [jobId, findingIds, from, to], transaction: t },
   );
   return Number((count as { rowCount?: number })?.rowCount ?? count ?? 0);
