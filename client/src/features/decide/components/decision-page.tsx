@@ -381,8 +381,9 @@ function Review({
           className="block min-h-tap w-full rounded-control border border-seam-strong bg-cloth-raised px-3 py-2 text-base aria-[invalid=true]:border-2 aria-[invalid=true]:border-ember"
         />
         {nameError ? (
-          <p id={`${nameId}-error`} role="alert" className="text-sm font-semibold text-ember">
-            ▲ {nameError}
+          <p id={`${nameId}-error`} role="alert" className="flex items-start gap-1 text-sm font-semibold text-ember">
+            <span aria-hidden="true">▲</span>
+            <span>{nameError}</span>
           </p>
         ) : null}
       </div>

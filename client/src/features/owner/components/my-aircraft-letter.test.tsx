@@ -1,4 +1,4 @@
-import type { AircraftDto, JobDto } from '@wingstage/shared';
+import type { AircraftDto, ApprovalRequestDto, EstimateDto, JobDto, Totals } from '@wingstage/shared';
 import { render, screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { MyAircraftLetter } from './my-aircraft-letter';
@@ -61,5 +61,50 @@ describe('MyAircraftLetter', () => {
   it('says so plainly when there is no aircraft on record', () => {
     render(<MyAircraftLetter firstName="Orla" workshopName="Brackenfold Light Aircraft Engineering" aircraft={[]} jobs={[]} />);
     expect(screen.getByText(/has no aircraft on record for you yet/)).toBeTruthy();
+  });
+
+  it('when a request waits for the owner, then the job says so with its state, total and link expiry, and the money so far is shown', () => {
+    const t = (gross: string): Totals => ({ net: gross, vat: '0.00', gross, byRate: [] });
+    const request: ApprovalRequestDto = {
+      id: 'r1',
+      jobId: '0001',
+      state: 'sent',
+      findingIds: ['f1', 'f2'],
+      sentAt: '2026-12-01T10:00:00Z',
+      expiresAt: '2026-12-08T10:00:00Z',
+      decidedAt: null,
+      decidedByName: null,
+      revokedAt: null,
+      replacedById: null,
+      lastRemindedAt: null,
+      snapshotHash: 'c'.repeat(64),
+      gross: '113.57',
+    };
+    const decided: ApprovalRequestDto = { ...request, id: 'r0', state: 'decided', decidedAt: '2026-11-30T10:00:00Z' };
+    const estimate = { currency: 'GBP', priced: { quoted: t('556.13'), committed: t('600.00'), undecided: { ...t('113.57'), findings: 2 } } } as unknown as EstimateDto;
+    render(
+      <MyAircraftLetter
+        firstName="Orla"
+        workshopName="Brackenfold Light Aircraft Engineering"
+        aircraft={[aircraft('a1', 'Q-ORLA')]}
+        jobs={[job('0001', 'a1', 'Wing re-cover', 'awaiting_owner')]}
+        money={{ '0001': { estimate, requests: [request, decided] } }}
+      />,
+    );
+    const waiting = screen.getByTestId('decision-waiting');
+    expect(waiting.textContent).toContain('Your decision is needed');
+    expect(waiting.textContent).toContain('Sent');
+    expect(waiting.textContent).toContain('two findings to approve or decline, £113.57 incl. VAT if you approve them all');
+    expect(waiting.textContent).toContain('works until 8 Dec 2026');
+    expect(screen.getByText('£600.00 incl. VAT', { selector: '[data-owner-total="committed"]' })).toBeTruthy();
+    expect(screen.getByText('£113.57 incl. VAT', { selector: '[data-owner-total="undecided"]' })).toBeTruthy();
+  });
+
+  it('when every request is decided, then no decision is asked for', () => {
+    const decided = { id: 'r0', jobId: '0001', state: 'decided', findingIds: ['f1'], sentAt: '2026-12-01T10:00:00Z', expiresAt: '2026-12-08T10:00:00Z', gross: '10.00' } as ApprovalRequestDto;
+    render(
+      <MyAircraftLetter firstName="Orla" workshopName="Brackenfold Light Aircraft Engineering" aircraft={[aircraft('a1', 'Q-ORLA')]} jobs={[job('0001', 'a1', 'Wing re-cover', 'in_work')]} money={{ '0001': { requests: [decided] } }} />,
+    );
+    expect(screen.queryByTestId('decision-waiting')).toBeNull();
   });
 });

@@ -1,0 +1,236 @@
+import type { ApprovalSnapshot, DecisionPageDto, Totals } from '@wingstage/shared';
+import { fireEvent, render, screen, within } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
+import { ApiError } from '@/lib/api-client';
+import { DecisionPage } from './decision-page';
+import { runningTotal } from './running-total';
+
+const totals = (net: string, vat: string, gross: string): Totals => ({ net, vat, gross, byRate: [{ code: 'standard', rate: '20', net, vat }] });
+
+const PLUG = '2f0e7a1c-3b4d-4e5f-8a6b-7c8d9e0f1a2b';
+const SPRING = '8a9b0c1d-2e3f-4a5b-9c6d-7e8f9a0b1c2d';
+const HOSE = 'c3d4e5f6-a7b8-4c9d-8e0f-1a2b3c4d5e6f';
+
+function snapshot(over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot {
+  return {
+    requestId: '0b1c2d3e-4f5a-4b6c-8d7e-9f0a1b2c3d4e',
+    jobId: '1c2d3e4f-5a6b-4c7d-8e9f-0a1b2c3d4e5f',
+    jobNumber: 'J-0042',
+    jobTitle: 'Annual permit inspection',
+    registration: 'Q-SALT',
+    aircraftType: 'Three-axis high-wing microlight',
+    ownerName: 'Hazel Brambury',
+    workshopName: 'Brackenfold Light Aircraft Engineering',
+    currency: 'GBP',
+    rounding: 'line-nearest',
+    message: 'Two things turned up.',
+    sentAt: '2026-12-01T10:00:00Z',
+    expiresAt: '2026-12-08T10:00:00Z',
+    findings: [
+      {
+        findingId: PLUG,
+        number: 'F-1',
+        title: 'Spark plug gap over the wear limit',
+        category: 'recommended',
+        location: 'Engine, cylinder 1',
+        seen: 'Gap measured wide.',
+        measuredValue: '0.9800',
+        limit: { min: null, max: '0.9', unit: 'mm' },
+        photoIds: [],
+        lines: [{ description: 'Fit new plugs', kind: 'labour', quantity: '0.5', net: '31.00' }],
+        price: totals('63.64', '12.73', '76.37'),
+        accessCovered: ['Cowling off'],
+        accessSavingGross: '18.60',
+      },
+      {
+        findingId: SPRING,
+        number: 'F-2',
+        title: 'Exhaust spring cracked',
+        category: 'airworthiness',
+        location: 'Exhaust, rear cylinder',
+        seen: 'Cracked at the hook.',
+        measuredValue: null,
+        limit: null,
+        photoIds: [],
+        lines: [{ description: 'Replace spring', kind: 'labour', quantity: '0.5', net: '31.00' }],
+        price: totals('31.00', '6.20', '37.20'),
+        accessCovered: [],
+        accessSavingGross: '0.00',
+      },
+      {
+        findingId: HOSE,
+        number: 'F-3',
+        title: 'Fuel hose hardened',
+        category: 'advisory',
+        location: 'Fuel line, left',
+        seen: 'Hose stiff.',
+        measuredValue: null,
+        limit: null,
+        photoIds: [],
+        lines: [],
+        price: totals('10.01', '2.00', '12.01'),
+        accessCovered: [],
+        accessSavingGross: '0.00',
+      },
+    ],
+    totals: {
+      quoted: totals('463.44', '92.69', '556.13'),
+      approvedSoFar: totals('463.44', '92.69', '556.13'),
+      // Less than the three prices added up: shared opening-up is charged once across the request.
+      thisRequest: totals('100.00', '20.00', '120.00'),
+      undecidedElsewhere: totals('5.00', '1.00', '6.00'),
+    },
+    ...over,
+  };
+}
+
+const HASH = 'a'.repeat(64);
+const page = (over: Partial<DecisionPageDto> = {}): DecisionPageDto => ({
+  state: 'sent',
+  closedReason: null,
+  snapshot: snapshot(),
+  snapshotHash: HASH,
+  decisions: null,
+  decidedByName: null,
+  decidedAt: null,
+  ...over,
+});
+
+describe('runningTotal', () => {
+  it('when nothing is chosen yet, then this request counts nothing and every price is undecided, plus the work awaiting a decision elsewhere', () => {
+    const t = runningTotal(snapshot(), {});
+    expect(t).toMatchObject({ quoted: '556.13', approvedSoFar: '556.13', thisRequestAsChosen: '0.00', undecided: '131.58', newTotal: '556.13', chosen: 0, of: 3 });
+  });
+
+  it('when some findings are approved and one declined, then the sums are exact to the penny from the snapshot figures', () => {
+    const t = runningTotal(snapshot(), { [PLUG]: 'approve', [SPRING]: 'decline' });
+    // 76.37 approved; 12.01 still open + 6.00 elsewhere; 556.13 + 76.37.
+    expect(t).toMatchObject({ thisRequestAsChosen: '76.37', undecided: '18.01', newTotal: '632.50', chosen: 2 });
+  });
+
+  it("when every finding is approved, then the engine's own request total is used, so shared opening-up is not counted twice", () => {
+    const t = runningTotal(snapshot(), { [PLUG]: 'approve', [SPRING]: 'approve', [HOSE]: 'approve' });
+    expect(t.thisRequestAsChosen).toBe('120.00');
+    expect(t.newTotal).toBe('676.13');
+    expect(t.undecided).toBe('6.00');
+  });
+
+  it('when figures would drift as floats (0.1 + 0.2), then the decimal sum stays exact', () => {
+    const s = snapshot();
+    s.findings[0]!.price = totals('0.10', '0.00', '0.10');
+    s.findings[1]!.price = totals('0.20', '0.00', '0.20');
+    expect(runningTotal(s, { [PLUG]: 'approve', [SPRING]: 'approve' }).thisRequestAsChosen).toBe('0.30');
+  });
+});
+
+function choose(name: 'Approve' | 'Decline') {
+  fireEvent.click(screen.getByRole('radio', { name: new RegExp(`^${name}`) }));
+}
+
+describe('DecisionPage', () => {
+  it('shows one finding at a time with its category, measurement, price incl. VAT and the access saving in words', () => {
+    render(<DecisionPage page={page()} onSubmit={vi.fn()} />);
+    expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
+    expect(screen.getAllByTestId('decide-finding')).toHaveLength(1);
+    expect(screen.getByText('Recommended')).toBeTruthy();
+    expect(screen.getByText('0.98 mm, against an example limit of at most 0.9 mm')).toBeTruthy();
+    expect(within(screen.getByTestId('decide-price')).getByText('£76.37 incl. VAT')).toBeTruthy();
+    expect(within(screen.getByTestId('decide-price')).getByText('£63.64 excl. VAT')).toBeTruthy();
+    expect(screen.getByText(/“Cowling off”.*saves you £18\.60 incl\. VAT/)).toBeTruthy();
+    expect(within(screen.getByTestId('running-total')).getByText('£556.13', { selector: '[data-total="quoted"]' })).toBeTruthy();
+  });
+
+  it('when an airworthiness finding is declined, then the page says plainly that the aircraft cannot be released with it open and that the inspector decides', () => {
+    render(<DecisionPage page={page()} onSubmit={vi.fn()} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    expect(screen.getByText('Finding 2 of 3')).toBeTruthy();
+    expect(screen.queryByText(/cannot be released/)).toBeNull();
+    choose('Decline');
+    const warning = screen.getByRole('alert');
+    expect(warning.textContent).toContain('Q-SALT cannot be released to fly while it is open');
+    expect(warning.textContent).toContain('The inspector decides');
+    // Declining advisory work carries no such warning.
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    choose('Decline');
+    expect(screen.queryByText(/cannot be released/)).toBeNull();
+  });
+
+  it('when the owner reviews and confirms, then the hash, every decision with its note and the typed name are sent', async () => {
+    const onSubmit = vi.fn().mockResolvedValue(undefined);
+    render(<DecisionPage page={page()} onSubmit={onSubmit} />);
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    choose('Decline');
+    fireEvent.change(screen.getByLabelText('A note for the workshop (optional)'), { target: { value: 'Spring from our stores.' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    // The review refuses to confirm while a finding has no decision, and says which.
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    expect((screen.getByRole('button', { name: 'Confirm decisions' }) as HTMLButtonElement).disabled).toBe(true);
+    fireEvent.click(screen.getByRole('button', { name: 'Go to F-3' }));
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    expect(screen.getAllByText('Approved')).toHaveLength(2);
+    expect(screen.getAllByText('Declined')).toHaveLength(1);
+
+    fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
+    expect(await screen.findByText('Type your name to confirm.')).toBeTruthy();
+    expect(onSubmit).not.toHaveBeenCalled();
+
+    fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: '  Hazel Brambury ' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
+    await vi.waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]![0]).toEqual({
+      snapshotHash: HASH,
+      typedName: 'Hazel Brambury',
+      decisions: [
+        { findingId: PLUG, decision: 'approve', note: '' },
+        { findingId: SPRING, decision: 'decline', note: 'Spring from our stores.' },
+        { findingId: HOSE, decision: 'approve', note: '' },
+      ],
+    });
+  });
+
+  it('when the server refuses because the workshop changed something, then the reason is shown with a way to reload', async () => {
+    const onSubmit = vi.fn().mockRejectedValue(new ApiError({ code: 'conflict', status: 409, message: 'The workshop changed something on this request: reload the page to see the latest.' }));
+    const onReload = vi.fn();
+    render(<DecisionPage page={page({ snapshot: snapshot({ findings: snapshot().findings.slice(0, 1) }) })} onSubmit={onSubmit} onReload={onReload} />);
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
+    expect(await screen.findByText('The workshop changed something on this request: reload the page to see the latest.')).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Reload this page' }));
+    expect(onReload).toHaveBeenCalled();
+  });
+
+  it("when the request is closed, then the server's reason is shown in plain words and no choices are offered", () => {
+    render(<DecisionPage page={page({ state: 'replaced', closedReason: 'The workshop changed a price after sending, so a newer request replaced this one. Look for it in your e-mail.' })} onSubmit={vi.fn()} />);
+    expect(screen.getByText('This request is replaced')).toBeTruthy();
+    expect(screen.getByText(/a newer request replaced this one/)).toBeTruthy();
+    expect(screen.queryByRole('radio')).toBeNull();
+  });
+
+  it('when the request is decided, then a receipt lists each decision, who made it and when', () => {
+    render(
+      <DecisionPage
+        page={page({
+          state: 'decided',
+          closedReason: 'You decided this request on 1 Dec 2026.',
+          decisions: [
+            { findingId: PLUG, decision: 'approve', note: '' },
+            { findingId: SPRING, decision: 'decline', note: 'Later.' },
+            { findingId: HOSE, decision: 'decline', note: '' },
+          ],
+          decidedByName: 'Hazel Brambury',
+          decidedAt: '2026-12-01T12:30:00Z',
+        })}
+        onSubmit={vi.fn()}
+      />,
+    );
+    const receipt = screen.getByTestId('decision-receipt');
+    expect(receipt.textContent).toContain('Thank you, Hazel Brambury.');
+    expect(receipt.textContent).toContain('Your note: Later.');
+    expect(receipt.textContent).toContain('Q-SALT cannot be released to fly while it is open');
+    expect(within(receipt).getByText('£632.50', { selector: '[data-total="new-total"]' })).toBeTruthy();
+  });
+});

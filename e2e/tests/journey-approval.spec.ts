@@ -1,0 +1,272 @@
+import { expect, test, type APIRequestContext, type Browser, type BrowserContext, type Page, type TestInfo } from '@playwright/test';
+
+/**
+ * The approval journey. An engineer at phone width records a spark plug gap outside the template's
+ * example limit and raises the proposed finding, plus a second (airworthiness) finding; the manager
+ * at desktop width prices both, saves, and sends one request. The owner opens the e-mailed link on
+ * a phone, approves the plug work and declines the airworthiness item, types their name and
+ * confirms. The manager's estimate, the owner's own page and the job's history all show the result.
+ *
+ * The job is booked in by the test itself (for the demo aircraft Q-SALT, from the demo annual
+ * permit template), so it never collides with the other journeys on the seeded demo jobs.
+ */
+
+const MAILDEV = process.env.E2E_MAILDEV_URL ?? 'http://127.0.0.1:1081';
+const PASSWORD = 'wingstage-demo';
+const PHONE = { width: 375, height: 812 };
+const DESKTOP = { width: 1280, height: 900 };
+const OWNER_EMAIL = 'group@owners.example';
+const OWNER_NAME = 'Hazel Brambury';
+// Above the example wear limit of 0.9 mm in the demo template.
+const GAP = '0.98';
+
+async function shot(page: Page, testInfo: TestInfo, name: string) {
+  const path = testInfo.outputPath(`${name}.png`);
+  await page.screenshot({ path, fullPage: true });
+  await testInfo.attach(name, { path, contentType: 'image/png' });
+}
+
+async function context(browser: Browser, baseURL: string | undefined, phone: boolean): Promise<BrowserContext> {
+  const size = phone ? PHONE : DESKTOP;
+  return browser.newContext({ baseURL, viewport: size, isMobile: phone, hasTouch: phone, locale: 'en-GB', timezoneId: 'Europe/London' });
+}
+
+async function signedIn(browser: Browser, baseURL: string | undefined, email: string, phone: boolean) {
+  const ctx = await context(browser, baseURL, phone);
+  const page = await ctx.newPage();
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  // Password checks are deliberately slow (bcrypt); allow for a busy machine.
+  await expect(page).not.toHaveURL(/\/sign-in/, { timeout: 30_000 });
+  return { ctx, page };
+}
+
+/** Calls the API with the page's session and its CSRF cookie, as the client does. */
+async function apiCall<T>(page: Page, method: 'GET' | 'POST', path: string, data?: unknown): Promise<T> {
+  const cookies = await page.context().cookies();
+  const csrf = cookies.find((c) => c.name === 'ws_csrf')?.value ?? '';
+  const res = await page.request.fetch(path, { method, data, headers: { 'X-CSRF-Token': decodeURIComponent(csrf) } });
+  expect(res.ok(), `${method} ${path}: ${res.status()} ${await res.text()}`).toBeTruthy();
+  return (await res.json()) as T;
+}
+
+interface MaildevEmail {
+  subject: string;
+  date: string;
+  text?: string;
+  html?: string;
+  to: { address: string }[];
+}
+
+/** Polls maildev for the newest mail to `recipient` after `since` that carries a decision link. */
+async function decisionLink(request: APIRequestContext, recipient: string, since: number, jobNumber: string): Promise<string> {
+  let link = '';
+  await expect
+    .poll(
+      async () => {
+        const res = await request.get(`${MAILDEV}/api/email`);
+        if (!res.ok()) return '';
+        const mails = (await res.json()) as MaildevEmail[];
+        const mine = mails.filter((m) => m.to.some((t) => t.address.toLowerCase() === recipient) && Date.parse(m.date) >= since - 2000);
+        for (const m of mine.reverse()) {
+          const body = `${m.text ?? ''} ${m.html ?? ''}`;
+          if (!body.includes(jobNumber)) continue;
+          const found = body.match(/https?:\/\/[^\s"'<>]+\/decide\/[A-Za-z0-9._~-]+/);
+          if (found) {
+            link = found[0];
+            return link;
+          }
+        }
+        return '';
+      },
+      { timeout: 60_000, message: `a decision link e-mailed to ${recipient}` },
+    )
+    .not.toBe('');
+  return link;
+}
+
+test('an engineer raises findings, the manager sends one request, the owner decides on a phone @approval', async ({ browser, baseURL, request }, testInfo) => {
+  test.skip(testInfo.project.name !== 'desktop', 'Changes demo data: runs once, with its own phone and desktop windows.');
+  test.setTimeout(300_000);
+  const stamp = `${Date.now().toString(36)}`;
+  const jobTitle = `Annual permit inspection, journey ${stamp}`;
+  const plugTitle = `Spark plug gap ${GAP} mm, over the wear limit`;
+  const springTitle = `Exhaust spring cracked ${stamp}`;
+  let jobId = '';
+  let jobNumber = '';
+
+  await test.step('the manager books the job in from the annual permit template and starts the inspection', async () => {
+    const { ctx, page } = await signedIn(browser, baseURL, 'manager@brackenfold.example', false);
+    const aircraft = await apiCall<{ items: { id: string; registration: string }[] }>(page, 'GET', '/api/aircraft?q=Q-SALT');
+    const salt = aircraft.items.find((a) => a.registration === 'Q-SALT');
+    expect(salt).toBeTruthy();
+    const templates = await apiCall<{ id: string; name: string; jobType: string }[]>(page, 'GET', '/api/templates');
+    const annual = templates.find((t) => t.jobType === 'annual_permit_inspection') ?? templates.find((t) => /annual/i.test(t.name));
+    expect(annual, 'the demo annual permit template').toBeTruthy();
+    const today = new Date().toISOString().slice(0, 10);
+    const job = await apiCall<{ id: string; number: string; version: number }>(page, 'POST', '/api/jobs', {
+      aircraftId: salt!.id,
+      title: jobTitle,
+      type: 'annual_permit_inspection',
+      bookedInOn: today,
+      templateId: annual!.id,
+    });
+    jobId = job.id;
+    jobNumber = job.number;
+    await apiCall(page, 'POST', `/api/jobs/${job.id}/transition`, { to: 'inspecting', version: job.version });
+    await ctx.close();
+  });
+
+  await test.step('the engineer records an out-of-limit plug gap on a phone and raises two findings', async () => {
+    const { ctx, page } = await signedIn(browser, baseURL, 'priya@brackenfold.example', true);
+    await page.goto(`/hangar/${jobId}`);
+    await expect(page.getByRole('heading', { level: 1, name: /Q-SALT/ })).toBeVisible();
+    const item = page.getByRole('article', { name: 'Spark plug electrode gap, each plug' });
+    await item.getByRole('button', { name: 'Record value' }).click();
+    await item.getByLabel(/Measured value/).fill(GAP);
+    await item.getByRole('button', { name: 'Save value' }).click();
+    await expect(item.getByText('Outside the example limit (at most 0.9 mm)')).toBeVisible();
+    await item.scrollIntoViewIfNeeded();
+    await shot(page, testInfo, '01-engineer-out-of-limit-375');
+
+    await item.getByRole('button', { name: 'Raise finding' }).click();
+    let form = page.getByRole('form', { name: 'Raise finding' });
+    await form.getByLabel('Title').fill(plugTitle);
+    await form.getByLabel('Where on the aircraft').fill('Engine, cylinder 1 lower plug');
+    await form.locator('label[data-category="recommended"]').click();
+    await form.getByLabel('What should be done').fill('Fit a new set of plugs gapped to the manufacturer’s figure.');
+    await form.getByLabel('Hours').fill('0.5');
+    await form.getByRole('button', { name: '+ Part from the catalogue' }).click();
+    await form.getByLabel('Part 1').selectOption({ label: 'WS-1201 — Spark plug, resistor type, 12 mm thread' });
+    await form.getByLabel('Qty').fill('4');
+    await form.getByRole('button', { name: 'Raise finding' }).click();
+    await expect(page.getByText(/is with the manager to price/)).toBeVisible();
+
+    await page.getByRole('button', { name: 'Raise finding' }).click();
+    form = page.getByRole('form', { name: 'Raise finding' });
+    await form.getByLabel('Title').fill(springTitle);
+    await form.getByLabel('Where on the aircraft').fill('Exhaust, rear cylinder');
+    await form.locator('label[data-category="airworthiness"]').click();
+    await form.getByLabel('What was seen').fill('One exhaust retaining spring cracked through at the hook.');
+    await form.getByLabel('What should be done').fill('Replace the spring and check its partner.');
+    await form.getByLabel('Hours').fill('0.5');
+    await shot(page, testInfo, '02-engineer-second-finding-375');
+    await form.getByRole('button', { name: 'Raise finding' }).click();
+    await expect(page.locator('li[data-finding]', { hasText: springTitle })).toBeVisible();
+    await ctx.close();
+  });
+
+  const since = Date.now();
+  await test.step('the manager prices both findings, saves, and sends one request', async () => {
+    const { ctx, page } = await signedIn(browser, baseURL, 'manager@brackenfold.example', false);
+    await page.goto(`/jobs/${jobId}`);
+    await expect(page.getByRole('heading', { name: /^Estimate/ })).toBeVisible();
+    const plug = page.locator('li[data-finding]', { hasText: plugTitle });
+    const spring = page.locator('li[data-finding]', { hasText: springTitle });
+    await plug.getByRole('button', { name: 'Price finding' }).click();
+    await spring.getByRole('button', { name: 'Price finding' }).click();
+    await page.getByRole('button', { name: 'Save estimate' }).click();
+    await expect(page.getByTestId('estimate-save-state')).toHaveText(/Saved/);
+    await expect(plug.getByText('Priced', { exact: true })).toBeVisible();
+    await expect(spring.getByText('Priced', { exact: true })).toBeVisible();
+
+    await plug.getByLabel(/Include F-\d+ in the request/).check();
+    await spring.getByLabel(/Include F-\d+ in the request/).check();
+    const panel = page.getByRole('region', { name: 'Send for approval' });
+    await expect(panel.getByText('An airworthiness finding is ticked')).toBeVisible();
+    await panel.getByLabel('A short message to the owner (optional)').fill('Two things turned up on the inspection; the plugs are cheap to do while the cowl is off.');
+    await panel.scrollIntoViewIfNeeded();
+    await shot(page, testInfo, '03-manager-ticked-1280');
+    await panel.getByRole('button', { name: 'Send for approval' }).click();
+    await expect(panel.getByTestId('request-sent')).toContainText(`Request sent to Saltmarsh Flyers Group`);
+    const requests = page.getByRole('list', { name: 'Approval requests' });
+    await expect(requests.locator('[data-request-state="sent"]')).toHaveCount(1);
+    await expect(requests.getByRole('button', { name: 'Revoke link' })).toBeVisible();
+    await expect(requests.getByRole('button', { name: 'Resend' })).toBeVisible();
+    await expect(plug.locator('[data-finding-state="sent"]')).toBeVisible();
+    await shot(page, testInfo, '04-manager-sent-1280');
+    await ctx.close();
+  });
+
+  let newTotal = '';
+  await test.step('the owner opens the e-mailed link on a phone, approves one finding and declines the other', async () => {
+    const link = await decisionLink(request, OWNER_EMAIL, since, jobNumber);
+    const ctx = await context(browser, baseURL, true);
+    const page = await ctx.newPage();
+    const jsBytes: number[] = [];
+    page.on('response', async (r) => {
+      if (r.request().resourceType() === 'script') jsBytes.push(Number(r.headers()['content-length'] ?? 0));
+    });
+    await page.goto(new URL(link).pathname);
+    await expect(page.getByRole('heading', { level: 1, name: 'Work found on Q-SALT' })).toBeVisible();
+    await expect(page.getByText('Finding 1 of 2')).toBeVisible();
+    const bar = page.getByTestId('running-total');
+    await expect(bar).toBeInViewport();
+    await shot(page, testInfo, '05-owner-finding-1-375');
+
+    await page.getByRole('radio', { name: /Approve/ }).check();
+    for (const b of await page.getByRole('button').all()) {
+      const box = await b.boundingBox();
+      expect(box?.height ?? 0, `${await b.textContent()} is a 44 px tap target`).toBeGreaterThanOrEqual(44);
+    }
+    await expect(bar.locator('[data-total="this-request"]')).not.toHaveText('£0.00');
+    await page.getByRole('button', { name: 'Next finding →' }).click();
+    await expect(page.getByText('Finding 2 of 2')).toBeVisible();
+    await expect(page.getByRole('heading', { level: 2, name: new RegExp(springTitle) })).toBeVisible();
+    await page.getByRole('radio', { name: /Decline/ }).check();
+    await expect(page.getByText('cannot be released to fly while it is open')).toBeVisible();
+    await expect(page.getByText('The inspector decides')).toBeVisible();
+    await page.getByLabel('A note for the workshop (optional)').fill('We will get the spring from the group stores.');
+    await expect(bar).toBeInViewport();
+    await shot(page, testInfo, '06-owner-declined-airworthiness-375');
+
+    await page.getByRole('button', { name: 'Review your choices' }).click();
+    await expect(page.getByRole('heading', { name: 'Check your choices' })).toBeVisible();
+    await expect(page.locator('[data-decision="approve"]')).toHaveCount(1);
+    await expect(page.locator('[data-decision="decline"]')).toHaveCount(1);
+    await page.getByRole('button', { name: 'Confirm decisions' }).click();
+    await expect(page.getByText('Type your name to confirm.')).toBeVisible();
+    await page.getByLabel('Type your full name to confirm').fill(OWNER_NAME);
+    newTotal = (await bar.locator('[data-total="new-total"]').textContent()) ?? '';
+    await shot(page, testInfo, '07-owner-review-375');
+    await page.getByRole('button', { name: 'Confirm decisions' }).click();
+    const receipt = page.getByTestId('decision-receipt');
+    await expect(receipt.getByRole('heading', { name: 'Your decisions are recorded' })).toBeVisible();
+    await expect(receipt).toContainText(`Thank you, ${OWNER_NAME}`);
+    await expect(receipt.locator('[data-total="new-total"]')).toHaveText(newTotal);
+    await shot(page, testInfo, '08-owner-receipt-375');
+
+    // The same link afterwards shows the record, not the choices.
+    await page.reload();
+    await expect(page.getByTestId('decision-receipt')).toBeVisible();
+    const total = jsBytes.reduce((a, b) => a + b, 0);
+    testInfo.annotations.push({ type: 'owner page JavaScript (bytes over the wire)', description: String(total) });
+    await ctx.close();
+  });
+
+  await test.step("the manager's estimate and the job's history show the decisions", async () => {
+    const { ctx, page } = await signedIn(browser, baseURL, 'manager@brackenfold.example', false);
+    await page.goto(`/jobs/${jobId}`);
+    await expect(page.getByTestId('total-committed-gross')).toHaveText(`${newTotal} incl. VAT`);
+    const requests = page.getByRole('list', { name: 'Approval requests' });
+    await expect(requests.locator('[data-request-state="decided"]')).toHaveCount(1);
+    await expect(requests).toContainText(`by ${OWNER_NAME}`);
+    await expect(page.locator('li[data-finding]', { hasText: plugTitle }).getByText('Approved', { exact: true })).toBeVisible();
+    await expect(page.locator('li[data-finding]', { hasText: springTitle }).getByText('Declined', { exact: true })).toBeVisible();
+    await expect(page.getByText(`${OWNER_NAME} decided the approval request`)).toBeVisible();
+    await shot(page, testInfo, '09-manager-after-decision-1280');
+    await ctx.close();
+  });
+
+  await test.step("the owner's own page shows the new total", async () => {
+    const { ctx, page } = await signedIn(browser, baseURL, OWNER_EMAIL, true);
+    await page.goto('/my-aircraft');
+    const entry = page.locator('li', { hasText: jobTitle });
+    await expect(entry.locator('[data-owner-total="committed"]')).toHaveText(`${newTotal} incl. VAT`);
+    await expect(entry.getByTestId('decision-waiting')).toHaveCount(0);
+    await shot(page, testInfo, '10-owner-my-aircraft-375');
+    await ctx.close();
+  });
+});
