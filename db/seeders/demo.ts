@@ -4,6 +4,7 @@ import { Aircraft, AuditEvent, Customer, Job, User, Workshop } from '../../serve
 import { hashPassword } from '../../server/src/lib/passwords.js';
 import { DEMO_JOBS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_STAFF, DEMO_WORKSHOP } from './demo-data.js';
 import { seedCatalogue, seedJobWork, type SeededJob } from './demo-estimates.js';
+import { seedApprovals } from './demo-approvals.js';
 
 export async function findDemoWorkshop(t?: Transaction): Promise<Workshop | null> {
   return Workshop.findOne({ where: { vatNumber: DEMO_WORKSHOP.vatNumber, name: DEMO_WORKSHOP.name }, transaction: t });
@@ -14,7 +15,7 @@ export async function removeDemo(sequelize: Sequelize): Promise<boolean> {
     const w = await findDemoWorkshop(t);
     if (!w) return false;
     // Children first, so no two cascades touch the same row in one statement.
-    for (const table of ['audit_events', 'time_logs', 'estimate_lines', 'access_tasks', 'findings', 'job_checklist_items', 'estimates', 'jobs', 'job_counters', 'aircraft', 'job_templates', 'parts', 'suppliers']) {
+    for (const table of ['audit_events', 'approval_requests', 'time_logs', 'estimate_lines', 'access_tasks', 'findings', 'job_checklist_items', 'estimates', 'jobs', 'job_counters', 'aircraft', 'job_templates', 'parts', 'suppliers']) {
       await sequelize.query(`DELETE FROM ${table} WHERE workshop_id = $1`, { bind: [w.id], transaction: t });
     }
     await sequelize.query('DELETE FROM users WHERE workshop_id = $1', { bind: [w.id], transaction: t });
@@ -87,7 +88,10 @@ export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<
       }
     }
     const catalogue = await seedCatalogue(w, t);
-    if (catalogue) await seedJobWork(w, catalogue, seeded, staff, t);
+    if (catalogue) {
+      await seedJobWork(w, catalogue, seeded, staff, t);
+      await seedApprovals(w, seeded, staff, now, t);
+    }
     await sequelize.query('INSERT INTO job_counters (workshop_id, last_number) VALUES ($1, $2)', { bind: [w.id, n], transaction: t });
     return true;
   });

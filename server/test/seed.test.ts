@@ -4,7 +4,7 @@ import { JOB_STATES } from '@wingstage/shared';
 import { Aircraft, Finding, Job, JobTemplate, Part, User, boundSequelize } from '../src/models/index.js';
 import { DEMO_PASSWORD, demoSignIns } from '../../db/seeders/demo-data.js';
 import { findDemoWorkshop, removeDemo, seedDemo } from '../../db/seeders/demo.js';
-import { startTestServer, type TestServer } from './helpers.js';
+import { startTestServer, waitForMail, type TestServer } from './helpers.js';
 
 let server: TestServer;
 
@@ -64,7 +64,8 @@ describe('demo seed', () => {
     const waiting = (await agent.get('/api/jobs?state=awaiting_owner')).body.items[0];
     const est = (await agent.get(`/api/jobs/${waiting.id}/estimate`)).body;
     const findings = (await agent.get(`/api/jobs/${waiting.id}/findings`)).body as { id: string; state: string }[];
-    expect(findings.map((f) => f.state)).toEqual(['priced', 'priced', 'priced']);
+    // Priced, then sent to the owner in the demo's waiting approval request.
+    expect(findings.map((f) => f.state)).toEqual(['sent', 'sent', 'sent']);
     expect(est.priced.undecided.findings).toBe(3);
     const shared = est.accessTasks[0].id;
     const users = new Set(est.lines.filter((l: { accessTaskId: string | null }) => l.accessTaskId === shared).map((l: { findingId: string }) => l.findingId));
@@ -83,6 +84,28 @@ describe('demo seed', () => {
     const closed = (await agent.get('/api/jobs?state=closed')).body.items[0];
     const closedEst = (await agent.get(`/api/jobs/${closed.id}/estimate`)).body;
     expect(Number(closedEst.priced.stages.approved.gross)).toBeGreaterThan(0);
+  });
+
+  it('when seeded, then one approval request waits for the owner (its link re-sent by the manager opens) and the in-work job has a decided one', async () => {
+    const agent = request.agent(server.app);
+    const s = await agent.post('/api/auth/sign-in').send({ email: 'manager@brackenfold.example', password: DEMO_PASSWORD });
+    const waiting = (await agent.get('/api/jobs?state=awaiting_owner')).body.items[0];
+    const requests = (await agent.get(`/api/jobs/${waiting.id}/approval-requests`)).body as { id: string; state: string; findingIds: string[]; gross: string }[];
+    expect(requests).toHaveLength(1);
+    expect(requests[0]).toMatchObject({ state: 'sent' });
+    expect(requests[0]!.findingIds).toHaveLength(3);
+    const resent = await agent.post(`/api/approval-requests/${requests[0]!.id}/resend`).set('X-CSRF-Token', s.body.csrfToken);
+    expect(resent.status).toBe(200);
+    const mail = await waitForMail('elspeth@owners.example', (m) => m.subject.includes('Q-BRKE') && /\/decide\//.test(m.text));
+    const token = /\/decide\/([A-Za-z0-9_-]+)/.exec(mail.text)![1]!;
+    const page = await request(server.app).get(`/api/decide/${token}`);
+    expect(page.status).toBe(200);
+    expect(page.body.snapshot.registration).toBe('Q-BRKE');
+    expect(page.body.snapshot.totals.thisRequest.gross).toBe(requests[0]!.gross);
+
+    const inWork = (await agent.get('/api/jobs?state=in_work')).body.items[0];
+    const decided = (await agent.get(`/api/jobs/${inWork.id}/approval-requests`)).body as { state: string; decidedByName: string }[];
+    expect(decided).toMatchObject([{ state: 'decided', decidedByName: 'Hazel Brambury' }]);
   });
 
   it('when a demo owner signs in with the printed password, then they see only their own aircraft', async () => {

@@ -77,7 +77,7 @@ function linkOf(deps: Deps, r: ApprovalRequest): string {
 const money = (currency: string, amount: string) => (currency === 'GBP' ? `£${amount}` : `${amount} ${currency}`);
 const num = (seq: number) => `F-${seq}`;
 
-function requestDto(r: ApprovalRequest, findingIds: string[]): ApprovalRequestDto {
+export function requestDto(r: ApprovalRequest, findingIds: string[]): ApprovalRequestDto {
   return {
     id: r.id,
     jobId: r.jobId,
@@ -193,7 +193,7 @@ function totalsOnly(lines: EstimateLineDto[], tasks: AccessTaskDto[], w: Worksho
 }
 
 /** Built only from the engine's results, so the owner sees exactly the figures the estimate shows. */
-function buildSnapshot(p: {
+export function buildSnapshot(p: {
   requestId: string;
   job: JobRow;
   w: Workshop;
