@@ -35,7 +35,7 @@ function snapshot(over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot {
         location: 'Engine, cylinder 1',
         seen: 'Gap measured wide.',
         measuredValue: '0.9800',
-        limit: { min: null, max: '0.9', unit: 'mm' },
+        limit: { min: null, max: '0.9', unit: 'mm', source: 'Example for the demo' },
         photoIds: [],
         lines: [{ description: 'Fit new plugs', kind: 'labour', quantity: '0.5', net: '31.00' }],
         price: totals('63.64', '12.73', '76.37'),

@@ -200,7 +200,10 @@ function FindingStep({
           <div>
             <dt className="text-sm font-semibold text-slate-soft">What we measured</dt>
             <dd className="tabular-nums">
-              {trimDecimal(f.measuredValue)} {f.limit.unit}, against an example limit of {describeLimit(f.limit)}
+              <span className="block">
+                {trimDecimal(f.measuredValue)} {f.limit.unit}, against an example limit of {describeLimit(f.limit)}
+              </span>
+              {f.limit.source ? <span className="block text-sm text-slate-soft">{f.limit.source}</span> : null}
             </dd>
           </div>
         ) : null}
