@@ -95,7 +95,9 @@ export function SendForApproval({
         </Notice>
       ) : null}
       {!anyPriced ? (
-        <p className="text-sm text-slate-soft">Findings appear here to tick once their lines are saved in the estimate (priced).</p>
+        <p className="text-sm text-slate-soft">
+          {findings.some((f) => f.state === 'draft') ? 'A finding can be ticked once its lines are saved in the estimate and it shows as priced.' : 'No priced finding is waiting to be sent.'}
+        </p>
       ) : (
         <>
           <p className="text-sm">

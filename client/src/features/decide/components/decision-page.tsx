@@ -26,7 +26,9 @@ export interface DecisionPageProps {
   onReload?: () => void;
 }
 
-const firstName = (name: string) => name.trim().split(/\s+/)[0] ?? name;
+// Small counts read as words in a letter.
+const WORDS = ['no', 'one', 'two', 'three', 'four', 'five', 'six', 'seven', 'eight', 'nine', 'ten'];
+const things = (n: number) => `${WORDS[n] ?? String(n)} ${n === 1 ? 'thing' : 'things'}`;
 
 /**
  * The owner's decision page: a letter from the workshop, one finding at a time, with the running
@@ -102,11 +104,10 @@ function Deciding({ page, onSubmit, submitting, onReload }: Required<Pick<Decisi
       <Letterhead s={s}>
         {step === 0 ? (
           <div className="mt-3 flex flex-col gap-2">
-            <p className="text-lg">Dear {firstName(s.ownerName)},</p>
+            <p className="text-lg">Dear {s.ownerName},</p>
             {s.message ? <p className="whitespace-pre-line">{s.message}</p> : null}
             <p>
-              While working on {s.registration} we found {s.findings.length === 1 ? 'one thing' : `${s.findings.length} things`} that were not in the work we
-              quoted. Please approve or decline each one. Nothing extra is done without your say-so.
+              While working on {s.registration} we found {things(s.findings.length)} that were not in the work we quoted. Please approve or decline each one. Nothing extra is done without your say-so.
             </p>
             <p className="text-sm text-slate-soft">This link works until {formatDateTime(s.expiresAt)}.</p>
           </div>
@@ -122,6 +123,7 @@ function Deciding({ page, onSubmit, submitting, onReload }: Required<Pick<Decisi
           typedName={typedName}
           setTypedName={setTypedName}
           nameError={nameError}
+          clearNameError={() => setNameError(null)}
           onConfirm={() => void confirm()}
           submitting={submitting}
           problem={problem}
@@ -310,6 +312,7 @@ function Review({
   typedName,
   setTypedName,
   nameError,
+  clearNameError,
   onConfirm,
   submitting,
   problem,
@@ -322,6 +325,7 @@ function Review({
   typedName: string;
   setTypedName: (v: string) => void;
   nameError: string | null;
+  clearNameError: () => void;
   onConfirm: () => void;
   submitting?: boolean;
   problem: { message: string; reload: boolean } | null;
@@ -377,7 +381,10 @@ function Review({
         <input
           id={nameId}
           value={typedName}
-          onChange={(e) => setTypedName(e.target.value)}
+          onChange={(e) => {
+            setTypedName(e.target.value);
+            clearNameError();
+          }}
           autoComplete="name"
           aria-invalid={nameError ? true : undefined}
           aria-describedby={`${nameId}-hint${nameError ? ` ${nameId}-error` : ''}`}
@@ -425,7 +432,7 @@ function RunningTotalBar({ currency, totals: t }: { currency: string; totals: Re
           <span className="text-slate-soft">Approved so far</span> <span data-total="approved-so-far">{m(t.approvedSoFar)}</span>
         </p>
         <p className="flex justify-between gap-2">
-          <span className="text-slate-soft">This request, as chosen</span> <span data-total="this-request">{m(t.thisRequestAsChosen)}</span>
+          <span className="text-slate-soft">Approving now</span> <span data-total="this-request">{m(t.thisRequestAsChosen)}</span>
         </p>
         <p className="flex justify-between gap-2">
           <span className="text-slate-soft">Not yet decided</span> <span data-total="undecided">{m(t.undecided)}</span>
