@@ -1,7 +1,9 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '@wingstage/shared';
-import { JobChecklistItem, JobTemplate, Part, Supplier, User } from '../src/models/index.js';
+import { randomUUID } from 'node:crypto';
+import { EstimateLine, JobChecklistItem, JobTemplate, Part, Supplier, User } from '../src/models/index.js';
+import { sendForApproval } from '../src/services/approvals.service.js';
 import { makeFinding, makeJob, makeWorkshop, passwordHash, signIn, startTestServer, uniq, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
@@ -51,6 +53,25 @@ const templateBody = () => ({
 const template = () => JobTemplate.create({ workshopId: a.workshop.id, name: `T ${uniq()}`, jobType: 'other', lines: [], checklist: [] });
 
 /** Every route in the contract that needs a session, with who may use it (DEVELOPERS.md, HTTP contract). */
+/** A finding of owner 1 priced with one fee line on an inspecting job, ready to be sent. */
+async function pricedFinding() {
+  const job = await makeJob(a.workshop.id, a.owners[0].aircraft.id, 'inspecting');
+  const f = await makeFinding(job, { state: 'priced' });
+  await EstimateLine.create({
+    jobId: job.id, id: randomUUID(), workshopId: a.workshop.id, stage: 'discovered', kind: 'fee', description: 'Remedy', quantity: '1', labourRateCode: null,
+    ratePerHour: null, partId: null, supplierId: null, unitCost: null, unitPrice: null, markupPercent: null, amount: '20.00', vatRate: 'standard',
+    findingId: f.id, accessTaskId: null, discountPercent: null, sortOrder: 0,
+  });
+  return f;
+}
+
+async function sentRequest(): Promise<string> {
+  const f = await pricedFinding();
+  const scope = { workshopId: a.workshop.id, userId: a.users.manager.id, role: 'manager' as const, customerId: null };
+  const res = await sendForApproval({ config: server.parts.config, mail: server.parts.mail, logger: server.parts.logger }, scope, f.jobId, { findingIds: [f.id], message: '', estimateVersion: 0 });
+  return res.request!.id;
+}
+
 const MATRIX: RouteCase[] = [
   { route: 'GET /api/auth/session', method: 'get', req: async () => ({ path: '/api/auth/session' }), allowed: ['admin', 'manager', 'engineer', 'accounts', 'owner'], ok: 200 },
   { route: 'GET /api/users', method: 'get', req: async () => ({ path: '/api/users' }), allowed: ['admin', 'manager'], ok: 200 },
@@ -167,6 +188,26 @@ const MATRIX: RouteCase[] = [
     allowed: HANDS, ok: 200,
   },
   { route: 'GET /api/jobs/:id/time', method: 'get', req: async () => ({ path: `/api/jobs/${a.owners[0].job.id}/time` }), allowed: STAFF, ok: 200 },
+  { route: 'GET /api/jobs/:id/pre-authorisation', method: 'get', req: async () => ({ path: `/api/jobs/${a.owners[0].job.id}/pre-authorisation` }), allowed: ALL_SIGNED_IN, ok: 200 },
+  {
+    route: 'PUT /api/jobs/:id/pre-authorisation', method: 'put',
+    req: async () => {
+      const job = await makeJob(a.workshop.id, a.owners[0].aircraft.id, 'inspecting');
+      return { path: `/api/jobs/${job.id}/pre-authorisation`, body: { version: job.version, perFinding: '150.00', perJob: null, agreedHow: 'Phone call' } };
+    },
+    allowed: ['admin', 'manager'], ok: 200,
+  },
+  { route: 'GET /api/jobs/:id/approval-requests', method: 'get', req: async () => ({ path: `/api/jobs/${a.owners[0].job.id}/approval-requests` }), allowed: ALL_SIGNED_IN, ok: 200 },
+  {
+    route: 'POST /api/jobs/:id/approval-requests', method: 'post',
+    req: async () => {
+      const f = await pricedFinding();
+      return { path: `/api/jobs/${f.jobId}/approval-requests`, body: { findingIds: [f.id], estimateVersion: 0 } };
+    },
+    allowed: ['admin', 'manager'], ok: 201,
+  },
+  { route: 'POST /api/approval-requests/:id/revoke', method: 'post', req: async () => ({ path: `/api/approval-requests/${await sentRequest()}/revoke` }), allowed: ['admin', 'manager'], ok: 200 },
+  { route: 'POST /api/approval-requests/:id/resend', method: 'post', req: async () => ({ path: `/api/approval-requests/${await sentRequest()}/resend` }), allowed: ['admin', 'manager'], ok: 200 },
   { route: 'POST /api/jobs/:id/time', method: 'post', req: async () => ({ path: `/api/jobs/${a.owners[0].job.id}/time`, body: { hours: '1.25', workedOn: '2026-12-01' } }), allowed: HANDS, ok: 201 },
 ];
 

@@ -1,7 +1,8 @@
+import { createHash } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { JOB_STATES } from '@wingstage/shared';
-import { Aircraft, Finding, Job, JobTemplate, Part, User, boundSequelize } from '../src/models/index.js';
+import { Aircraft, ApprovalRequest, Finding, Job, JobTemplate, Part, User, boundSequelize } from '../src/models/index.js';
 import { DEMO_PASSWORD, demoSignIns } from '../../db/seeders/demo-data.js';
 import { findDemoWorkshop, removeDemo, seedDemo } from '../../db/seeders/demo.js';
 import { startTestServer, waitForMail, type TestServer } from './helpers.js';
@@ -96,7 +97,10 @@ describe('demo seed', () => {
     expect(requests[0]!.findingIds).toHaveLength(3);
     const resent = await agent.post(`/api/approval-requests/${requests[0]!.id}/resend`).set('X-CSRF-Token', s.body.csrfToken);
     expect(resent.status).toBe(200);
-    const mail = await waitForMail('elspeth@owners.example', (m) => m.subject.includes('Q-BRKE') && /\/decide\//.test(m.text));
+    // Earlier runs mailed the same demo owner: take the link whose hash is this request's.
+    const stored = await ApprovalRequest.findByPk(requests[0]!.id);
+    const sha = (x: string) => createHash('sha256').update(x).digest('hex');
+    const mail = await waitForMail('elspeth@owners.example', (m) => sha(/\/decide\/([A-Za-z0-9_-]+)/.exec(m.text)?.[1] ?? '') === stored!.tokenHash);
     const token = /\/decide\/([A-Za-z0-9_-]+)/.exec(mail.text)![1]!;
     const page = await request(server.app).get(`/api/decide/${token}`);
     expect(page.status).toBe(200);
