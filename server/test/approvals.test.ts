@@ -301,6 +301,21 @@ describe('replacement when a price changes', () => {
     expect((await Finding.findAll({ where: { jobId: p.job.id } })).map((f) => f.state)).toEqual(['sent', 'sent']);
   });
 
+  it('when a sent finding is withdrawn, then the request is replaced by one without it, and the withdrawn finding stays withdrawn', async () => {
+    const p = await pricedJob(['21.00', '22.00']);
+    const { request: r } = await sendAndRead(p);
+    const w = await manager.post(`/api/jobs/${p.job.id}/findings/${p.findings[0]!.id}/withdraw`, { version: (await Finding.findByPk(p.findings[0]!.id))!.version, reason: 'Raised twice' });
+    expect(w.status).toBe(200);
+    const old = await ApprovalRequest.findByPk(r.id);
+    expect(old!.state).toBe('replaced');
+    const list = (await manager.get(`/api/jobs/${p.job.id}/approval-requests`)).body as ApprovalRequestDto[];
+    expect(list[0]).toMatchObject({ id: old!.replacedById, state: 'sent', findingIds: [p.findings[1]!.id], gross: '26.40' });
+    expect((await Finding.findAll({ where: { jobId: p.job.id }, order: [['seq', 'ASC']] })).map((f) => f.state)).toEqual(['withdrawn', 'sent']);
+    const last = await manager.post(`/api/jobs/${p.job.id}/findings/${p.findings[1]!.id}/withdraw`, { version: (await Finding.findByPk(p.findings[1]!.id))!.version });
+    expect(last.status).toBe(200);
+    expect((await ApprovalRequest.findByPk(old!.replacedById!))!.state).toBe('revoked');
+  });
+
   it('when the estimate is saved without changing a sent price, then the request stays as sent', async () => {
     const p = await pricedJob(['50.00']);
     const { request: r } = await sendAndRead(p);

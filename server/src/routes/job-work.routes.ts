@@ -58,7 +58,8 @@ export function jobWorkRoutes(deps: Deps): Router {
   });
   router.post('/:id/findings/:findingId/withdraw', authorize(config, 'admin', 'manager'), validate({ params: findingParams, body: findingActionSchema }), async (req, res) => {
     const p = validParams(req, findingParams);
-    res.json(await findings.withdrawFinding(scopeOf(req), p.id, p.findingId, validBody(req, findingActionSchema)));
+    const scope = scopeOf(req);
+    res.json(await findings.withdrawFinding(scope, p.id, p.findingId, validBody(req, findingActionSchema), (job, t) => approvals.replaceChangedRequests(deps, scope, job, t)));
   });
   router.post('/:id/findings/:findingId/rectified', hands, validate({ params: findingParams, body: findingActionSchema }), async (req, res) => {
     const p = validParams(req, findingParams);

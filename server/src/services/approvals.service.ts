@@ -487,7 +487,9 @@ export async function replaceChangedRequests(deps: Deps, scope: Scope, job: JobR
   for (const r of open) {
     const changed = r.snapshot.findings.filter((f) => now.get(f.findingId) !== f.price.gross);
     if (!changed.length) continue;
-    const findingIds = ids.get(r.id) ?? [];
+    const all = ids.get(r.id) ?? [];
+    // A finding withdrawn since sending leaves the request as it is (withdrawn).
+    const findingIds = (await Finding.findAll({ where: inWorkshop(scope, { jobId: job.id, id: all, state: 'sent' }), attributes: ['id'], transaction: t })).map((f) => f.id);
     await setFindingState(job.id, findingIds, 'priced', t);
     const findings = await Finding.findAll({ where: inWorkshop(scope, { jobId: job.id, id: findingIds }), transaction: t });
     const byId = new Map(findings.map((f) => [f.id, f]));
@@ -497,7 +499,7 @@ export async function replaceChangedRequests(deps: Deps, scope: Scope, job: JobR
     if (dropped.length) await setFindingState(job.id, dropped, 'draft', t);
     if (!still.length) {
       await r.update({ state: 'revoked', revokedAt: new Date() }, { transaction: t });
-      await recordAudit(scope, t, { jobId: job.id, action: 'approval.revoked', summary: 'Revoked an approval request: none of its findings has a price any more', detail: { requestId: r.id } });
+      await recordAudit(scope, t, { jobId: job.id, action: 'approval.revoked', summary: 'Revoked an approval request: none of its findings is still priced for the owner', detail: { requestId: r.id } });
       continue;
     }
     const next = await createRequest(deps, scope, job, still, r.snapshot.message, t, 'replacement');

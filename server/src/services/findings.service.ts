@@ -169,7 +169,14 @@ export async function updateFinding(scope: Scope, jobId: string, findingId: stri
   return findingOut(scope, jobId, findingId);
 }
 
-export async function withdrawFinding(scope: Scope, jobId: string, findingId: string, input: FindingAction): Promise<FindingDto> {
+export async function withdrawFinding(
+  scope: Scope,
+  jobId: string,
+  findingId: string,
+  input: FindingAction,
+  /** Runs in the same transaction (a sent request holding the finding is replaced without it). */
+  afterWithdraw?: (job: JobRow, t: Transaction) => Promise<void>,
+): Promise<FindingDto> {
   requireStaff(scope);
   await boundSequelize().transaction(async (t) => {
     const job = await findJob(scope, jobId, t);
@@ -189,6 +196,7 @@ export async function withdrawFinding(scope: Scope, jobId: string, findingId: st
       summary: `Withdrew F-${f.seq} ${f.title}${removed ? ` and its ${removed} estimate ${removed === 1 ? 'line' : 'lines'}` : ''}${input.reason ? `: ${input.reason}` : ''}`,
       detail: { findingId: f.id, linesRemoved: removed, reason: input.reason },
     });
+    if (afterWithdraw) await afterWithdraw(job, t);
   });
   return findingOut(scope, jobId, findingId);
 }
