@@ -278,6 +278,15 @@ describe("the owner's decision", () => {
   });
 });
 
+describe('guessing links', () => {
+  it('when one address tries many links, then it is slowed down with 429 and an unknown link never says more than 404', async () => {
+    const limited = server.variant({ DECIDE_ADDRESS_LIMIT: '3' });
+    const statuses: number[] = [];
+    for (let i = 0; i < 5; i += 1) statuses.push((await request(limited).get(`/api/decide/${uniq()}${'A'.repeat(40)}`)).status);
+    expect(statuses).toEqual([404, 404, 404, 429, 429]);
+  });
+});
+
 describe('replacement when a price changes', () => {
   it('when the estimate changes the price of a sent finding, then the request is replaced, a new one is sent and the old link says why', async () => {
     const p = await pricedJob(['50.00', '20.00']);
