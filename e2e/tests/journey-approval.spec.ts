@@ -199,18 +199,30 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     const link = await decisionLink(request, OWNER_EMAIL, since, jobNumber);
     // An upper bound (the manager's steps after sending and the poll interval count too).
     testInfo.annotations.push({ type: 'send → e-mail in maildev (ms, upper bound)', description: String(Date.now() - sentClickedAt) });
+    // The same letter on a desktop screen (looking changes nothing).
+    const wide = await context(browser, baseURL, false);
+    const widePage = await wide.newPage();
+    await widePage.goto(new URL(link).pathname);
+    await expect(widePage.getByText('Finding 1 of 2')).toBeVisible();
+    await shot(widePage, testInfo, '05a-owner-finding-1-1280', false);
+    await wide.close();
+
     const ctx = await context(browser, baseURL, true);
     const page = await ctx.newPage();
-    const jsBytes: number[] = [];
-    page.on('response', async (r) => {
-      if (r.request().resourceType() === 'script') jsBytes.push(Number(r.headers()['content-length'] ?? 0));
-    });
+    // Which scripts a phone downloads to open the link (first load only).
+    const scripts = new Set<string>();
+    const onResponse = (r: import('@playwright/test').Response) => {
+      if (r.request().resourceType() === 'script') scripts.add(new URL(r.url()).pathname);
+    };
+    page.on('response', onResponse);
     await page.goto(new URL(link).pathname);
     await expect(page.getByRole('heading', { level: 1, name: 'Work found on Q-SALT' })).toBeVisible();
     await expect(page.getByText('Finding 1 of 2')).toBeVisible();
     const bar = page.getByTestId('running-total');
     await expect(bar).toBeInViewport();
     await shot(page, testInfo, '05-owner-finding-1-375', false);
+    page.off('response', onResponse);
+    testInfo.annotations.push({ type: 'owner page scripts', description: [...scripts].sort().join(' ') });
 
     await page.getByRole('radio', { name: /Approve/ }).check();
     for (const b of await page.getByRole('button').all()) {
@@ -247,8 +259,6 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     // The same link afterwards shows the record, not the choices.
     await page.reload();
     await expect(page.getByTestId('decision-receipt')).toBeVisible();
-    const total = jsBytes.reduce((a, b) => a + b, 0);
-    testInfo.annotations.push({ type: 'owner page JavaScript (bytes over the wire)', description: String(total) });
     await ctx.close();
   });
 
