@@ -133,7 +133,7 @@ describe('DecisionPage', () => {
     expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
     expect(screen.getAllByTestId('decide-finding')).toHaveLength(1);
     expect(screen.getByText('Recommended')).toBeTruthy();
-    expect(screen.getByText('0.98 mm, against an example limit of at most 0.9 mm')).toBeTruthy();
+    expect(screen.getByText('0.98 mm; the example limit is at most 0.9 mm')).toBeTruthy();
     expect(within(screen.getByTestId('decide-price')).getByText('£76.37 incl. VAT')).toBeTruthy();
     expect(within(screen.getByTestId('decide-price')).getByText('£63.64 excl. VAT')).toBeTruthy();
     expect(screen.getByText(/“Cowling off”.*saves you £18\.60 incl\. VAT/)).toBeTruthy();

@@ -203,7 +203,7 @@ function FindingStep({
             <dt className="text-sm font-semibold text-slate-soft">What we measured</dt>
             <dd className="tabular-nums">
               <span className="block">
-                {trimDecimal(f.measuredValue)} {f.limit.unit}, against an example limit of {describeLimit(f.limit)}
+                {trimDecimal(f.measuredValue)} {f.limit.unit}; the example limit is {describeLimit(f.limit)}
               </span>
               {f.limit.source ? <span className="block text-sm text-slate-soft">{f.limit.source}</span> : null}
             </dd>
