@@ -142,3 +142,14 @@ describe('PATCH schemas', () => {
     expect(aircraftUpdateSchema.safeParse({ version: 0, registration: 'not a reg!' }).success).toBe(false);
   });
 });
+
+describe('work records', () => {
+  it('when no hours or a discount over 100% is given, then it is refused (compared as exact decimals)', async () => {
+    const { timeLogCreateSchema, estimateLineSchema } = await import('../src/index.js');
+    expect(timeLogCreateSchema.safeParse({ hours: '0.00', workedOn: '2026-12-01' }).success).toBe(false);
+    expect(timeLogCreateSchema.safeParse({ hours: '0.01', workedOn: '2026-12-01' }).success).toBe(true);
+    const line = { id: uuid, stage: 'inspection', kind: 'fee', description: 'Permit paperwork', amount: '45.00' };
+    expect(estimateLineSchema.safeParse({ ...line, discountPercent: '100.00' }).success).toBe(true);
+    expect(estimateLineSchema.safeParse({ ...line, discountPercent: '100.01' }).success).toBe(false);
+  });
+});

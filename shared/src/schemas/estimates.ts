@@ -1,3 +1,4 @@
+import Decimal from 'decimal.js';
 import { z } from 'zod';
 import { decimalString, idSchema } from './common.js';
 import {
@@ -48,7 +49,7 @@ export const estimateLineSchema = z
     if (l.kind === 'part' && l.unitPrice === null) need('unitCost', 'Give the unit cost or a fixed sell price.');
     if (l.kind === 'subcontract') need('amount', "Give the supplier's cost.");
     if (l.kind === 'fee') need('amount', 'Give the fee.');
-    if (l.discountPercent !== null && Number(l.discountPercent) > 100) {
+    if (l.discountPercent !== null && new Decimal(l.discountPercent).gt(100)) {
       ctx.addIssue({ code: 'custom', path: ['discountPercent'], message: 'A discount cannot be more than 100%.' });
     }
   });

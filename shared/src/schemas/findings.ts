@@ -1,3 +1,4 @@
+import Decimal from 'decimal.js';
 import { z } from 'zod';
 import { decimalString, idSchema, isoDate, optionalText } from './common.js';
 import type { ChecklistLimit } from './templates.js';
@@ -127,7 +128,7 @@ export interface JobChecklistItemDto {
 }
 
 export const timeLogCreateSchema = z.object({
-  hours: decimalString(2, 'Hours').refine((h) => Number.parseFloat(h) > 0, { message: 'Log more than zero hours.' }),
+  hours: decimalString(2, 'Hours').refine((h) => new Decimal(h).gt(0), { message: 'Log more than zero hours.' }),
   workedOn: isoDate,
   note: optionalText(500, 'Note'),
   findingId: idSchema.nullable().optional().default(null),
