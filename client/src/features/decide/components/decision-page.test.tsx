@@ -205,7 +205,8 @@ describe('DecisionPage', () => {
 
   it("when the request is closed, then the server's reason is shown in plain words and no choices are offered", () => {
     render(<DecisionPage page={page({ state: 'replaced', closedReason: 'The workshop changed a price after sending, so a newer request replaced this one. Look for it in your e-mail.' })} onSubmit={vi.fn()} />);
-    expect(screen.getByText('This request is replaced')).toBeTruthy();
+    expect(screen.getByText('A newer request replaced this one')).toBeTruthy();
+    expect(screen.getByText('Replaced')).toBeTruthy();
     expect(screen.getByText(/a newer request replaced this one/)).toBeTruthy();
     expect(screen.queryByRole('radio')).toBeNull();
   });

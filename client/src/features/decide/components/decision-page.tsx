@@ -1,5 +1,4 @@
 import {
-  APPROVAL_REQUEST_STATE_LABELS,
   decisionSubmitSchema,
   describeLimit,
   FINDING_CATEGORY_MEANINGS,
@@ -8,6 +7,7 @@ import {
   type DecisionPageDto,
 } from '@wingstage/shared';
 import { useId, useRef, useState, type ReactNode } from 'react';
+import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { Button } from '@/components/ui/button';
 import { CategoryBadge } from '@/components/ui/finding-badges';
 import { CheckIcon, CrossIcon } from '@/components/ui/icons';
@@ -502,14 +502,24 @@ function Receipt({ page }: { page: DecisionPageDto }) {
   );
 }
 
+const CLOSED_TITLE: Record<DecisionPageDto['state'], string> = {
+  sent: 'This request cannot be decided here',
+  decided: 'This request has been decided',
+  expired: 'This link has run out',
+  revoked: 'The workshop withdrew this link',
+  replaced: 'A newer request replaced this one',
+};
+
 function Closed({ page }: { page: DecisionPageDto }) {
   const s = page.snapshot;
   return (
     <article className="flex flex-col gap-5" data-testid="decision-closed">
       <Letterhead s={s} />
-      <Notice title={`This request is ${APPROVAL_REQUEST_STATE_LABELS[page.state].toLowerCase()}`}>
-        <p>{page.closedReason ?? 'This request can no longer be decided.'}</p>
-        <p>If you think something is missing, please contact {s.workshopName}.</p>
+      <Notice title={CLOSED_TITLE[page.state]}>
+        <p>
+          <ApprovalRequestBadge state={page.state} />
+        </p>
+        <p>{page.closedReason ?? `This request can no longer be decided. Please contact ${s.workshopName}.`}</p>
       </Notice>
     </article>
   );
