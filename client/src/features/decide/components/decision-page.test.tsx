@@ -99,7 +99,8 @@ const page = (over: Partial<DecisionPageDto> = {}): DecisionPageDto => ({
 describe('runningTotal', () => {
   it('when nothing is chosen yet, then this request counts nothing and every price is undecided, plus the work awaiting a decision elsewhere', () => {
     const t = runningTotal(snapshot(), {});
-    expect(t).toMatchObject({ quoted: '556.13', approvedSoFar: '556.13', thisRequestAsChosen: '0.00', undecided: '131.58', newTotal: '556.13', chosen: 0, of: 3 });
+    // The whole request undecided is the engine's request total (120.00, shared opening-up once) plus 6.00 elsewhere.
+    expect(t).toMatchObject({ quoted: '556.13', approvedSoFar: '556.13', thisRequestAsChosen: '0.00', undecided: '126.00', newTotal: '556.13', sharesOpeningUp: true, chosen: 0, of: 3 });
   });
 
   it('when some findings are approved and one declined, then the sums are exact to the penny from the snapshot figures', () => {

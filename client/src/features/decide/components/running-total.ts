@@ -11,28 +11,37 @@ export interface RunningTotal {
   undecided: string;
   /** Approved so far plus this request as chosen: what the bill would come to. */
   newTotal: string;
+  /**
+   * The findings' own prices add up to more than the request: some share opening-up work that is
+   * charged once when they are approved together, so a part-way figure may come out lower.
+   */
+  sharesOpeningUp: boolean;
   chosen: number;
   of: number;
 }
 
 /**
  * Every figure is a sum of the engine's Totals frozen in the snapshot, added with the shared money
- * helpers; nothing is priced again here. When every finding is approved the snapshot's own
- * "this request" total is used, because the engine charges shared opening-up work once across the
- * request, while the findings' own prices each carry it.
+ * helpers; nothing is priced again here. When a figure covers every finding of the request (all
+ * approved, or none decided yet) the snapshot's own "this request" total is used, because the
+ * engine charges shared opening-up work once across the request, while the findings' own prices
+ * each carry it.
  */
 export function runningTotal(snapshot: ApprovalSnapshot, choices: Choices): RunningTotal {
   const c = snapshot.currency;
   const findings = snapshot.findings;
   const approved = findings.filter((f) => choices[f.findingId] === 'approve');
   const open = findings.filter((f) => choices[f.findingId] === undefined);
-  const thisRequestAsChosen =
-    approved.length === findings.length && findings.length > 0 ? snapshot.totals.thisRequest.gross : sumAmounts(approved.map((f) => f.price.gross), c);
+  const whole = snapshot.totals.thisRequest.gross;
+  // A whole request is the engine's own figure; a part of it is the sum of the findings' own prices.
+  const partOf = (part: typeof findings) => (part.length === findings.length && findings.length > 0 ? whole : sumAmounts(part.map((f) => f.price.gross), c));
+  const thisRequestAsChosen = partOf(approved);
   return {
     quoted: snapshot.totals.quoted.gross,
     approvedSoFar: snapshot.totals.approvedSoFar.gross,
     thisRequestAsChosen,
-    undecided: sumAmounts([...open.map((f) => f.price.gross), snapshot.totals.undecidedElsewhere.gross], c),
+    undecided: sumAmounts([partOf(open), snapshot.totals.undecidedElsewhere.gross], c),
+    sharesOpeningUp: compareAmounts(sumAmounts(findings.map((f) => f.price.gross), c), whole) > 0,
     newTotal: sumAmounts([snapshot.totals.approvedSoFar.gross, thisRequestAsChosen], c),
     chosen: findings.length - open.length,
     of: findings.length,
