@@ -7,7 +7,7 @@ export default defineConfig({
     environment: 'node',
     globalSetup: ['test/global-setup.ts'],
     // Real bcrypt (cost 12), real PostgreSQL and real SMTP: allow for a slow shared machine.
-    testTimeout: 30_000,
+    testTimeout: 90_000,
     hookTimeout: 60_000,
     pool: 'forks',
     maxWorkers: 2,

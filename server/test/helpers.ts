@@ -149,8 +149,11 @@ interface MaildevMail {
   time: string;
 }
 
-/** Polls maildev for a message to `to` that passes `match`; other tests' mail is ignored. */
-export async function waitForMail(to: string, match: (m: MaildevMail) => boolean = () => true, timeoutMs = 15_000): Promise<MaildevMail> {
+/**
+ * Polls maildev for a message to `to` that passes `match`; other tests' mail is ignored. Test files
+ * run in parallel and share one mail queue, so on a loaded machine a backlog may take a while.
+ */
+export async function waitForMail(to: string, match: (m: MaildevMail) => boolean = () => true, timeoutMs = 45_000): Promise<MaildevMail> {
   const until = Date.now() + timeoutMs;
   while (Date.now() < until) {
     const res = await fetch(`${MAILDEV_API}/api/email`);

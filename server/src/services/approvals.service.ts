@@ -489,7 +489,9 @@ export async function replaceChangedRequests(deps: Deps, scope: Scope, job: JobR
     if (!changed.length) continue;
     const all = ids.get(r.id) ?? [];
     // A finding withdrawn since sending leaves the request as it is (withdrawn).
-    const findingIds = (await Finding.findAll({ where: inWorkshop(scope, { jobId: job.id, id: all, state: 'sent' }), attributes: ['id'], transaction: t })).map((f) => f.id);
+    const sent = new Set((await Finding.findAll({ where: inWorkshop(scope, { jobId: job.id, id: all, state: 'sent' }), attributes: ['id'], transaction: t })).map((f) => f.id));
+    // Keep the order the manager sent them in: the owner meets the findings in the same order again.
+    const findingIds = all.filter((id) => sent.has(id));
     await setFindingState(job.id, findingIds, 'priced', t);
     const findings = await Finding.findAll({ where: inWorkshop(scope, { jobId: job.id, id: findingIds }), transaction: t });
     const byId = new Map(findings.map((f) => [f.id, f]));
