@@ -14,3 +14,26 @@ export function applyServerErrors<T extends FieldValues>(err: unknown, setError:
   }
   return [err.message, ...stray].join(' ');
 }
+
+/**
+ * Wraps a form's submit action: clears the summary, runs the action, and on failure either lets
+ * `handle` deal with the error (return true when it did) or puts the server's field errors next
+ * to the fields and the rest in the summary. Use as `handleSubmit(withServerErrors(…))`.
+ */
+export function withServerErrors<T extends FieldValues, V>(
+  setError: UseFormSetError<T>,
+  setSummary: (message: string | null) => void,
+  fieldNames: readonly string[],
+  action: (values: V) => Promise<unknown>,
+  handle?: (err: unknown) => boolean,
+): (values: V) => Promise<void> {
+  return async (values) => {
+    setSummary(null);
+    try {
+      await action(values);
+    } catch (err) {
+      if (handle?.(err)) return;
+      setSummary(applyServerErrors(err, setError, fieldNames));
+    }
+  };
+}

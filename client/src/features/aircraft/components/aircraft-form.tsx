@@ -6,7 +6,7 @@ import type { z } from 'zod';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 
 const LABELS = {
   customerId: 'Owner',
@@ -50,14 +50,11 @@ export function AircraftForm({
   });
   const e = formState.errors;
 
-  const submit = handleSubmit(async (values) => {
-    setSummary(null);
-    try {
+  const submit = handleSubmit(
+    withServerErrors(setError, setSummary, Object.keys(LABELS), async (values) => {
       await onSubmit(values);
-    } catch (err) {
-      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
-    }
-  });
+    }),
+  );
 
   return (
     <form onSubmit={submit} noValidate className="flex max-w-2xl flex-col gap-4">

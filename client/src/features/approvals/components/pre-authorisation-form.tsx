@@ -8,7 +8,7 @@ import { TextField } from '@/components/ui/field';
 import { Facts } from '@/components/ui/page';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { formatMoney } from '@/lib/format';
 import { useSavePreAuthorisation } from '../api/pre-authorisation';
 
@@ -74,19 +74,22 @@ function LimitForm({ jobId, jobVersion, limit, onDone }: { jobId: string; jobVer
     defaultValues: { version: jobVersion, perFinding: limit.perFinding, perJob: limit.perJob, agreedHow: limit.agreedHow },
   });
   const e = formState.errors;
-  const submit = handleSubmit(async (values) => {
-    setSummary(null);
-    try {
-      await save.mutateAsync(values);
-      onDone('Limit saved.');
-    } catch (err) {
-      if (isApiError(err) && err.code === 'stale_version') {
+  const submit = handleSubmit(
+    withServerErrors(
+      setError,
+      setSummary,
+      Object.keys(LABELS),
+      async (values) => {
+        await save.mutateAsync(values);
+        onDone('Limit saved.');
+      },
+      (err) => {
+        if (!(isApiError(err) && err.code === 'stale_version')) return false;
         onDone('Someone else changed this job meanwhile, so the limit was not saved. The page now shows the latest; set it again.');
-        return;
-      }
-      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
-    }
-  });
+        return true;
+      },
+    ),
+  );
   return (
     <form onSubmit={submit} noValidate aria-label="Pre-authorised limit" className="flex flex-col gap-3">
       <FormErrorSummary message={summary} errors={e} labels={LABELS} />

@@ -6,7 +6,7 @@ import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { useAcceptInvitation } from '../api/accept-invitation';
 import type { InvitationPreview } from '../api/get-invitation';
 
@@ -21,14 +21,11 @@ export function AcceptInvitationForm({ token, invitation, onAccepted }: { token:
     z.output<typeof invitationAcceptSchema>
   >({ resolver: zodResolver(invitationAcceptSchema), defaultValues: { token, name: invitation.name, password: '', confirmPassword: '' } });
 
-  const onSubmit = handleSubmit(async (values) => {
-    setSummary(null);
-    try {
+  const onSubmit = handleSubmit(
+    withServerErrors(setError, setSummary, Object.keys(LABELS), async (values) => {
       onAccepted(await accept.mutateAsync(values));
-    } catch (e) {
-      setSummary(applyServerErrors(e, setError, Object.keys(LABELS)));
-    }
-  });
+    }),
+  );
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">

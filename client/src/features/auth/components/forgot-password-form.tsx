@@ -6,7 +6,7 @@ import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { FormErrorSummary, Notice } from '@/components/ui/notice';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { useRequestPasswordReset } from '../api/request-password-reset';
 
 const LABELS = { email: 'E-mail' };
@@ -21,15 +21,12 @@ export function ForgotPasswordForm() {
     z.output<typeof passwordResetRequestSchema>
   >({ resolver: zodResolver(passwordResetRequestSchema), defaultValues: { email: '' } });
 
-  const onSubmit = handleSubmit(async (values) => {
-    setSummary(null);
-    try {
+  const onSubmit = handleSubmit(
+    withServerErrors(setError, setSummary, Object.keys(LABELS), async (values) => {
       await request.mutateAsync(values);
       setSentTo(values.email);
-    } catch (e) {
-      setSummary(applyServerErrors(e, setError, Object.keys(LABELS)));
-    }
-  });
+    }),
+  );
 
   if (sentTo) {
     return (

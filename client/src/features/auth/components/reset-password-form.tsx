@@ -7,7 +7,7 @@ import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { FormErrorSummary, Notice } from '@/components/ui/notice';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { useCompletePasswordReset } from '../api/complete-password-reset';
 
 const LABELS = { token: 'Link', password: 'New password', confirmPassword: 'New password again' };
@@ -22,15 +22,12 @@ export function ResetPasswordForm({ token }: { token: string }) {
     z.output<typeof passwordResetCompleteSchema>
   >({ resolver: zodResolver(passwordResetCompleteSchema), defaultValues: { token, password: '', confirmPassword: '' } });
 
-  const onSubmit = handleSubmit(async (values) => {
-    setSummary(null);
-    try {
+  const onSubmit = handleSubmit(
+    withServerErrors(setError, setSummary, Object.keys(LABELS), async (values) => {
       await complete.mutateAsync(values);
       setDone(true);
-    } catch (e) {
-      setSummary(applyServerErrors(e, setError, Object.keys(LABELS)));
-    }
-  });
+    }),
+  );
 
   if (done) {
     return (

@@ -7,7 +7,7 @@ import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { useSignIn } from '../api/sign-in';
 
 const LABELS = { email: 'E-mail', password: 'Password' };
@@ -20,14 +20,11 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (s: SessionDto) => void
     defaultValues: { email: '', password: '' },
   });
 
-  const onSubmit = handleSubmit(async (values) => {
-    setSummary(null);
-    try {
+  const onSubmit = handleSubmit(
+    withServerErrors(setError, setSummary, Object.keys(LABELS), async (values) => {
       onSignedIn(await signIn.mutateAsync(values));
-    } catch (e) {
-      setSummary(applyServerErrors(e, setError, Object.keys(LABELS)));
-    }
-  });
+    }),
+  );
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">

@@ -7,7 +7,7 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { formatMoney } from '@/lib/format';
 import { partSellPrice, vatRateLabel } from '@/lib/pricing-preview';
 import { useSavePart } from '../api/save-part';
@@ -58,19 +58,22 @@ export function PartForm({ part, suppliers, pricing, onDone }: { part: PartDto |
     if (m !== 'markup') setValue('markupPercent', null);
   };
 
-  const submit = handleSubmit(async (v) => {
-    setSummary(null);
-    try {
-      const saved = part ? await save.mutateAsync({ id: part.id, body: { ...v, version: part.version } }) : await save.mutateAsync({ id: null, body: v });
-      onDone(saved);
-    } catch (err) {
-      if (isApiError(err) && err.code === 'stale_version') {
+  const submit = handleSubmit(
+    withServerErrors(
+      setError,
+      setSummary,
+      Object.keys(LABELS),
+      async (v) => {
+        const saved = part ? await save.mutateAsync({ id: part.id, body: { ...v, version: part.version } }) : await save.mutateAsync({ id: null, body: v });
+        onDone(saved);
+      },
+      (err) => {
+        if (!(isApiError(err) && err.code === 'stale_version')) return false;
         setSummary('Someone else changed this part while you were editing. Close the form and open it again to see their version.');
-        return;
-      }
-      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
-    }
-  });
+        return true;
+      },
+    ),
+  );
 
   const nullable = { setValueAs: (v: unknown) => (v === '' || v == null ? null : String(v)) };
 

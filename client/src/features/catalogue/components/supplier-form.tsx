@@ -7,7 +7,7 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { useSaveSupplier } from '../api/save-supplier';
 
 const LABELS = { name: 'Name', kind: 'What they do', email: 'E-mail', phone: 'Phone', notes: 'Notes' };
@@ -21,20 +21,23 @@ export function SupplierForm({ supplier, onDone }: { supplier: SupplierDto | nul
     defaultValues: { name: supplier?.name ?? '', kind: supplier?.kind ?? 'parts', email: supplier?.email ?? '', phone: supplier?.phone ?? '', notes: supplier?.notes ?? '' },
   });
   const e = formState.errors;
-  const submit = handleSubmit(async (v) => {
-    setSummary(null);
-    try {
-      if (supplier) await save.mutateAsync({ id: supplier.id, body: { ...v, active, version: supplier.version } });
-      else await save.mutateAsync({ id: null, body: v });
-      onDone();
-    } catch (err) {
-      if (isApiError(err) && err.code === 'stale_version') {
+  const submit = handleSubmit(
+    withServerErrors(
+      setError,
+      setSummary,
+      Object.keys(LABELS),
+      async (v) => {
+        if (supplier) await save.mutateAsync({ id: supplier.id, body: { ...v, active, version: supplier.version } });
+        else await save.mutateAsync({ id: null, body: v });
+        onDone();
+      },
+      (err) => {
+        if (!(isApiError(err) && err.code === 'stale_version')) return false;
         setSummary('Someone else changed this supplier while you were editing. Close the form and open it again to see their version.');
-        return;
-      }
-      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
-    }
-  });
+        return true;
+      },
+    ),
+  );
   return (
     <form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label={supplier ? `Edit ${supplier.name}` : 'Add a supplier'}>
       <FormErrorSummary message={summary} errors={e} labels={LABELS} />

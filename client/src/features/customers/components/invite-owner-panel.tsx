@@ -6,7 +6,7 @@ import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { FormErrorSummary, Notice } from '@/components/ui/notice';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { useInviteOwner } from '../api/invite-owner';
 
 // The shared invitation schema is a union keyed by role: its owner branch, minus what this panel
@@ -23,15 +23,12 @@ export function InviteOwnerPanel({ customer }: { customer: CustomerDto }) {
     defaultValues: { email: customer.email, name: customer.name },
   });
 
-  const submit = handleSubmit(async (values) => {
-    setSummary(null);
-    try {
+  const submit = handleSubmit(
+    withServerErrors(setError, setSummary, Object.keys(LABELS), async (values) => {
       await invite.mutateAsync(values);
       setSentTo(values.email);
-    } catch (e) {
-      setSummary(applyServerErrors(e, setError, Object.keys(LABELS)));
-    }
-  });
+    }),
+  );
 
   if (sentTo) {
     return (

@@ -6,7 +6,7 @@ import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { CategoryChoice } from './category-choice';
 
 type FormIn = z.input<typeof findingCreateSchema>;
@@ -52,14 +52,11 @@ export function FindingForm({
   const category = useWatch({ control, name: 'category' }) as FindingCategory | undefined;
   const e = formState.errors;
 
-  const submit = handleSubmit(async (v) => {
-    setSummary(null);
-    try {
+  const submit = handleSubmit(
+    withServerErrors(setError, setSummary, Object.keys(LABELS), async (v) => {
       await onSubmit(v);
-    } catch (err) {
-      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
-    }
-  });
+    }),
+  );
 
   return (
     <form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Raise finding">

@@ -6,7 +6,7 @@ import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { formatDate, formatHours, todayIso } from '@/lib/format';
 import { useLogTime } from '../api/record-work';
 
@@ -20,15 +20,12 @@ export function TimeLog({ jobId, entries, canLog }: { jobId: string; entries: Ti
     defaultValues: { hours: '', workedOn: todayIso(), note: '', findingId: null },
   });
   const e = formState.errors;
-  const submit = handleSubmit(async (v) => {
-    setSummary(null);
-    try {
+  const submit = handleSubmit(
+    withServerErrors(setError, setSummary, Object.keys(LABELS), async (v) => {
       await log.mutateAsync(v);
       reset({ hours: '', workedOn: v.workedOn, note: '', findingId: null });
-    } catch (err) {
-      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
-    }
-  });
+    }),
+  );
   return (
     <div className="flex flex-col gap-4">
       {canLog ? (

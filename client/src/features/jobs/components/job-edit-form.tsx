@@ -7,7 +7,7 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
-import { applyServerErrors } from '@/lib/form-errors';
+import { withServerErrors } from '@/lib/form-errors';
 import { useUpdateJob } from '../api/update-job';
 
 const LABELS = { title: 'Title', type: 'Kind of work', bookedInOn: 'Booked in on', dueOn: 'Due back', notes: 'Notes' };
@@ -22,19 +22,22 @@ export function JobEditForm({ job, onDone }: { job: JobDto; onDone: (notice?: st
   });
   const e = formState.errors;
 
-  const submit = handleSubmit(async (values) => {
-    setSummary(null);
-    try {
-      await update.mutateAsync(values);
-      onDone();
-    } catch (err) {
-      if (isApiError(err) && err.code === 'stale_version') {
+  const submit = handleSubmit(
+    withServerErrors(
+      setError,
+      setSummary,
+      Object.keys(LABELS),
+      async (values) => {
+        await update.mutateAsync(values);
+        onDone();
+      },
+      (err) => {
+        if (!(isApiError(err) && err.code === 'stale_version')) return false;
         onDone('Someone else changed this job while you were editing, so your change was not saved. The page now shows their version; make your change again.');
-        return;
-      }
-      setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
-    }
-  });
+        return true;
+      },
+    ),
+  );
 
   return (
     <form onSubmit={submit} noValidate className="flex flex-col gap-4">
