@@ -13,6 +13,7 @@ export * from './schemas/templates.js';
 export * from './schemas/findings.js';
 export * from './schemas/estimates.js';
 export * from './schemas/approvals.js';
+export * from './schemas/photos.js';
 export * from './checklist.js';
 // pricing engine (money.ts, pricing/) — exported below
 export * from './money.js';

@@ -239,7 +239,7 @@ export function buildSnapshot(p: {
         seen: f.seen,
         measuredValue: f.measuredValue,
         limit: f.limit,
-        photoIds: [],
+        photos: [],
         lines: mine.filter((l) => l.stage === 'discovered').map((l) => ({ description: l.description, kind: l.kind, quantity: l.quantity, net: pricedLine.get(l.id)?.net ?? '0.00' })),
         price: own.price,
         accessCovered: own.accessCovered.map((id) => tasks.find((t) => t.id === id)?.name ?? id),

@@ -65,6 +65,7 @@ function findingDto(f: Finding): FindingDto {
     raisedAt: f.raisedAt.toISOString(),
     rectifiedAt: f.rectifiedAt ? f.rectifiedAt.toISOString() : null,
     rectifiedByName: f.rectifier?.name ?? null,
+    photos: [],
     version: f.version,
   };
 }

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { decimalString, idSchema, optionalText } from './common.js';
 import type { FindingCategory } from './findings.js';
 import type { ChecklistLimit } from './templates.js';
+import type { SnapshotPhoto } from './photos.js';
 import type { LineKind, Totals } from '../pricing/types.js';
 import type { ApprovalRequestState } from '../states.js';
 
@@ -63,8 +64,8 @@ export interface ApprovalSnapshot {
     seen: string;
     measuredValue: string | null;
     limit: ChecklistLimit | null;
-    /** Photo ids; empty until photos arrive. */
-    photoIds: string[];
+    /** The finding's photos at sending, oldest first (a snapshot stored before photos existed may lack it: read as []). */
+    photos: SnapshotPhoto[];
     lines: { description: string; kind: LineKind; quantity: string; net: string }[];
     /** Its price on its own incl. any access work nothing committed already pays for. */
     price: Totals;

@@ -2,6 +2,7 @@ import Decimal from 'decimal.js';
 import { z } from 'zod';
 import { decimalString, idSchema, isoDate, optionalText } from './common.js';
 import type { ChecklistLimit } from './templates.js';
+import type { FindingPhotoDto } from './photos.js';
 
 /** The trade's three categories (product brief, "Findings and approvals"). */
 export const FINDING_CATEGORIES = ['airworthiness', 'recommended', 'advisory'] as const;
@@ -84,6 +85,8 @@ export interface FindingDto {
   raisedAt: string;
   rectifiedAt: string | null;
   rectifiedByName: string | null;
+  /** Photos not removed, oldest first. */
+  photos: FindingPhotoDto[];
   version: number;
 }
 

@@ -22,6 +22,7 @@ const finding = (id: string, number: string, category: FindingDto['category'], s
   raisedAt: '2026-11-30T10:00:00Z',
   rectifiedAt: null,
   rectifiedByName: null,
+  photos: [],
   version: 1,
 });
 const A = finding('7c1e2a3b-4d5e-4f60-8a9b-0c1d2e3f4a5b', 'F-1', 'recommended');

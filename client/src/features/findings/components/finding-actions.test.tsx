@@ -21,6 +21,7 @@ const finding: FindingDto = {
   raisedAt: '2026-11-30T10:00:00Z',
   rectifiedAt: null,
   rectifiedByName: null,
+  photos: [],
   version: 4,
 };
 
