@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatDate, formatMoney, todayIso } from './format';
+import { formatDate, formatMoney, moneyForInput, todayIso } from './format';
 
 describe('formatMoney', () => {
   it('shows the currency, thousands separators, pence and the VAT basis', () => {
@@ -25,5 +25,14 @@ describe('dates', () => {
 
   it('writes today as an ISO calendar date', () => {
     expect(todayIso(new Date(2026, 0, 5))).toBe('2026-01-05');
+  });
+});
+
+describe('moneyForInput', () => {
+  it('shows a stored four-decimal amount with two decimals unless more are meaningful', () => {
+    expect(moneyForInput('11.4000')).toBe('11.40');
+    expect(moneyForInput('0.1250')).toBe('0.125');
+    expect(moneyForInput('12')).toBe('12.00');
+    expect(moneyForInput('3.1416')).toBe('3.1416');
   });
 });

@@ -40,6 +40,16 @@ export function formatHours(h: string): string {
   return `${h.replace(/\.0+$/, '')} h`;
 }
 
+/**
+ * A stored money amount ready to edit: at least two decimals, no trailing zeros beyond them.
+ * "11.4000" → "11.40", "0.1250" → "0.125", "12" → "12.00". String work only: no float.
+ */
+export function moneyForInput(v: string): string {
+  const [whole, frac = ''] = v.split('.');
+  const kept = frac.replace(/0+$/, '').padEnd(2, '0');
+  return `${whole}.${kept}`;
+}
+
 /** "0.9700" → "0.97", "12.0000" → "12": measurements are stored with four decimals but read as taken. */
 export function trimDecimal(v: string): string {
   return v.includes('.') ? v.replace(/0+$/, '').replace(/\.$/, '') : v;

@@ -8,7 +8,7 @@ import { SelectField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
 import { withServerErrors } from '@/lib/form-errors';
-import { formatMoney } from '@/lib/format';
+import { formatMoney, moneyForInput } from '@/lib/format';
 import { partSellPrice, vatRateLabel } from '@/lib/pricing-preview';
 import { useSavePart } from '../api/save-part';
 
@@ -36,8 +36,8 @@ export function PartForm({ part, suppliers, pricing, onDone }: { part: PartDto |
     defaultValues: {
       partNumber: part?.partNumber ?? '',
       description: part?.description ?? '',
-      unitCost: part?.unitCost ?? '',
-      unitPrice: part?.unitPrice ?? null,
+      unitCost: part ? moneyForInput(part.unitCost) : '',
+      unitPrice: part?.unitPrice ? moneyForInput(part.unitPrice) : null,
       markupPercent: part?.markupPercent ?? null,
       vatRate: part?.vatRate ?? 'standard',
       supplierId: part?.supplierId ?? null,

@@ -15,7 +15,7 @@ import { Button } from '@/components/ui/button';
 import { CategoryBadge } from '@/components/ui/finding-badges';
 import { CrossIcon } from '@/components/ui/icons';
 import { Notice } from '@/components/ui/notice';
-import { formatMoney } from '@/lib/format';
+import { formatMoney, moneyForInput } from '@/lib/format';
 import { LINE_KIND_LABELS, STAGE_LABELS } from '@/lib/line-kinds';
 import { VAT_RATE_LABELS } from '@/lib/pricing-preview';
 import { EstimateTotals } from './estimate-totals';
@@ -64,8 +64,8 @@ function partLine(stage: 'inspection' | 'discovered', part: PartDto): EstimateLi
     description: `${part.partNumber} ${part.description}`.slice(0, 300),
     partId: part.id,
     supplierId: part.supplierId,
-    unitCost: part.unitCost,
-    unitPrice: part.unitPrice,
+    unitCost: moneyForInput(part.unitCost),
+    unitPrice: part.unitPrice ? moneyForInput(part.unitPrice) : null,
     markupPercent: part.markupPercent,
     vatRate: part.vatRate,
   };
