@@ -255,6 +255,21 @@ describe('role × route matrix', () => {
     expect(new Set(all.body.items.map((u: { role: string }) => u.role))).toEqual(new Set(['admin', 'manager', 'engineer', 'accounts', 'owner']));
   });
 
+  it('when the list asks for one kind of sign-in, then staff and owners are kept apart, and a manager asking for staff sees none', async () => {
+    const roles = (items: { role: string }[]) => new Set(items.map((u) => u.role));
+    const staff = await clients.admin.get('/api/users?pageSize=100&kind=staff');
+    expect(staff.status).toBe(200);
+    expect(roles(staff.body.items)).toEqual(new Set(['admin', 'manager', 'engineer', 'accounts']));
+    const owners = await clients.admin.get('/api/users?pageSize=100&kind=owners');
+    expect(roles(owners.body.items)).toEqual(new Set(['owner']));
+    const managerStaff = await clients.manager.get('/api/users?pageSize=100&kind=staff');
+    expect(managerStaff.status).toBe(200);
+    expect(managerStaff.body.items).toEqual([]);
+    const bad = await clients.admin.get('/api/users?kind=pilots');
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.kind).toMatch(/staff, owners or all/);
+  });
+
   it('when a manager tries to re-send a staff invitation, then it is out of their sight (404) while an admin may', async () => {
     const pending = await User.create({ workshopId: a.workshop.id, email: `pending-staff-${uniq()}@test.example`, name: 'Pending Staff', role: 'engineer', passwordHash: null, customerId: null });
     expect((await clients.manager.post(`/api/users/${pending.id}/resend-invitation`)).status).toBe(404);

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { idParamsSchema, invitationCreateSchema, listQuerySchema, userUpdateSchema } from '@wingstage/shared';
+import { idParamsSchema, invitationCreateSchema, userListQuerySchema, userUpdateSchema } from '@wingstage/shared';
 import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validParams, validQuery, validate } from '../middleware/validate.js';
 import type { Deps } from '../services/deps.js';
@@ -8,8 +8,8 @@ import * as users from '../services/users.service.js';
 export function usersRoutes(deps: Deps): Router {
   const { config } = deps;
   const router = Router();
-  router.get('/', authorize(config, 'admin', 'manager'), validate({ query: listQuerySchema }), async (req, res) => {
-    res.json(await users.listUsers(scopeOf(req), validQuery(req, listQuerySchema)));
+  router.get('/', authorize(config, 'admin', 'manager'), validate({ query: userListQuerySchema }), async (req, res) => {
+    res.json(await users.listUsers(scopeOf(req), validQuery(req, userListQuerySchema)));
   });
   router.post('/invitations', authorize(config, 'admin', 'manager'), validate({ body: invitationCreateSchema }), async (req, res) => {
     res.status(201).json(await users.inviteUser(deps, scopeOf(req), validBody(req, invitationCreateSchema)));

@@ -1,6 +1,6 @@
 import { Op, type WhereOptions } from 'sequelize';
-import type { InvitationCreateInput, ListQuery, Page, UserDto, UserUpdateInput } from '@wingstage/shared';
-import { isStaff } from '@wingstage/shared';
+import type { InvitationCreateInput, Page, UserDto, UserListQuery, UserUpdateInput } from '@wingstage/shared';
+import { STAFF_ROLES, isStaff } from '@wingstage/shared';
 import { AppError, conflict, forbidden, notFound } from '../errors/app-error.js';
 import { newOneTimeToken } from '../lib/session-tokens.js';
 import { invitationMail } from '../mail/templates.js';
@@ -15,12 +15,14 @@ import { inWorkshop, type Scope } from './scope.js';
 /** Admins manage every sign-in; managers manage owners' sign-ins only. */
 function visibleUsers(scope: Scope, where: WhereOptions<User> = {}): WhereOptions<User> {
   if (scope.role === 'admin') return inWorkshop(scope, where);
-  if (scope.role === 'manager') return inWorkshop(scope, { ...(where as object), role: 'owner' });
+  if (scope.role === 'manager') return inWorkshop(scope, { [Op.and]: [where, { role: 'owner' }] } as WhereOptions<User>);
   throw forbidden();
 }
 
-export async function listUsers(scope: Scope, q: ListQuery): Promise<Page<UserDto>> {
+export async function listUsers(scope: Scope, q: UserListQuery): Promise<Page<UserDto>> {
   const where: Record<string | symbol, unknown> = {};
+  if (q.kind === 'staff') where.role = { [Op.in]: [...STAFF_ROLES] };
+  if (q.kind === 'owners') where.role = 'owner';
   if (q.q) {
     const like = likePattern(q.q);
     where[Op.or] = [{ name: { [Op.iLike]: like } }, { email: { [Op.iLike]: like } }];

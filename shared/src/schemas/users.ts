@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { ROLES, STAFF_ROLES, type Role } from '../roles.js';
-import { emailSchema, idSchema } from './common.js';
+import { emailSchema, idSchema, listQuerySchema } from './common.js';
 
 export interface UserDto {
   id: string;
@@ -37,6 +37,14 @@ export const invitationCreateSchema = z.discriminatedUnion('role', [
   }),
 ]);
 export type InvitationCreateInput = z.infer<typeof invitationCreateSchema>;
+
+/** Which sign-ins a list shows: the workshop's staff, owners, or both. */
+export const USER_KINDS = ['staff', 'owners', 'all'] as const;
+export type UserKind = (typeof USER_KINDS)[number];
+export const userListQuerySchema = listQuerySchema.extend({
+  kind: z.enum(USER_KINDS, { message: 'kind is staff, owners or all.' }).optional().default('all'),
+});
+export type UserListQuery = z.output<typeof userListQuerySchema>;
 
 export const userUpdateSchema = z
   .object({
