@@ -1,24 +1,52 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { JOB_TYPES, JOB_TYPE_LABELS, jobUpdateSchema, type JobDto } from '@wingstage/shared';
+import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
-import { FormErrorSummary } from '@/components/ui/notice';
+import { FormErrorSummary, Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
+import { formatDate, formatDateTime } from '@/lib/format';
 import { withServerErrors } from '@/lib/form-errors';
+import { jobQueryOptions } from '../api/get-job';
 import { useUpdateJob } from '../api/update-job';
 
 const LABELS = { title: 'Title', type: 'Kind of work', bookedInOn: 'Booked in on', dueOn: 'Due back', notes: 'Notes' };
+type Editable = keyof typeof LABELS;
+type FormIn = z.input<typeof jobUpdateSchema>;
 
-/** Edits carry the version the person started from; a newer save by someone else is refused. */
+/** How one field reads to a person, for the "their version" list. */
+function shown(field: Editable, v: string | null | undefined): string {
+  if (v === null || v === undefined || v === '') return '(empty)';
+  if (field === 'type') return JOB_TYPE_LABELS[v as JobDto['type']] ?? v;
+  if (field === 'bookedInOn' || field === 'dueOn') return formatDate(v);
+  return v;
+}
+
+/** The fields where the other person's saved job differs from what this person started from. */
+export function changedByOthers(started: JobDto, theirs: JobDto): { field: Editable; label: string; value: string }[] {
+  return (Object.keys(LABELS) as Editable[])
+    .filter((f) => (started[f] ?? null) !== (theirs[f] ?? null))
+    .map((f) => ({ field: f, label: LABELS[f], value: shown(f, theirs[f]) }));
+}
+
+/**
+ * Edits carry the version the person started from. When someone else saved first, nothing typed
+ * is lost: the form stays open with this person's changes, lists what the other person changed,
+ * and lets them save theirs over it on purpose or drop theirs and take the saved job.
+ */
 export function JobEditForm({ job, onDone }: { job: JobDto; onDone: (notice?: string) => void }) {
   const [summary, setSummary] = useState<string | null>(null);
+  const [started, setStarted] = useState(job);
+  const [theirs, setTheirs] = useState<JobDto | null>(null);
   const update = useUpdateJob(job.id);
-  const { register, handleSubmit, setError, formState } = useForm<z.input<typeof jobUpdateSchema>, unknown, z.output<typeof jobUpdateSchema>>({
+  const qc = useQueryClient();
+  const valuesOf = (j: JobDto): FormIn => ({ version: j.version, title: j.title, type: j.type, bookedInOn: j.bookedInOn, dueOn: j.dueOn, notes: j.notes });
+  const { register, handleSubmit, setError, setValue, reset, formState } = useForm<FormIn, unknown, z.output<typeof jobUpdateSchema>>({
     resolver: zodResolver(jobUpdateSchema),
-    defaultValues: { version: job.version, title: job.title, type: job.type, bookedInOn: job.bookedInOn, dueOn: job.dueOn, notes: job.notes },
+    defaultValues: valuesOf(job),
   });
   const e = formState.errors;
 
@@ -33,15 +61,55 @@ export function JobEditForm({ job, onDone }: { job: JobDto; onDone: (notice?: st
       },
       (err) => {
         if (!(isApiError(err) && err.code === 'stale_version')) return false;
-        onDone('Someone else changed this job while you were editing, so your change was not saved. The page now shows their version; make your change again.');
+        void qc.fetchQuery({ ...jobQueryOptions(job.id), staleTime: 0 }).then(
+          (latest) => {
+            setTheirs(latest);
+            // The next save is a deliberate "mine over theirs", so it carries their version.
+            setValue('version', latest.version);
+          },
+          () => setSummary('Someone else changed this job, and their version could not be loaded. Your changes are still here; try Save changes again.'),
+        );
         return true;
       },
     ),
   );
 
+  const takeTheirs = () => {
+    if (!theirs) return;
+    reset(valuesOf(theirs));
+    setStarted(theirs);
+    setTheirs(null);
+  };
+  const differences = theirs ? changedByOthers(started, theirs) : [];
+
   return (
     <form onSubmit={submit} noValidate className="flex flex-col gap-4">
       <FormErrorSummary message={summary} errors={e} labels={LABELS} />
+      {theirs ? (
+        <Notice tone="problem" title="Someone else changed this job while you were editing">
+          <p>Your changes are still in the form below and have not been saved.</p>
+          {differences.length > 0 ? (
+            <>
+              <p className="mt-1">What they saved (at {formatDateTime(theirs.updatedAt)}):</p>
+              <ul className="mt-1 list-disc pl-5" data-testid="their-changes">
+                {differences.map((d) => (
+                  <li key={d.field}>
+                    {d.label}: <strong>{d.value}</strong>
+                  </li>
+                ))}
+              </ul>
+            </>
+          ) : (
+            <p className="mt-2">Their save did not change these fields (it may have moved the job on).</p>
+          )}
+          <p className="mt-2">Press Save changes to save yours over theirs, or take their version and start again.</p>
+          <div className="mt-3">
+            <Button variant="secondary" onClick={takeTheirs}>
+              Take their version
+            </Button>
+          </div>
+        </Notice>
+      ) : null}
       <TextField label={LABELS.title} required error={e.title?.message} {...register('title')} />
       <SelectField label={LABELS.type} error={e.type?.message} {...register('type')}>
         {JOB_TYPES.map((t) => (
