@@ -1,11 +1,12 @@
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { Notice } from '@/components/ui/notice';
+import { changedFields, TheirChangesNotice } from '@/components/ui/their-changes';
+import type { AircraftDto } from '@wingstage/shared';
 import { PageHeader } from '@/components/ui/page';
 import { aircraftQueryOptions } from '@/features/aircraft/api/get-aircraft';
 import { useUpdateAircraft } from '@/features/aircraft/api/update-aircraft';
-import { AircraftForm } from '@/features/aircraft/components/aircraft-form';
+import { AIRCRAFT_LABELS, AircraftForm } from '@/features/aircraft/components/aircraft-form';
 import { aircraftKeys } from '@/features/aircraft/api/keys';
 import { ALL_OWNERS, customersQueryOptions } from '@/features/customers/api/get-customers';
 import { isApiError } from '@/lib/api-client';
@@ -24,23 +25,35 @@ export function Component() {
   const { data: aircraft } = useSuspenseQuery(aircraftQueryOptions(id));
   const { data: owners } = useSuspenseQuery(customersQueryOptions(ALL_OWNERS));
   const update = useUpdateAircraft(id);
+  // What the form was filled from; a refused save compares it with what is saved now.
+  const [started, setStarted] = useState<AircraftDto>(aircraft);
   const [stale, setStale] = useState(false);
+  const [formKey, setFormKey] = useState(0);
   return (
     <>
       <PageHeader title={`Edit ${aircraft.registration}`} back={{ to: `/aircraft/${id}`, label: aircraft.registration }} />
-      {stale ? (
+      {stale && aircraft.version !== started.version ? (
         <div className="mb-4 max-w-2xl">
-          <Notice tone="problem" title="Not saved">Someone else changed this aircraft while you were editing. The form now shows their version; make your change again.</Notice>
+          <TheirChangesNotice
+            what="aircraft"
+            changes={changedFields<AircraftDto>(started, aircraft, AIRCRAFT_LABELS, (f, v) => (f === 'customerId' ? aircraft.customerName : String(v)))}
+            onTakeTheirs={() => {
+              setStarted(aircraft);
+              setStale(false);
+              setFormKey((k) => k + 1);
+            }}
+          />
         </div>
       ) : null}
       <AircraftForm
-        key={aircraft.version}
+        key={formKey}
         initial={aircraft}
         owners={owners.items}
         submitLabel="Save changes"
         cancelTo={`/aircraft/${id}`}
         onSubmit={async (v) => {
           try {
+            // After a refused save, this is their version: saving again goes over it on purpose.
             await update.mutateAsync({ ...v, version: aircraft.version });
             await navigate(`/aircraft/${id}`);
           } catch (e) {

@@ -8,7 +8,7 @@ import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { withServerErrors } from '@/lib/form-errors';
 
-const LABELS = {
+export const AIRCRAFT_LABELS = {
   customerId: 'Owner',
   registration: 'Registration',
   type: 'Type',
@@ -51,15 +51,15 @@ export function AircraftForm({
   const e = formState.errors;
 
   const submit = handleSubmit(
-    withServerErrors(setError, setSummary, Object.keys(LABELS), async (values) => {
+    withServerErrors(setError, setSummary, Object.keys(AIRCRAFT_LABELS), async (values) => {
       await onSubmit(values);
     }),
   );
 
   return (
     <form onSubmit={submit} noValidate className="flex max-w-2xl flex-col gap-4">
-      <FormErrorSummary message={summary} errors={e} labels={LABELS} />
-      <SelectField label={LABELS.customerId} required error={e.customerId ? 'Choose the owner.' : undefined} {...register('customerId')}>
+      <FormErrorSummary message={summary} errors={e} labels={AIRCRAFT_LABELS} />
+      <SelectField label={AIRCRAFT_LABELS.customerId} required error={e.customerId ? 'Choose the owner.' : undefined} {...register('customerId')}>
         <option value="">Choose the owner…</option>
         {owners.map((o) => (
           <option key={o.id} value={o.id}>
@@ -68,16 +68,16 @@ export function AircraftForm({
         ))}
       </SelectField>
       <div className="grid gap-4 sm:grid-cols-2">
-        <TextField label={LABELS.registration} required autoCapitalize="characters" autoComplete="off" hint="For example Q-BRKA." error={e.registration?.message} {...register('registration')} />
-        <TextField label={LABELS.serial} autoComplete="off" error={e.serial?.message} {...register('serial')} />
+        <TextField label={AIRCRAFT_LABELS.registration} required autoCapitalize="characters" autoComplete="off" hint="For example Q-BRKA." error={e.registration?.message} {...register('registration')} />
+        <TextField label={AIRCRAFT_LABELS.serial} autoComplete="off" error={e.serial?.message} {...register('serial')} />
       </div>
-      <TextField label={LABELS.type} required autoComplete="off" hint="As the workshop describes it, e.g. three-axis high-wing microlight." error={e.type?.message} {...register('type')} />
-      <TextField label={LABELS.engine} autoComplete="off" error={e.engine?.message} {...register('engine')} />
+      <TextField label={AIRCRAFT_LABELS.type} required autoComplete="off" hint="As the workshop describes it, e.g. three-axis high-wing microlight." error={e.type?.message} {...register('type')} />
+      <TextField label={AIRCRAFT_LABELS.engine} autoComplete="off" error={e.engine?.message} {...register('engine')} />
       <div className="grid gap-4 sm:grid-cols-2">
-        <TextField label={LABELS.airframeHours} inputMode="decimal" autoComplete="off" error={e.airframeHours?.message} {...register('airframeHours')} />
-        <TextField label={LABELS.engineHours} inputMode="decimal" autoComplete="off" error={e.engineHours?.message} {...register('engineHours')} />
+        <TextField label={AIRCRAFT_LABELS.airframeHours} inputMode="decimal" autoComplete="off" error={e.airframeHours?.message} {...register('airframeHours')} />
+        <TextField label={AIRCRAFT_LABELS.engineHours} inputMode="decimal" autoComplete="off" error={e.engineHours?.message} {...register('engineHours')} />
       </div>
-      <TextAreaField label={LABELS.notes} rows={3} error={e.notes?.message} {...register('notes')} />
+      <TextAreaField label={AIRCRAFT_LABELS.notes} rows={3} error={e.notes?.message} {...register('notes')} />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" busy={formState.isSubmitting}>
           {submitLabel}

@@ -8,7 +8,7 @@ import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { withServerErrors } from '@/lib/form-errors';
 
-const LABELS = { name: 'Name', kind: 'Kind of owner', email: 'E-mail', phone: 'Phone', addressLines: 'Address', postcode: 'Postcode', notes: 'Notes' };
+export const CUSTOMER_LABELS = { name: 'Name', kind: 'Kind of owner', email: 'E-mail', phone: 'Phone', addressLines: 'Address', postcode: 'Postcode', notes: 'Notes' };
 
 export function CustomerForm({
   initial,
@@ -37,16 +37,16 @@ export function CustomerForm({
   const e = formState.errors;
 
   const submit = handleSubmit(
-    withServerErrors(setError, setSummary, Object.keys(LABELS), async (values) => {
+    withServerErrors(setError, setSummary, Object.keys(CUSTOMER_LABELS), async (values) => {
       await onSubmit(values);
     }),
   );
 
   return (
     <form onSubmit={submit} noValidate className="flex max-w-2xl flex-col gap-4">
-      <FormErrorSummary message={summary} errors={e} labels={LABELS} />
-      <TextField label={LABELS.name} required autoComplete="off" error={e.name?.message} {...register('name')} />
-      <SelectField label={LABELS.kind} error={e.kind?.message} {...register('kind')}>
+      <FormErrorSummary message={summary} errors={e} labels={CUSTOMER_LABELS} />
+      <TextField label={CUSTOMER_LABELS.name} required autoComplete="off" error={e.name?.message} {...register('name')} />
+      <SelectField label={CUSTOMER_LABELS.kind} error={e.kind?.message} {...register('kind')}>
         {CUSTOMER_KINDS.map((k) => (
           <option key={k} value={k}>
             {CUSTOMER_KIND_LABELS[k]}
@@ -54,12 +54,12 @@ export function CustomerForm({
         ))}
       </SelectField>
       <div className="grid gap-4 sm:grid-cols-2">
-        <TextField label={LABELS.email} type="email" inputMode="email" required autoComplete="off" error={e.email?.message} {...register('email')} />
-        <TextField label={LABELS.phone} type="tel" inputMode="tel" autoComplete="off" error={e.phone?.message} {...register('phone')} />
+        <TextField label={CUSTOMER_LABELS.email} type="email" inputMode="email" required autoComplete="off" error={e.email?.message} {...register('email')} />
+        <TextField label={CUSTOMER_LABELS.phone} type="tel" inputMode="tel" autoComplete="off" error={e.phone?.message} {...register('phone')} />
       </div>
-      <TextAreaField label={LABELS.addressLines} rows={3} error={e.addressLines?.message} {...register('addressLines')} />
-      <TextField label={LABELS.postcode} className="sm:max-w-40" autoComplete="off" error={e.postcode?.message} {...register('postcode')} />
-      <TextAreaField label={LABELS.notes} rows={3} error={e.notes?.message} {...register('notes')} />
+      <TextAreaField label={CUSTOMER_LABELS.addressLines} rows={3} error={e.addressLines?.message} {...register('addressLines')} />
+      <TextField label={CUSTOMER_LABELS.postcode} className="sm:max-w-40" autoComplete="off" error={e.postcode?.message} {...register('postcode')} />
+      <TextAreaField label={CUSTOMER_LABELS.notes} rows={3} error={e.notes?.message} {...register('notes')} />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" busy={formState.isSubmitting}>
           {submitLabel}

@@ -6,9 +6,10 @@ import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
-import { FormErrorSummary, Notice } from '@/components/ui/notice';
+import { FormErrorSummary } from '@/components/ui/notice';
+import { changedFields, TheirChangesNotice } from '@/components/ui/their-changes';
 import { isApiError } from '@/lib/api-client';
-import { formatDate, formatDateTime } from '@/lib/format';
+import { formatDate } from '@/lib/format';
 import { withServerErrors } from '@/lib/form-errors';
 import { jobQueryOptions } from '../api/get-job';
 import { useUpdateJob } from '../api/update-job';
@@ -17,20 +18,15 @@ const LABELS = { title: 'Title', type: 'Kind of work', bookedInOn: 'Booked in on
 type Editable = keyof typeof LABELS;
 type FormIn = z.input<typeof jobUpdateSchema>;
 
-/** How one field reads to a person, for the "their version" list. */
-function shown(field: Editable, v: string | null | undefined): string {
-  if (v === null || v === undefined || v === '') return '(empty)';
-  if (field === 'type') return JOB_TYPE_LABELS[v as JobDto['type']] ?? v;
-  if (field === 'bookedInOn' || field === 'dueOn') return formatDate(v);
-  return v;
+/** How one field reads to a person, for the "what they saved" list. */
+function shown(field: Editable, v: unknown): string {
+  if (field === 'type') return JOB_TYPE_LABELS[v as JobDto['type']] ?? String(v);
+  if (field === 'bookedInOn' || field === 'dueOn') return formatDate(String(v));
+  return String(v);
 }
 
 /** The fields where the other person's saved job differs from what this person started from. */
-export function changedByOthers(started: JobDto, theirs: JobDto): { field: Editable; label: string; value: string }[] {
-  return (Object.keys(LABELS) as Editable[])
-    .filter((f) => (started[f] ?? null) !== (theirs[f] ?? null))
-    .map((f) => ({ field: f, label: LABELS[f], value: shown(f, theirs[f]) }));
-}
+export const changedByOthers = (started: JobDto, theirs: JobDto) => changedFields<JobDto>(started, theirs, LABELS, (f, v) => shown(f as Editable, v));
 
 /**
  * Edits carry the version the person started from. When someone else saved first, nothing typed
@@ -80,36 +76,11 @@ export function JobEditForm({ job, onDone }: { job: JobDto; onDone: (notice?: st
     setStarted(theirs);
     setTheirs(null);
   };
-  const differences = theirs ? changedByOthers(started, theirs) : [];
 
   return (
     <form onSubmit={submit} noValidate className="flex flex-col gap-4">
       <FormErrorSummary message={summary} errors={e} labels={LABELS} />
-      {theirs ? (
-        <Notice tone="problem" title="Someone else changed this job while you were editing">
-          <p>Your changes are still in the form below and have not been saved.</p>
-          {differences.length > 0 ? (
-            <>
-              <p className="mt-1">What they saved (at {formatDateTime(theirs.updatedAt)}):</p>
-              <ul className="mt-1 list-disc pl-5" data-testid="their-changes">
-                {differences.map((d) => (
-                  <li key={d.field}>
-                    {d.label}: <strong>{d.value}</strong>
-                  </li>
-                ))}
-              </ul>
-            </>
-          ) : (
-            <p className="mt-2">Their save did not change these fields (it may have moved the job on).</p>
-          )}
-          <p className="mt-2">Press Save changes to save yours over theirs, or take their version and start again.</p>
-          <div className="mt-3">
-            <Button variant="secondary" onClick={takeTheirs}>
-              Take their version
-            </Button>
-          </div>
-        </Notice>
-      ) : null}
+      {theirs ? <TheirChangesNotice what="job" changes={changedByOthers(started, theirs)} savedAt={theirs.updatedAt} onTakeTheirs={takeTheirs} /> : null}
       <TextField label={LABELS.title} required error={e.title?.message} {...register('title')} />
       <SelectField label={LABELS.type} error={e.type?.message} {...register('type')}>
         {JOB_TYPES.map((t) => (
