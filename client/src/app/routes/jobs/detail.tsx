@@ -96,7 +96,6 @@ export function Component() {
             ) : null}
             {editing ? (
               <JobEditForm
-                key={job.version}
                 job={job}
                 onDone={(n) => {
                   setEditing(false);
