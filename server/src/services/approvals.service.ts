@@ -210,6 +210,9 @@ export function buildSnapshot(p: {
   const pricing = pricingOf(w);
   const inRequest = new Set(p.findings.map((f) => f.id));
   const pricedLine = new Map(priced.lines.map((l) => [l.id, l]));
+  // The access tasks this request's lines need, with the engine's own price for each.
+  const named = new Set(lines.filter((l) => l.stage === 'discovered' && l.findingId !== null && inRequest.has(l.findingId) && l.accessTaskId !== null).map((l) => l.accessTaskId));
+  const needed = priced.accessTasks.filter((t) => named.has(t.id));
   return {
     requestId: p.requestId,
     jobId: p.job.id,
@@ -240,12 +243,20 @@ export function buildSnapshot(p: {
         measuredValue: f.measuredValue,
         limit: f.limit,
         photos: [],
-        lines: mine.filter((l) => l.stage === 'discovered').map((l) => ({ description: l.description, kind: l.kind, quantity: l.quantity, net: pricedLine.get(l.id)?.net ?? '0.00' })),
+        lines: mine
+          .filter((l) => l.stage === 'discovered')
+          .map((l) => ({ description: l.description, kind: l.kind, quantity: l.quantity, net: pricedLine.get(l.id)?.net ?? '0.00', vatRate: l.vatRate, accessTaskId: l.accessTaskId })),
         price: own.price,
         accessCovered: own.accessCovered.map((id) => tasks.find((t) => t.id === id)?.name ?? id),
         accessSavingGross: saving,
       };
     }),
+    pricingBasis: {
+      vatRates: { ...pricing.vatRates },
+      accessTasks: needed.map((t) => ({ id: t.id, name: tasks.find((x) => x.id === t.id)?.name ?? t.id, net: t.net, vatRate: t.vatRate })),
+      // Inspection scope and approved work are charged first (the engine's stage order), so these never count here.
+      accessPaid: needed.filter((t) => t.chargedIn === 'inspection' || t.chargedIn === 'approved').map((t) => t.id),
+    },
     totals: {
       quoted: priced.quoted,
       approvedSoFar: priced.committed,

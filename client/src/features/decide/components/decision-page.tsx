@@ -441,7 +441,7 @@ function RunningTotalBar({ currency, totals: t }: { currency: string; totals: Re
           <span>New total, incl. VAT</span> <span data-total="new-total">{m(t.newTotal)}</span>
         </p>
       </div>
-      {t.sharesOpeningUp && t.chosen > 0 && t.chosen < t.of ? (
+      {!t.exact && t.sharesOpeningUp && t.chosen > 0 && t.chosen < t.of ? (
         <p className="mx-auto max-w-xl pt-1 text-xs text-slate-soft">Some findings share opening-up work, charged once when approved together, so part-way figures may come out lower.</p>
       ) : null}
       <p className="sr-only" aria-live="polite">
