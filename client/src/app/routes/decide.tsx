@@ -22,6 +22,7 @@ export function Component() {
         {page.data ? (
           <DecisionPage
             page={page.data}
+            token={token}
             submitting={submit.isPending}
             onSubmit={(body) => submit.mutateAsync(body)}
             onReload={() => void qc.invalidateQueries({ queryKey: decideKeys.page(token) })}

@@ -14,12 +14,15 @@ import { CheckIcon, CrossIcon } from '@/components/ui/icons';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
 import { formatDateTime, trimDecimal, formatMoney } from '@/lib/format';
+import { FindingPhotos } from './finding-photos';
 import { accessSavingWords, declinedAirworthinessWords, runningTotal, type Choices } from './running-total';
 
 type SnapshotFinding = ApprovalSnapshot['findings'][number];
 
 export interface DecisionPageProps {
   page: DecisionPageDto;
+  /** The link's token: the page's photos are fetched through it. */
+  token: string;
   /** Sends the owner's decisions; resolves with the page as the server now holds it. */
   onSubmit: (body: { snapshotHash: string; decisions: { findingId: string; decision: Decision; note: string }[]; typedName: string }) => Promise<unknown>;
   submitting?: boolean;
@@ -34,12 +37,12 @@ const things = (n: number) => `${WORDS[n] ?? String(n)} ${n === 1 ? 'thing' : 't
  * The owner's decision page: a letter from the workshop, one finding at a time, with the running
  * total always in view, then a review of every choice and a typed-name confirmation.
  */
-export function DecisionPage({ page, onSubmit, submitting = false, onReload }: DecisionPageProps) {
+export function DecisionPage({ page, token, onSubmit, submitting = false, onReload }: DecisionPageProps) {
   const s = page.snapshot;
   if (page.state !== 'sent' || page.closedReason) {
     return page.decisions && page.decidedAt ? <Receipt page={page} /> : <Closed page={page} />;
   }
-  return <Deciding page={page} onSubmit={onSubmit} submitting={submitting} onReload={onReload} key={page.snapshotHash + s.requestId} />;
+  return <Deciding page={page} token={token} onSubmit={onSubmit} submitting={submitting} onReload={onReload} key={page.snapshotHash + s.requestId} />;
 }
 
 function Letterhead({ s, children }: { s: ApprovalSnapshot; children?: ReactNode }) {
@@ -57,7 +60,7 @@ function Letterhead({ s, children }: { s: ApprovalSnapshot; children?: ReactNode
   );
 }
 
-function Deciding({ page, onSubmit, submitting, onReload }: Required<Pick<DecisionPageProps, 'page' | 'onSubmit'>> & Pick<DecisionPageProps, 'submitting' | 'onReload'>) {
+function Deciding({ page, token, onSubmit, submitting, onReload }: Required<Pick<DecisionPageProps, 'page' | 'token' | 'onSubmit'>> & Pick<DecisionPageProps, 'submitting' | 'onReload'>) {
   const s = page.snapshot;
   const [step, setStep] = useState(0);
   const [choices, setChoices] = useState<Choices>({});
@@ -133,6 +136,7 @@ function Deciding({ page, onSubmit, submitting, onReload }: Required<Pick<Decisi
         <FindingStep
           key={s.findings[step]!.findingId}
           s={s}
+          token={token}
           index={step}
           finding={s.findings[step]!}
           choice={choices[s.findings[step]!.findingId]}
@@ -152,6 +156,7 @@ function Deciding({ page, onSubmit, submitting, onReload }: Required<Pick<Decisi
 
 function FindingStep({
   s,
+  token,
   index,
   finding: f,
   choice,
@@ -163,6 +168,7 @@ function FindingStep({
   last,
 }: {
   s: ApprovalSnapshot;
+  token: string;
   index: number;
   finding: SnapshotFinding;
   choice: Decision | undefined;
@@ -189,6 +195,7 @@ function FindingStep({
         </div>
         <p className="text-sm">{FINDING_CATEGORY_MEANINGS[f.category]}</p>
       </div>
+      <FindingPhotos token={token} photos={f.photos} number={f.number} title={f.title} />
       <dl className="flex flex-col gap-3">
         <div>
           <dt className="text-sm font-semibold text-slate-soft">Where</dt>
@@ -221,7 +228,6 @@ function FindingStep({
             </dd>
           </div>
         ) : null}
-        {/* Photos arrive in a later release: the snapshot already carries their ids. */}
       </dl>
       <div className="rounded-card border border-seam-strong bg-cloth-raised p-4" data-testid="decide-price">
         <p className="text-sm text-slate-soft">The price for this</p>
