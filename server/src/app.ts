@@ -116,15 +116,20 @@ export function createApp(parts: AppParts): Express {
   app.use('/api', apiNotFound);
 
   const indexHtml = path.join(config.CLIENT_DIST, 'index.html');
+  // The owner's decision page has its own light entry; a build without one falls back to the app.
+  const decideHtml = fs.existsSync(path.join(config.CLIENT_DIST, 'decide.html')) ? path.join(config.CLIENT_DIST, 'decide.html') : indexHtml;
   if (fs.existsSync(indexHtml)) {
-    // Vite names built assets by content hash, so they may be cached for good; the shell may not.
+    // Vite names built assets by content hash, so they may be cached for good; the pages may not.
     app.use('/assets', express.static(path.join(config.CLIENT_DIST, 'assets'), { immutable: true, maxAge: '365d', fallthrough: false }));
     app.use(express.static(config.CLIENT_DIST, { index: false, maxAge: '1h' }));
-    // Client-side routes: any other GET, the root included, gets the app shell.
-    app.get('/{*splat}', (_req, res) => {
+    const page = (file: string) => (_req: express.Request, res: express.Response) => {
       res.setHeader('Cache-Control', 'no-cache');
-      res.sendFile(indexHtml);
-    });
+      res.sendFile(file);
+    };
+    // The e-mailed link, /decide/<token>, opens the decision page on its own.
+    app.get('/decide/{*splat}', page(decideHtml));
+    // Client-side routes: any other GET, the root included, gets the app shell.
+    app.get('/{*splat}', page(indexHtml));
   } else {
     logger.warn({ dir: config.CLIENT_DIST }, 'no built client found; serving the API only');
   }

@@ -8,13 +8,13 @@ import {
 } from '@wingstage/shared';
 import { useId, useRef, useState, type ReactNode } from 'react';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
-import { Button } from '@/components/ui/button';
 import { CategoryBadge } from '@/components/ui/finding-badges';
 import { CheckIcon, CrossIcon } from '@/components/ui/icons';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
 import { formatDateTime, trimDecimal, formatMoney } from '@/lib/format';
 import { FindingPhotos } from './finding-photos';
+import { OwnerButton as Button } from './owner-button';
 import { accessSavingWords, declinedAirworthinessWords, runningTotal, type Choices } from './running-total';
 
 type SnapshotFinding = ApprovalSnapshot['findings'][number];
@@ -261,11 +261,11 @@ function FindingStep({
       </div>
       <nav aria-label="Findings" className="flex gap-3">
         {onBack ? (
-          <Button variant="secondary" size="lg" className="flex-1" onClick={onBack}>
+          <Button variant="secondary" className="flex-1" onClick={onBack}>
             ← Back
           </Button>
         ) : null}
-        <Button size="lg" className="flex-1" onClick={onNext}>
+        <Button className="flex-1" onClick={onNext}>
           {last ? 'Review your choices' : 'Next finding →'}
         </Button>
       </nav>
@@ -360,7 +360,7 @@ function Review({
             {notes[f.findingId]?.trim() ? <p className="text-sm">Your note: {notes[f.findingId]}</p> : null}
             {choices[f.findingId] === 'decline' && f.category === 'airworthiness' ? <p className="text-sm font-semibold">{declinedAirworthinessWords(s.registration)}</p> : null}
             <div>
-              <Button variant="quiet" size="lg" onClick={() => onEdit(i)}>
+              <Button variant="quiet" onClick={() => onEdit(i)}>
                 Change {f.number}
               </Button>
             </div>
@@ -371,7 +371,7 @@ function Review({
         <Notice tone="problem" title="Some findings have no decision yet">
           <p>Approve or decline every finding before confirming.</p>
           <div>
-            <Button variant="secondary" size="lg" onClick={() => onEdit(missing)}>
+            <Button variant="secondary" onClick={() => onEdit(missing)}>
               Go to {s.findings[missing]!.number}
             </Button>
           </div>
@@ -408,14 +408,14 @@ function Review({
           <p>{problem.message}</p>
           {problem.reload && onReload ? (
             <div>
-              <Button variant="secondary" size="lg" onClick={onReload}>
+              <Button variant="secondary" onClick={onReload}>
                 Reload this page
               </Button>
             </div>
           ) : null}
         </Notice>
       ) : null}
-      <Button size="lg" onClick={onConfirm} busy={submitting} disabled={missing >= 0}>
+      <Button onClick={onConfirm} busy={submitting} disabled={missing >= 0}>
         Confirm decisions
       </Button>
     </section>
