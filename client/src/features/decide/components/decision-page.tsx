@@ -534,14 +534,18 @@ function Closed({ page }: { page: DecisionPageDto }) {
   );
 }
 
-/** For a link the server does not know (typed wrong, cut short by a mail program). */
+/**
+ * For a link the server does not know: typed wrong, cut short by a mail program, or replaced when
+ * the workshop sent the request again (a re-sent request has a new link and the old one stops).
+ */
 export function UnknownLink() {
   return (
-    <article className="flex flex-col gap-3">
+    <article className="flex flex-col gap-3" data-testid="decision-unknown-link">
       <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">
-        We could not find this request
+        This link no longer opens a request
       </h1>
-      <p>The link may have been cut short by your e-mail program. Open it again from the e-mail, or ask the workshop to send a new one.</p>
+      <p>If the workshop sent you this request again, only the link in the newest e-mail works: open that one.</p>
+      <p>Otherwise the link may have been cut short by your e-mail program. Open it again from the e-mail, or ask the workshop to send a new one.</p>
     </article>
   );
 }
