@@ -198,6 +198,8 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     // Still open, F-2 without the cowling: 62.00 + 18.40 = 80.40 net, 96.48 incl. VAT.
     await expect(total('undecided')).toHaveText('£96.48');
     await phone.getByRole('button', { name: 'Next finding →' }).click();
+    // With F-1 approved, F-2 adds only its own work.
+    await expect(phone.getByTestId('decide-adds')).toContainText('this adds £96.48 incl. VAT');
     await phone.getByRole('radio', { name: /^Approve/ }).check();
     // Both, the cowling once: 204.40 net, 245.28 (not 148.80 + 208.08 = 356.88).
     await expect(total('this-request')).toHaveText('£245.28');
@@ -270,6 +272,8 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await phone.getByRole('radio', { name: /^Approve/ }).check();
     await expect(total('new-total')).toHaveText('£319.68'); // 74.40 quoted + 245.28
     await phone.getByRole('button', { name: 'Review your choices' }).click();
+    // 148.80 + 208.08 − 245.28.
+    await expect(phone.getByTestId('decide-shared-saving')).toContainText('£111.60 less than their prices added up');
     await phone.getByLabel('Type your full name to confirm').fill(OWNER_NAME);
     await shot(phone, testInfo, '09-owner-review-375');
     await phone.getByRole('button', { name: 'Confirm decisions' }).click();

@@ -330,6 +330,13 @@ describe('DecisionPage running total with a pricing basis', () => {
     expect(within(bar).getByText('£43.20', { selector: '[data-total="undecided"]' })).toBeTruthy();
     expect(within(bar).getByText('£611.93', { selector: '[data-total="new-total"]' })).toBeTruthy();
     expect(bar.textContent).not.toContain('may come out lower');
+    // F-2 with F-1 approved adds only its own work, and says why.
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    expect(screen.getByTestId('decide-adds').textContent).toContain('this adds £37.20 incl. VAT');
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    // 55.80 + 55.80 − 93.00.
+    expect(screen.getByTestId('decide-shared-saving').textContent).toMatch(/together they come to £93\.00 incl\. VAT, which is £18\.60 less/);
   });
 
   it('when an older snapshot is decided part-way with shared opening-up, then the note says the figures may come out lower', () => {

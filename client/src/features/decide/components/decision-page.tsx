@@ -1,4 +1,5 @@
 import {
+  compareAmounts,
   decisionSubmitSchema,
   describeLimit,
   FINDING_CATEGORY_MEANINGS,
@@ -15,7 +16,7 @@ import { isApiError } from '@/lib/api-client';
 import { formatDateTime, trimDecimal, formatMoney } from '@/lib/format';
 import { FindingPhotos } from './finding-photos';
 import { OwnerButton as Button } from './owner-button';
-import { accessSavingWords, declinedAirworthinessWords, runningTotal, type Choices } from './running-total';
+import { accessSavingWords, addsWithChoices, declinedAirworthinessWords, runningTotal, type Choices, type RunningTotal } from './running-total';
 
 type SnapshotFinding = ApprovalSnapshot['findings'][number];
 
@@ -120,6 +121,7 @@ function Deciding({ page, token, onSubmit, submitting, onReload }: Required<Pick
       {reviewing ? (
         <Review
           s={s}
+          totals={totals}
           choices={choices}
           notes={notes}
           onEdit={(i) => go(i)}
@@ -140,6 +142,7 @@ function Deciding({ page, token, onSubmit, submitting, onReload }: Required<Pick
           index={step}
           finding={s.findings[step]!}
           choice={choices[s.findings[step]!.findingId]}
+          adds={addsWithChoices(s, choices, s.findings[step]!.findingId)}
           note={notes[s.findings[step]!.findingId] ?? ''}
           onChoose={(d) => setChoices((c) => ({ ...c, [s.findings[step]!.findingId]: d }))}
           onNote={(n) => setNotes((x) => ({ ...x, [s.findings[step]!.findingId]: n }))}
@@ -160,6 +163,7 @@ function FindingStep({
   index,
   finding: f,
   choice,
+  adds,
   note,
   onChoose,
   onNote,
@@ -172,6 +176,8 @@ function FindingStep({
   index: number;
   finding: SnapshotFinding;
   choice: Decision | undefined;
+  /** What approving it adds alongside the owner's other approvals (null for an older snapshot). */
+  adds: string | null;
   note: string;
   onChoose: (d: Decision) => void;
   onNote: (n: string) => void;
@@ -234,6 +240,12 @@ function FindingStep({
         <p className="text-2xl font-bold tabular-nums">{formatMoney(f.price.gross, s.currency, { vat: 'incl' })}</p>
         <p className="text-sm tabular-nums text-slate-soft">{formatMoney(f.price.net, s.currency, { vat: 'excl' })}</p>
         {saving ? <p className="mt-2 text-sm">{saving}</p> : null}
+        {adds !== null && compareAmounts(adds, f.price.gross) < 0 ? (
+          <p className="mt-2 text-sm" data-testid="decide-adds">
+            With the work you have approved, this adds <span className="font-semibold tabular-nums">{formatMoney(adds, s.currency, { vat: 'incl' })}</span>: the opening-up it needs is
+            already being done, and is charged once.
+          </p>
+        ) : null}
       </div>
 
       <fieldset className="flex flex-col gap-3">
@@ -312,6 +324,7 @@ function ChoiceWord({ decision }: { decision: Decision | undefined }) {
 
 function Review({
   s,
+  totals,
   choices,
   notes,
   onEdit,
@@ -325,6 +338,7 @@ function Review({
   onReload,
 }: {
   s: ApprovalSnapshot;
+  totals: RunningTotal;
   choices: Choices;
   notes: Record<string, string>;
   onEdit: (i: number) => void;
@@ -367,6 +381,7 @@ function Review({
           </li>
         ))}
       </ul>
+      <SharedSaving totals={totals} currency={s.currency} />
       {missing >= 0 ? (
         <Notice tone="problem" title="Some findings have no decision yet">
           <p>Approve or decline every finding before confirming.</p>
@@ -422,7 +437,19 @@ function Review({
   );
 }
 
-function RunningTotalBar({ currency, totals: t }: { currency: string; totals: ReturnType<typeof runningTotal> }) {
+/** Why the approved findings come to less than their prices added up. */
+function SharedSaving({ totals: t, currency }: { totals: RunningTotal; currency: string }) {
+  if (!t.sharedSaving) return null;
+  return (
+    <p className="text-sm" data-testid="decide-shared-saving">
+      The findings approved share opening-up work, which is charged once: together they come to{' '}
+      <span className="font-semibold tabular-nums">{formatMoney(t.thisRequestAsChosen, currency, { vat: 'incl' })}</span>, which is{' '}
+      <span className="font-semibold tabular-nums">{formatMoney(t.sharedSaving, currency)}</span> less than their prices added up.
+    </p>
+  );
+}
+
+function RunningTotalBar({ currency, totals: t }: { currency: string; totals: RunningTotal }) {
   const m = (a: string) => formatMoney(a, currency);
   return (
     <aside
@@ -492,6 +519,7 @@ function Receipt({ page }: { page: DecisionPageDto }) {
           );
         })}
       </ul>
+      <SharedSaving totals={t} currency={s.currency} />
       <dl className="grid grid-cols-[1fr_auto] gap-x-4 gap-y-1 tabular-nums">
         <dt>First quoted</dt>
         <dd className="text-right">{formatMoney(t.quoted, s.currency)}</dd>

@@ -1,6 +1,6 @@
 import type { ApprovalSnapshot, SnapshotLine, Totals } from '@wingstage/shared';
 import { describe, expect, it } from 'vitest';
-import { priceChoice, runningTotal, snapshotEngineInput } from './running-total';
+import { addsWithChoices, priceChoice, runningTotal, snapshotEngineInput } from './running-total';
 
 const PLUGS = '5b1d2c3e-4f50-4a61-8b72-9c83d4e5f607';
 const HOSE = '6c2e3d4f-5061-4b72-9c83-ad94e5f60718';
@@ -100,6 +100,19 @@ describe('runningTotal priced by the engine (two findings sharing the cowling)',
     // 237.43 net, VAT 47.49 → 284.92; undecided only the 12.00 elsewhere; 480.00 + 284.92 = 764.92.
     expect(r).toMatchObject({ thisRequestAsChosen: '284.92', undecided: '12.00', newTotal: '764.92', exact: true, chosen: 2 });
     expect(r.thisRequestAsChosen).toBe(snapshot().totals.thisRequest.gross);
+  });
+
+  it('when both are approved, then the saving against their own prices is the cowling once: 188.40 + 208.12 − 284.92 = 111.60', () => {
+    expect(runningTotal(snapshot(), { [PLUGS]: 'approve', [HOSE]: 'approve' }).sharedSaving).toBe('111.60');
+    // One alone saves nothing against its own price.
+    expect(runningTotal(snapshot(), { [PLUGS]: 'approve' }).sharedSaving).toBeNull();
+  });
+
+  it('when the plugs are approved, then the hose adds only its own work: 96.52, not its own price of 208.12', () => {
+    expect(addsWithChoices(snapshot(), { [PLUGS]: 'approve' }, HOSE)).toBe('96.52');
+    expect(addsWithChoices(snapshot(), { [PLUGS]: 'decline' }, HOSE)).toBe('208.12');
+    // Its own choice does not count against it.
+    expect(addsWithChoices(snapshot(), { [PLUGS]: 'approve', [HOSE]: 'approve' }, HOSE)).toBe('96.52');
   });
 
   it('when one is declined and the other left open, then the open one carries the cowling again', () => {

@@ -37,6 +37,11 @@ export interface RunningTotal {
    * charged once when they are approved together.
    */
   sharesOpeningUp: boolean;
+  /**
+   * How much less the approved findings come to than their own prices added up, because opening-up
+   * they share is charged once; null when nothing is shared or the figures are not the engine's.
+   */
+  sharedSaving: string | null;
   chosen: number;
   of: number;
 }
@@ -126,8 +131,11 @@ export function runningTotal(snapshot: ApprovalSnapshot, choices: Choices): Runn
   const priced = priceChoice(snapshot, choices);
   if (priced) {
     const thisRequestAsChosen = priced.stages.approved.gross;
+    const ownPrices = sumAmounts(findings.filter((f) => choices[f.findingId] === 'approve').map((f) => f.price.gross), c);
+    const saving = sumAmounts([ownPrices, `-${thisRequestAsChosen}`], c);
     return {
       ...common,
+      sharedSaving: compareAmounts(saving, '0') > 0 ? saving : null,
       thisRequestAsChosen,
       undecided: sumAmounts([priced.stages.discovered.gross, snapshot.totals.undecidedElsewhere.gross], c),
       newTotal: sumAmounts([snapshot.totals.approvedSoFar.gross, thisRequestAsChosen], c),
@@ -140,11 +148,22 @@ export function runningTotal(snapshot: ApprovalSnapshot, choices: Choices): Runn
   const thisRequestAsChosen = partOf(approved);
   return {
     ...common,
+    sharedSaving: null,
     thisRequestAsChosen,
     undecided: sumAmounts([partOf(open), snapshot.totals.undecidedElsewhere.gross], c),
     newTotal: sumAmounts([snapshot.totals.approvedSoFar.gross, thisRequestAsChosen], c),
     exact: false,
   };
+}
+
+/**
+ * What approving this finding would add, given the owner's other choices: less than its own price
+ * when opening-up it needs is already paid for by a finding they have approved. Null for an older
+ * snapshot.
+ */
+export function addsWithChoices(snapshot: ApprovalSnapshot, choices: Choices, findingId: string): string | null {
+  const priced = priceChoice(snapshot, { ...choices, [findingId]: undefined });
+  return priced?.findings.find((f) => f.findingId === findingId)?.price.gross ?? null;
 }
 
 /**
