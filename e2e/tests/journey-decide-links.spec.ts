@@ -217,6 +217,11 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await widePage.goto(first);
     await expect(widePage.getByRole('img', { name: `Photo 1 of F-1: ${springTitle}` })).toBeVisible();
     await shot(widePage, testInfo, '04-owner-finding-with-photo-1280');
+    await widePage.getByRole('radio', { name: /^Decline/ }).check();
+    await widePage.getByRole('button', { name: 'Next finding →' }).click();
+    await widePage.getByRole('radio', { name: /^Approve/ }).check();
+    await expect(widePage.getByTestId('running-total').locator('[data-total="this-request"]')).toHaveText('£208.08');
+    await shot(widePage, testInfo, '04b-owner-part-way-1280', true);
     await wide.close();
   });
 
