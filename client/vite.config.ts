@@ -2,10 +2,28 @@
 import { fileURLToPath, URL } from 'node:url';
 import tailwindcss from '@tailwindcss/vite';
 import react from '@vitejs/plugin-react';
-import { defineConfig } from 'vite';
+import { defineConfig, type Connect, type Plugin } from 'vite';
+
+const page = (name: string) => fileURLToPath(new URL(`./${name}`, import.meta.url));
+
+/**
+ * The owner's e-mailed link, /decide/<token>, opens decide.html: the decision page's own light
+ * entry. The built app's server does the same; this does it for `vite` and `vite preview`.
+ */
+function decideEntry(): Plugin {
+  const rewrite: Connect.NextHandleFunction = (req, _res, next) => {
+    if (req.method === 'GET' && req.url && /^\/decide\/[^/?#]*\/?(?:[?#].*)?$/.test(req.url)) req.url = '/decide.html';
+    next();
+  };
+  return {
+    name: 'wingstage-decide-entry',
+    configureServer: (server) => void server.middlewares.use(rewrite),
+    configurePreviewServer: (server) => void server.middlewares.use(rewrite),
+  };
+}
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  plugins: [react(), tailwindcss(), decideEntry()],
   resolve: {
     alias: { '@': fileURLToPath(new URL('./src', import.meta.url)) },
   },
@@ -17,11 +35,19 @@ export default defineConfig({
   build: {
     outDir: 'dist',
     emptyOutDir: true,
+    // Two pages: the app, and the owner's decision page with only what it needs.
+    rolldownOptions: {
+      input: { main: page('index.html'), decide: page('decide.html') },
+      treeshake: {
+        // The shared workspace only declares values (schemas, helpers); a page keeps just the ones it uses.
+        moduleSideEffects: (id) => (/[\\/]shared[\\/]src[\\/]/.test(id) ? false : undefined),
+      },
+    },
   },
   test: {
     name: 'client',
     environment: 'jsdom',
-    include: ['src/**/*.test.{ts,tsx}'],
+    include: ['src/**/*.test.{ts,tsx}', 'scripts/**/*.test.{ts,mjs}'],
     setupFiles: ['src/testing/setup.ts'],
     restoreMocks: true,
   },

@@ -3,7 +3,7 @@ import { decimalString, idSchema, optionalText } from './common.js';
 import type { FindingCategory } from './findings.js';
 import type { ChecklistLimit } from './templates.js';
 import type { SnapshotPhoto } from './photos.js';
-import type { LineKind, Totals } from '../pricing/types.js';
+import type { LineKind, Totals, VatRateCode } from '../pricing/types.js';
 import type { ApprovalRequestState } from '../states.js';
 
 /**
@@ -39,6 +39,28 @@ export const approvalRequestCreateSchema = z.object({
 });
 export type ApprovalRequestCreateInput = z.input<typeof approvalRequestCreateSchema>;
 
+/** One discovered line of a finding, as frozen in a snapshot. */
+export interface SnapshotLine {
+  description: string;
+  kind: LineKind;
+  quantity: string;
+  /** After any line discount, in the currency's minor units. */
+  net: string;
+  vatRate?: VatRateCode;
+  /** The opening-up task this line needs (an id in `pricingBasis.accessTasks`), or null. */
+  accessTaskId?: string | null;
+}
+
+/** The rest of the engine's input for a request: VAT rates and the opening-up tasks its findings need. */
+export interface SnapshotPricingBasis {
+  /** The workshop's VAT percentages at sending. */
+  vatRates: { standard: string; reduced: string; zero: string };
+  /** Every access task a line of this request names, with its own labour priced (hours × rate, rounded). */
+  accessTasks: { id: string; name: string; net: string; vatRate: VatRateCode }[];
+  /** Of those, the ids the inspection scope or already-approved work pays for: never charged in this request. */
+  accessPaid: string[];
+}
+
 /** What the owner saw, frozen at sending. Its SHA-256 (hex, of the canonical JSON) is the snapshot hash. */
 export interface ApprovalSnapshot {
   requestId: string;
@@ -66,7 +88,11 @@ export interface ApprovalSnapshot {
     limit: ChecklistLimit | null;
     /** The finding's photos at sending, oldest first (a snapshot stored before photos existed may lack it: read as []). */
     photos: SnapshotPhoto[];
-    lines: { description: string; kind: LineKind; quantity: string; net: string }[];
+    /**
+     * Its discovered lines. `net` is after any discount; `vatRate` and `accessTaskId` make each line
+     * an engine input (absent from snapshots sent before `pricingBasis` existed).
+     */
+    lines: SnapshotLine[];
     /** Its price on its own incl. any access work nothing committed already pays for. */
     price: Totals;
     /** Access work already paid for elsewhere (names), so not charged again here. */
@@ -74,6 +100,12 @@ export interface ApprovalSnapshot {
     /** The saving incl. VAT from sharing access work with committed work. */
     accessSavingGross: string;
   }[];
+  /**
+   * What the pricing engine needs, with the findings' lines, to price ANY choice of this request's
+   * findings exactly, shared opening-up included. Absent from snapshots sent before it existed: the
+   * page then falls back to adding the findings' own prices.
+   */
+  pricingBasis?: SnapshotPricingBasis;
   totals: {
     /** The inspection scope as first quoted. */
     quoted: Totals;

@@ -1,5 +1,5 @@
 import type { ApprovalSnapshot, DecisionPageDto, Totals } from '@wingstage/shared';
-import { fireEvent, render, screen, within } from '@testing-library/react';
+import { act, fireEvent, render, screen, within } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
 import { ApiError } from '@/lib/api-client';
 import { DecisionPage } from './decision-page';
@@ -85,6 +85,7 @@ function snapshot(over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot {
 }
 
 const HASH = 'a'.repeat(64);
+const TOKEN = 'tok_en-123';
 const page = (over: Partial<DecisionPageDto> = {}): DecisionPageDto => ({
   state: 'sent',
   closedReason: null,
@@ -96,11 +97,12 @@ const page = (over: Partial<DecisionPageDto> = {}): DecisionPageDto => ({
   ...over,
 });
 
-describe('runningTotal', () => {
+// These snapshots predate the pricing basis: the page adds up the findings' own prices.
+describe('runningTotal for a snapshot without a pricing basis', () => {
   it('when nothing is chosen yet, then this request counts nothing and every price is undecided, plus the work awaiting a decision elsewhere', () => {
     const t = runningTotal(snapshot(), {});
     // The whole request undecided is the engine's request total (120.00, shared opening-up once) plus 6.00 elsewhere.
-    expect(t).toMatchObject({ quoted: '556.13', approvedSoFar: '556.13', thisRequestAsChosen: '0.00', undecided: '126.00', newTotal: '556.13', sharesOpeningUp: true, chosen: 0, of: 3 });
+    expect(t).toMatchObject({ quoted: '556.13', approvedSoFar: '556.13', thisRequestAsChosen: '0.00', undecided: '126.00', newTotal: '556.13', sharesOpeningUp: true, exact: false, chosen: 0, of: 3 });
   });
 
   it('when some findings are approved and one declined, then the sums are exact to the penny from the snapshot figures', () => {
@@ -130,7 +132,7 @@ function choose(name: 'Approve' | 'Decline') {
 
 describe('DecisionPage', () => {
   it('shows one finding at a time with its category, measurement, price incl. VAT and the access saving in words', () => {
-    render(<DecisionPage page={page()} onSubmit={vi.fn()} />);
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
     expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
     expect(screen.getAllByTestId('decide-finding')).toHaveLength(1);
     expect(screen.getByText('Recommended')).toBeTruthy();
@@ -142,7 +144,7 @@ describe('DecisionPage', () => {
   });
 
   it('when an airworthiness finding is declined, then the page says plainly that the aircraft cannot be released with it open and that the inspector decides', () => {
-    render(<DecisionPage page={page()} onSubmit={vi.fn()} />);
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
     fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
     expect(screen.getByText('Finding 2 of 3')).toBeTruthy();
     expect(screen.queryByText(/cannot be released/)).toBeNull();
@@ -158,7 +160,7 @@ describe('DecisionPage', () => {
 
   it('when the owner reviews and confirms, then the hash, every decision with its note and the typed name are sent', async () => {
     const onSubmit = vi.fn().mockResolvedValue(undefined);
-    render(<DecisionPage page={page()} onSubmit={onSubmit} />);
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={onSubmit} />);
     choose('Approve');
     fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
     choose('Decline');
@@ -194,7 +196,7 @@ describe('DecisionPage', () => {
   it('when the server refuses because the workshop changed something, then the reason is shown with a way to reload', async () => {
     const onSubmit = vi.fn().mockRejectedValue(new ApiError({ code: 'conflict', status: 409, message: 'The workshop changed something on this request: reload the page to see the latest.' }));
     const onReload = vi.fn();
-    render(<DecisionPage page={page({ snapshot: snapshot({ findings: snapshot().findings.slice(0, 1) }) })} onSubmit={onSubmit} onReload={onReload} />);
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: snapshot({ findings: snapshot().findings.slice(0, 1) }) })} onSubmit={onSubmit} onReload={onReload} />);
     choose('Approve');
     fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
     fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
@@ -205,7 +207,7 @@ describe('DecisionPage', () => {
   });
 
   it("when the request is closed, then the server's reason is shown in plain words and no choices are offered", () => {
-    render(<DecisionPage page={page({ state: 'replaced', closedReason: 'The workshop changed a price after sending, so a newer request replaced this one. Look for it in your e-mail.' })} onSubmit={vi.fn()} />);
+    render(<DecisionPage token={TOKEN} page={page({ state: 'replaced', closedReason: 'The workshop changed a price after sending, so a newer request replaced this one. Look for it in your e-mail.' })} onSubmit={vi.fn()} />);
     expect(screen.getByText('A newer request replaced this one')).toBeTruthy();
     expect(screen.getByText('Replaced')).toBeTruthy();
     expect(screen.getByText(/a newer request replaced this one/)).toBeTruthy();
@@ -215,6 +217,7 @@ describe('DecisionPage', () => {
   it('when the request is decided, then a receipt lists each decision, who made it and when', () => {
     render(
       <DecisionPage
+        token={TOKEN}
         page={page({
           state: 'decided',
           closedReason: 'You decided this request on 1 Dec 2026.',
@@ -234,5 +237,111 @@ describe('DecisionPage', () => {
     expect(receipt.textContent).toContain('Your note: Later.');
     expect(receipt.textContent).toContain('Q-SALT cannot be released to fly while it is open');
     expect(within(receipt).getByText('£632.50', { selector: '[data-total="new-total"]' })).toBeTruthy();
+  });
+});
+
+const PHOTOS = [
+  { id: '3a4b5c6d-7e8f-4a9b-8c0d-1e2f3a4b5c6d', width: 2048, height: 1536 },
+  { id: '4b5c6d7e-8f9a-4b0c-9d1e-2f3a4b5c6d7e', width: 1152, height: 2048 },
+];
+
+describe('DecisionPage photos', () => {
+  const withPhotos = () => {
+    const s = snapshot();
+    s.findings[0]!.photos = PHOTOS;
+    return page({ snapshot: s });
+  };
+
+  it('shows each photo of the finding at full column width through the link, sized up front, the first straight away and the rest lazily', () => {
+    render(<DecisionPage token={TOKEN} page={withPhotos()} onSubmit={vi.fn()} />);
+    const imgs = within(screen.getByTestId('decide-photos')).getAllByRole('img') as HTMLImageElement[];
+    expect(imgs).toHaveLength(2);
+    expect(imgs[0]!.getAttribute('src')).toBe(`/api/decide/${TOKEN}/photos/${PHOTOS[0]!.id}?size=full`);
+    expect(imgs[1]!.getAttribute('src')).toBe(`/api/decide/${TOKEN}/photos/${PHOTOS[1]!.id}?size=full`);
+    expect(imgs.map((i) => i.alt)).toEqual(['Photo 1 of F-1: Spark plug gap over the wear limit', 'Photo 2 of F-1: Spark plug gap over the wear limit']);
+    expect(imgs.map((i) => [i.getAttribute('width'), i.getAttribute('height')])).toEqual([
+      ['2048', '1536'],
+      ['1152', '2048'],
+    ]);
+    expect(imgs.map((i) => i.getAttribute('loading'))).toEqual(['eager', 'lazy']);
+    expect(imgs[0]!.className).toContain('w-full');
+  });
+
+  it('when a photo is tapped, then it opens full screen; Escape or Close shuts it and focus returns to the photo', () => {
+    render(<DecisionPage token={TOKEN} page={withPhotos()} onSubmit={vi.fn()} />);
+    const opener = screen.getByRole('button', { name: /^Photo 2 of F-1/ });
+    fireEvent.click(opener);
+    const viewer = screen.getByRole('dialog', { name: 'Photo 2 of F-1: Spark plug gap over the wear limit' });
+    expect(viewer.getAttribute('aria-modal')).toBe('true');
+    expect(within(viewer).getByRole('img').getAttribute('src')).toBe(`/api/decide/${TOKEN}/photos/${PHOTOS[1]!.id}?size=full`);
+    expect(within(viewer).getByText('F-1 · photo 2 of 2')).toBeTruthy();
+    const close = within(viewer).getByRole('button', { name: 'Close' });
+    expect(document.activeElement).toBe(close);
+    expect(document.body.style.overflow).toBe('hidden');
+
+    // The next photo, by button and by arrow key, wrapping round.
+    fireEvent.click(within(viewer).getByRole('button', { name: 'Next photo →' }));
+    expect(screen.getByRole('dialog').getAttribute('aria-label')).toBe('Photo 1 of F-1: Spark plug gap over the wear limit');
+    fireEvent.keyDown(screen.getByRole('dialog'), { key: 'ArrowLeft' });
+    expect(screen.getByRole('dialog').getAttribute('aria-label')).toBe('Photo 2 of F-1: Spark plug gap over the wear limit');
+
+    act(() => {
+      fireEvent.keyDown(screen.getByRole('dialog'), { key: 'Escape' });
+    });
+    expect(screen.queryByRole('dialog')).toBeNull();
+    expect(document.activeElement).toBe(opener);
+    expect(document.body.style.overflow).toBe('');
+
+    fireEvent.click(screen.getByRole('button', { name: /^Photo 1 of F-1/ }));
+    fireEvent.click(within(screen.getByRole('dialog')).getByRole('button', { name: 'Close' }));
+    expect(screen.queryByRole('dialog')).toBeNull();
+  });
+
+  it('when a finding has no photos, or an older snapshot has no photos field, then the page shows none and still works', () => {
+    const s = snapshot();
+    delete (s.findings[0] as Partial<(typeof s.findings)[number]>).photos;
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
+    expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
+    expect(screen.queryByTestId('decide-photos')).toBeNull();
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    expect(screen.queryByTestId('decide-photos')).toBeNull();
+  });
+});
+
+describe('DecisionPage running total with a pricing basis', () => {
+  it('when one of two findings sharing opening-up is approved, then the bar shows the engine figure and no "may come out lower" note', () => {
+    const COWL = '5e6f7a8b-9c0d-4e1f-8a2b-3c4d5e6f7a8b';
+    const base = snapshot();
+    const s: ApprovalSnapshot = {
+      ...base,
+      findings: [
+        { ...base.findings[0]!, lines: [{ description: 'Fit new plugs', kind: 'labour', quantity: '0.5', net: '31.00', vatRate: 'standard', accessTaskId: COWL }], price: totals('46.50', '9.30', '55.80') },
+        { ...base.findings[1]!, lines: [{ description: 'Replace spring', kind: 'labour', quantity: '0.5', net: '31.00', vatRate: 'standard', accessTaskId: COWL }], price: totals('46.50', '9.30', '55.80') },
+      ],
+      pricingBasis: { vatRates: { standard: '20', reduced: '5', zero: '0' }, accessTasks: [{ id: COWL, name: 'Cowling off', net: '15.50', vatRate: 'standard' }], accessPaid: [] },
+      // 31.00 + 31.00 + 15.50 = 77.50; VAT 15.50; 93.00.
+      totals: { ...base.totals, thisRequest: totals('77.50', '15.50', '93.00') },
+    };
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
+    choose('Approve');
+    const bar = screen.getByTestId('running-total');
+    // F-1 with the cowling: 55.80. Still open: F-2 without it, 31.00 + 6.20 = 37.20, plus 6.00 elsewhere.
+    expect(within(bar).getByText('£55.80', { selector: '[data-total="this-request"]' })).toBeTruthy();
+    expect(within(bar).getByText('£43.20', { selector: '[data-total="undecided"]' })).toBeTruthy();
+    expect(within(bar).getByText('£611.93', { selector: '[data-total="new-total"]' })).toBeTruthy();
+    expect(bar.textContent).not.toContain('may come out lower');
+    // F-2 with F-1 approved adds only its own work, and says why.
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    expect(screen.getByTestId('decide-adds').textContent).toContain('this adds £37.20 incl. VAT');
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    // 55.80 + 55.80 − 93.00.
+    expect(screen.getByTestId('decide-shared-saving').textContent).toMatch(/together they come to £93\.00 incl\. VAT, which is £18\.60 less/);
+  });
+
+  it('when an older snapshot is decided part-way with shared opening-up, then the note says the figures may come out lower', () => {
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Approve');
+    expect(screen.getByTestId('running-total').textContent).toContain('may come out lower');
   });
 });

@@ -1,4 +1,5 @@
 import {
+  compareAmounts,
   decisionSubmitSchema,
   describeLimit,
   FINDING_CATEGORY_MEANINGS,
@@ -8,18 +9,21 @@ import {
 } from '@wingstage/shared';
 import { useId, useRef, useState, type ReactNode } from 'react';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
-import { Button } from '@/components/ui/button';
 import { CategoryBadge } from '@/components/ui/finding-badges';
 import { CheckIcon, CrossIcon } from '@/components/ui/icons';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
 import { formatDateTime, trimDecimal, formatMoney } from '@/lib/format';
-import { accessSavingWords, declinedAirworthinessWords, runningTotal, type Choices } from './running-total';
+import { FindingPhotos } from './finding-photos';
+import { OwnerButton as Button } from './owner-button';
+import { accessSavingWords, addsWithChoices, declinedAirworthinessWords, runningTotal, type Choices, type RunningTotal } from './running-total';
 
 type SnapshotFinding = ApprovalSnapshot['findings'][number];
 
 export interface DecisionPageProps {
   page: DecisionPageDto;
+  /** The link's token: the page's photos are fetched through it. */
+  token: string;
   /** Sends the owner's decisions; resolves with the page as the server now holds it. */
   onSubmit: (body: { snapshotHash: string; decisions: { findingId: string; decision: Decision; note: string }[]; typedName: string }) => Promise<unknown>;
   submitting?: boolean;
@@ -34,12 +38,12 @@ const things = (n: number) => `${WORDS[n] ?? String(n)} ${n === 1 ? 'thing' : 't
  * The owner's decision page: a letter from the workshop, one finding at a time, with the running
  * total always in view, then a review of every choice and a typed-name confirmation.
  */
-export function DecisionPage({ page, onSubmit, submitting = false, onReload }: DecisionPageProps) {
+export function DecisionPage({ page, token, onSubmit, submitting = false, onReload }: DecisionPageProps) {
   const s = page.snapshot;
   if (page.state !== 'sent' || page.closedReason) {
     return page.decisions && page.decidedAt ? <Receipt page={page} /> : <Closed page={page} />;
   }
-  return <Deciding page={page} onSubmit={onSubmit} submitting={submitting} onReload={onReload} key={page.snapshotHash + s.requestId} />;
+  return <Deciding page={page} token={token} onSubmit={onSubmit} submitting={submitting} onReload={onReload} key={page.snapshotHash + s.requestId} />;
 }
 
 function Letterhead({ s, children }: { s: ApprovalSnapshot; children?: ReactNode }) {
@@ -57,7 +61,7 @@ function Letterhead({ s, children }: { s: ApprovalSnapshot; children?: ReactNode
   );
 }
 
-function Deciding({ page, onSubmit, submitting, onReload }: Required<Pick<DecisionPageProps, 'page' | 'onSubmit'>> & Pick<DecisionPageProps, 'submitting' | 'onReload'>) {
+function Deciding({ page, token, onSubmit, submitting, onReload }: Required<Pick<DecisionPageProps, 'page' | 'token' | 'onSubmit'>> & Pick<DecisionPageProps, 'submitting' | 'onReload'>) {
   const s = page.snapshot;
   const [step, setStep] = useState(0);
   const [choices, setChoices] = useState<Choices>({});
@@ -117,6 +121,7 @@ function Deciding({ page, onSubmit, submitting, onReload }: Required<Pick<Decisi
       {reviewing ? (
         <Review
           s={s}
+          totals={totals}
           choices={choices}
           notes={notes}
           onEdit={(i) => go(i)}
@@ -133,9 +138,11 @@ function Deciding({ page, onSubmit, submitting, onReload }: Required<Pick<Decisi
         <FindingStep
           key={s.findings[step]!.findingId}
           s={s}
+          token={token}
           index={step}
           finding={s.findings[step]!}
           choice={choices[s.findings[step]!.findingId]}
+          adds={addsWithChoices(s, choices, s.findings[step]!.findingId)}
           note={notes[s.findings[step]!.findingId] ?? ''}
           onChoose={(d) => setChoices((c) => ({ ...c, [s.findings[step]!.findingId]: d }))}
           onNote={(n) => setNotes((x) => ({ ...x, [s.findings[step]!.findingId]: n }))}
@@ -152,9 +159,11 @@ function Deciding({ page, onSubmit, submitting, onReload }: Required<Pick<Decisi
 
 function FindingStep({
   s,
+  token,
   index,
   finding: f,
   choice,
+  adds,
   note,
   onChoose,
   onNote,
@@ -163,9 +172,12 @@ function FindingStep({
   last,
 }: {
   s: ApprovalSnapshot;
+  token: string;
   index: number;
   finding: SnapshotFinding;
   choice: Decision | undefined;
+  /** What approving it adds alongside the owner's other approvals (null for an older snapshot). */
+  adds: string | null;
   note: string;
   onChoose: (d: Decision) => void;
   onNote: (n: string) => void;
@@ -189,6 +201,7 @@ function FindingStep({
         </div>
         <p className="text-sm">{FINDING_CATEGORY_MEANINGS[f.category]}</p>
       </div>
+      <FindingPhotos token={token} photos={f.photos} number={f.number} title={f.title} />
       <dl className="flex flex-col gap-3">
         <div>
           <dt className="text-sm font-semibold text-slate-soft">Where</dt>
@@ -221,13 +234,18 @@ function FindingStep({
             </dd>
           </div>
         ) : null}
-        {/* Photos arrive in a later release: the snapshot already carries their ids. */}
       </dl>
       <div className="rounded-card border border-seam-strong bg-cloth-raised p-4" data-testid="decide-price">
         <p className="text-sm text-slate-soft">The price for this</p>
         <p className="text-2xl font-bold tabular-nums">{formatMoney(f.price.gross, s.currency, { vat: 'incl' })}</p>
         <p className="text-sm tabular-nums text-slate-soft">{formatMoney(f.price.net, s.currency, { vat: 'excl' })}</p>
         {saving ? <p className="mt-2 text-sm">{saving}</p> : null}
+        {adds !== null && compareAmounts(adds, f.price.gross) < 0 ? (
+          <p className="mt-2 text-sm" data-testid="decide-adds">
+            With the work you have approved, this adds <span className="font-semibold tabular-nums">{formatMoney(adds, s.currency, { vat: 'incl' })}</span>: the opening-up it needs is
+            already being done, and is charged once.
+          </p>
+        ) : null}
       </div>
 
       <fieldset className="flex flex-col gap-3">
@@ -255,11 +273,11 @@ function FindingStep({
       </div>
       <nav aria-label="Findings" className="flex gap-3">
         {onBack ? (
-          <Button variant="secondary" size="lg" className="flex-1" onClick={onBack}>
+          <Button variant="secondary" className="flex-1" onClick={onBack}>
             ← Back
           </Button>
         ) : null}
-        <Button size="lg" className="flex-1" onClick={onNext}>
+        <Button className="flex-1" onClick={onNext}>
           {last ? 'Review your choices' : 'Next finding →'}
         </Button>
       </nav>
@@ -306,6 +324,7 @@ function ChoiceWord({ decision }: { decision: Decision | undefined }) {
 
 function Review({
   s,
+  totals,
   choices,
   notes,
   onEdit,
@@ -319,6 +338,7 @@ function Review({
   onReload,
 }: {
   s: ApprovalSnapshot;
+  totals: RunningTotal;
   choices: Choices;
   notes: Record<string, string>;
   onEdit: (i: number) => void;
@@ -354,18 +374,19 @@ function Review({
             {notes[f.findingId]?.trim() ? <p className="text-sm">Your note: {notes[f.findingId]}</p> : null}
             {choices[f.findingId] === 'decline' && f.category === 'airworthiness' ? <p className="text-sm font-semibold">{declinedAirworthinessWords(s.registration)}</p> : null}
             <div>
-              <Button variant="quiet" size="lg" onClick={() => onEdit(i)}>
+              <Button variant="quiet" onClick={() => onEdit(i)}>
                 Change {f.number}
               </Button>
             </div>
           </li>
         ))}
       </ul>
+      <SharedSaving totals={totals} currency={s.currency} />
       {missing >= 0 ? (
         <Notice tone="problem" title="Some findings have no decision yet">
           <p>Approve or decline every finding before confirming.</p>
           <div>
-            <Button variant="secondary" size="lg" onClick={() => onEdit(missing)}>
+            <Button variant="secondary" onClick={() => onEdit(missing)}>
               Go to {s.findings[missing]!.number}
             </Button>
           </div>
@@ -402,21 +423,33 @@ function Review({
           <p>{problem.message}</p>
           {problem.reload && onReload ? (
             <div>
-              <Button variant="secondary" size="lg" onClick={onReload}>
+              <Button variant="secondary" onClick={onReload}>
                 Reload this page
               </Button>
             </div>
           ) : null}
         </Notice>
       ) : null}
-      <Button size="lg" onClick={onConfirm} busy={submitting} disabled={missing >= 0}>
+      <Button onClick={onConfirm} busy={submitting} disabled={missing >= 0}>
         Confirm decisions
       </Button>
     </section>
   );
 }
 
-function RunningTotalBar({ currency, totals: t }: { currency: string; totals: ReturnType<typeof runningTotal> }) {
+/** Why the approved findings come to less than their prices added up. */
+function SharedSaving({ totals: t, currency }: { totals: RunningTotal; currency: string }) {
+  if (!t.sharedSaving) return null;
+  return (
+    <p className="text-sm" data-testid="decide-shared-saving">
+      The findings approved share opening-up work, which is charged once: together they come to{' '}
+      <span className="font-semibold tabular-nums">{formatMoney(t.thisRequestAsChosen, currency, { vat: 'incl' })}</span>, which is{' '}
+      <span className="font-semibold tabular-nums">{formatMoney(t.sharedSaving, currency)}</span> less than their prices added up.
+    </p>
+  );
+}
+
+function RunningTotalBar({ currency, totals: t }: { currency: string; totals: RunningTotal }) {
   const m = (a: string) => formatMoney(a, currency);
   return (
     <aside
@@ -441,7 +474,7 @@ function RunningTotalBar({ currency, totals: t }: { currency: string; totals: Re
           <span>New total, incl. VAT</span> <span data-total="new-total">{m(t.newTotal)}</span>
         </p>
       </div>
-      {t.sharesOpeningUp && t.chosen > 0 && t.chosen < t.of ? (
+      {!t.exact && t.sharesOpeningUp && t.chosen > 0 && t.chosen < t.of ? (
         <p className="mx-auto max-w-xl pt-1 text-xs text-slate-soft">Some findings share opening-up work, charged once when approved together, so part-way figures may come out lower.</p>
       ) : null}
       <p className="sr-only" aria-live="polite">
@@ -486,6 +519,7 @@ function Receipt({ page }: { page: DecisionPageDto }) {
           );
         })}
       </ul>
+      <SharedSaving totals={t} currency={s.currency} />
       <dl className="grid grid-cols-[1fr_auto] gap-x-4 gap-y-1 tabular-nums">
         <dt>First quoted</dt>
         <dd className="text-right">{formatMoney(t.quoted, s.currency)}</dd>
@@ -528,14 +562,18 @@ function Closed({ page }: { page: DecisionPageDto }) {
   );
 }
 
-/** For a link the server does not know (typed wrong, cut short by a mail program). */
+/**
+ * For a link the server does not know: typed wrong, cut short by a mail program, or replaced when
+ * the workshop sent the request again (a re-sent request has a new link and the old one stops).
+ */
 export function UnknownLink() {
   return (
-    <article className="flex flex-col gap-3">
+    <article className="flex flex-col gap-3" data-testid="decision-unknown-link">
       <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">
-        We could not find this request
+        This link no longer opens a request
       </h1>
-      <p>The link may have been cut short by your e-mail program. Open it again from the e-mail, or ask the workshop to send a new one.</p>
+      <p>If the workshop sent you this request again, only the link in the newest e-mail works: open that one.</p>
+      <p>Otherwise the link may have been cut short by your e-mail program. Open it again from the e-mail, or ask the workshop to send a new one.</p>
     </article>
   );
 }

@@ -1,4 +1,19 @@
-import { compareAmounts, FINDING_CATEGORY_LABELS, sumAmounts, type ApprovalSnapshot, type Decision } from '@wingstage/shared';
+import {
+  compareAmounts,
+  FINDING_CATEGORY_LABELS,
+  priceEstimate,
+  sumAmounts,
+  type ApprovalSnapshot,
+  type Decision,
+  type EstimateInput,
+  type EstimateLineInput,
+  type EstimateStage,
+  type PricedEstimate,
+  type SnapshotLine,
+  type VatRateCode,
+  type VatRounding,
+  type WorkshopPricing,
+} from '@wingstage/shared';
 
 export type Choices = Record<string, Decision | undefined>;
 
@@ -12,40 +27,143 @@ export interface RunningTotal {
   /** Approved so far plus this request as chosen: what the bill would come to. */
   newTotal: string;
   /**
+   * True when the figures come from the pricing engine run on the owner's choice (every snapshot
+   * sent with a pricing basis). False for an older snapshot, whose part-way figures add up the
+   * findings' own prices and so may count shared opening-up more than once.
+   */
+  exact: boolean;
+  /**
    * The findings' own prices add up to more than the request: some share opening-up work that is
-   * charged once when they are approved together, so a part-way figure may come out lower.
+   * charged once when they are approved together.
    */
   sharesOpeningUp: boolean;
+  /**
+   * How much less the approved findings come to than their own prices added up, because opening-up
+   * they share is charged once; null when nothing is shared or the figures are not the engine's.
+   */
+  sharedSaving: string | null;
   chosen: number;
   of: number;
 }
 
+const STAGE_OF: Record<Decision, EstimateStage> = { approve: 'approved', decline: 'declined' };
+
+/** A snapshot line as the engine takes it, keeping its kind; `net` is already after any discount. */
+function engineLine(l: SnapshotLine, common: { id: string; stage: EstimateStage; findingId: string; vatRate: VatRateCode }): EstimateLineInput {
+  const base = { ...common, accessTaskId: l.accessTaskId ?? null };
+  switch (l.kind) {
+    case 'labour':
+      return { ...base, kind: 'labour', hours: '1', ratePerHour: l.net };
+    case 'part':
+      return { ...base, kind: 'part', quantity: '1', unitPrice: l.net };
+    case 'subcontract':
+      return { ...base, kind: 'subcontract', cost: l.net, markupPercent: '0' };
+    case 'fee':
+      return { ...base, kind: 'fee', amount: l.net };
+  }
+}
+
+const hasBasis = (s: ApprovalSnapshot): s is ApprovalSnapshot & { pricingBasis: NonNullable<ApprovalSnapshot['pricingBasis']> } =>
+  s.pricingBasis !== undefined && s.findings.every((f) => f.lines.every((l) => l.vatRate !== undefined));
+
 /**
- * Every figure is a sum of the engine's Totals frozen in the snapshot, added with the shared money
- * helpers; nothing is priced again here. When a figure covers every finding of the request (all
- * approved, or none decided yet) the snapshot's own "this request" total is used, because the
- * engine charges shared opening-up work once across the request, while the findings' own prices
- * each carry it.
+ * The pricing engine's input for the owner's current choice: each finding's lines in the stage
+ * its choice puts them (approved, declined, or still discovered while undecided), the request's
+ * opening-up tasks, and a nil inspection-scope line naming each task committed work already pays
+ * for, so the engine charges that task there and never in this request. Null for a snapshot sent
+ * before the pricing basis existed.
+ */
+export function snapshotEngineInput(snapshot: ApprovalSnapshot, choices: Choices): { input: EstimateInput; pricing: WorkshopPricing } | null {
+  if (!hasBasis(snapshot)) return null;
+  const basis = snapshot.pricingBasis;
+  const lines: EstimateLineInput[] = [];
+  for (const f of snapshot.findings) {
+    const choice = choices[f.findingId];
+    const stage: EstimateStage = choice ? STAGE_OF[choice] : 'discovered';
+    f.lines.forEach((l, i) => lines.push(engineLine(l, { id: `${f.findingId}:${i}`, stage, findingId: f.findingId, vatRate: l.vatRate ?? 'standard' })));
+  }
+  for (const id of basis.accessPaid) {
+    lines.push({ id: `paid:${id}`, stage: 'inspection', kind: 'fee', amount: '0', vatRate: 'zero', accessTaskId: id });
+  }
+  return {
+    input: {
+      lines,
+      // Hours × rate was rounded once at sending; one hour at that price gives the same net.
+      accessTasks: basis.accessTasks.map((t) => ({ id: t.id, hours: '1', ratePerHour: t.net, vatRate: t.vatRate })),
+    },
+    pricing: {
+      currency: snapshot.currency,
+      vatRounding: snapshot.rounding as VatRounding,
+      vatRates: basis.vatRates,
+      // Every line already carries its sell price, so no mark-up applies.
+      partsMarkupPercent: '0',
+      subcontractMarkupPercent: '0',
+    },
+  };
+}
+
+/** The engine's figures for the owner's current choice, or null for an older snapshot. */
+export function priceChoice(snapshot: ApprovalSnapshot, choices: Choices): PricedEstimate | null {
+  const e = snapshotEngineInput(snapshot, choices);
+  return e ? priceEstimate(e.input, e.pricing) : null;
+}
+
+/**
+ * The running total for the owner's choice. With a pricing basis in the snapshot the request is
+ * priced by the same engine as the estimate: what is approved lands in the approved stage, what is
+ * still open in the discovered stage, and opening-up shared by several findings is charged once,
+ * in the first of those stages that uses it, for every combination of choices. An older snapshot
+ * falls back to the findings' own prices (and the engine's request total when a figure covers the
+ * whole request).
  */
 export function runningTotal(snapshot: ApprovalSnapshot, choices: Choices): RunningTotal {
   const c = snapshot.currency;
   const findings = snapshot.findings;
-  const approved = findings.filter((f) => choices[f.findingId] === 'approve');
   const open = findings.filter((f) => choices[f.findingId] === undefined);
   const whole = snapshot.totals.thisRequest.gross;
+  const common = {
+    quoted: snapshot.totals.quoted.gross,
+    approvedSoFar: snapshot.totals.approvedSoFar.gross,
+    sharesOpeningUp: compareAmounts(sumAmounts(findings.map((f) => f.price.gross), c), whole) > 0,
+    chosen: findings.length - open.length,
+    of: findings.length,
+  };
+  const priced = priceChoice(snapshot, choices);
+  if (priced) {
+    const thisRequestAsChosen = priced.stages.approved.gross;
+    const ownPrices = sumAmounts(findings.filter((f) => choices[f.findingId] === 'approve').map((f) => f.price.gross), c);
+    const saving = sumAmounts([ownPrices, `-${thisRequestAsChosen}`], c);
+    return {
+      ...common,
+      sharedSaving: compareAmounts(saving, '0') > 0 ? saving : null,
+      thisRequestAsChosen,
+      undecided: sumAmounts([priced.stages.discovered.gross, snapshot.totals.undecidedElsewhere.gross], c),
+      newTotal: sumAmounts([snapshot.totals.approvedSoFar.gross, thisRequestAsChosen], c),
+      exact: true,
+    };
+  }
+  const approved = findings.filter((f) => choices[f.findingId] === 'approve');
   // A whole request is the engine's own figure; a part of it is the sum of the findings' own prices.
   const partOf = (part: typeof findings) => (part.length === findings.length && findings.length > 0 ? whole : sumAmounts(part.map((f) => f.price.gross), c));
   const thisRequestAsChosen = partOf(approved);
   return {
-    quoted: snapshot.totals.quoted.gross,
-    approvedSoFar: snapshot.totals.approvedSoFar.gross,
+    ...common,
+    sharedSaving: null,
     thisRequestAsChosen,
     undecided: sumAmounts([partOf(open), snapshot.totals.undecidedElsewhere.gross], c),
-    sharesOpeningUp: compareAmounts(sumAmounts(findings.map((f) => f.price.gross), c), whole) > 0,
     newTotal: sumAmounts([snapshot.totals.approvedSoFar.gross, thisRequestAsChosen], c),
-    chosen: findings.length - open.length,
-    of: findings.length,
+    exact: false,
   };
+}
+
+/**
+ * What approving this finding would add, given the owner's other choices: less than its own price
+ * when opening-up it needs is already paid for by a finding they have approved. Null for an older
+ * snapshot.
+ */
+export function addsWithChoices(snapshot: ApprovalSnapshot, choices: Choices, findingId: string): string | null {
+  const priced = priceChoice(snapshot, { ...choices, [findingId]: undefined });
+  return priced?.findings.find((f) => f.findingId === findingId)?.price.gross ?? null;
 }
 
 /**

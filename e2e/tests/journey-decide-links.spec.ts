@@ -1,0 +1,303 @@
+import { randomUUID } from 'node:crypto';
+import { expect, test, type APIRequestContext, type Browser, type BrowserContext, type Page, type TestInfo } from '@playwright/test';
+
+/**
+ * What the owner's e-mailed link does as the manager acts on the request. The manager sends two
+ * findings that share the cowling (one of them airworthiness, with a photo); the owner opens the
+ * link on a phone, looks at the photo full screen and tries part-way choices, whose running total
+ * charges the cowling once. The manager revokes the link: it shows the closed page and its plain
+ * reason. The manager re-sends: the old link stops, the new one from the e-mail works. Re-sent
+ * again from the job screen, the owner decides on the newest link, which from then on shows the
+ * decided page.
+ *
+ * The job is booked in by the test itself for the demo aircraft Q-MRLW, so it never collides with
+ * the other journeys.
+ */
+
+const MAILDEV = process.env.E2E_MAILDEV_URL ?? 'http://127.0.0.1:1081';
+const PASSWORD = 'wingstage-demo';
+const PHONE = { width: 375, height: 812 };
+const DESKTOP = { width: 1280, height: 900 };
+const OWNER_EMAIL = 'tomasz@owners.example';
+const OWNER_NAME = 'Tomasz Wrenfield';
+
+async function shot(page: Page, testInfo: TestInfo, name: string, fullPage = false) {
+  const path = testInfo.outputPath(`${name}.png`);
+  await page.screenshot({ path, fullPage });
+  await testInfo.attach(name, { path, contentType: 'image/png' });
+}
+
+async function context(browser: Browser, baseURL: string | undefined, phone: boolean): Promise<BrowserContext> {
+  const size = phone ? PHONE : DESKTOP;
+  return browser.newContext({ baseURL, viewport: size, isMobile: phone, hasTouch: phone, deviceScaleFactor: phone ? 2 : 1, locale: 'en-GB', timezoneId: 'Europe/London' });
+}
+
+async function signedIn(browser: Browser, baseURL: string | undefined, email: string) {
+  const ctx = await context(browser, baseURL, false);
+  const page = await ctx.newPage();
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page).not.toHaveURL(/\/sign-in/, { timeout: 30_000 });
+  return { ctx, page };
+}
+
+async function csrfOf(page: Page): Promise<string> {
+  return decodeURIComponent((await page.context().cookies()).find((c) => c.name === 'ws_csrf')?.value ?? '');
+}
+
+async function apiCall<T>(page: Page, method: 'GET' | 'POST' | 'PUT', path: string, data?: unknown): Promise<T> {
+  const res = await page.request.fetch(path, { method, data, headers: { 'X-CSRF-Token': await csrfOf(page) } });
+  expect(res.ok(), `${method} ${path}: ${res.status()} ${await res.text()}`).toBeTruthy();
+  return (await res.json()) as T;
+}
+
+interface MaildevEmail {
+  time: string;
+  text?: string;
+  html?: string;
+  to: { address: string }[];
+}
+
+/** The newest decision link for this job e-mailed to the owner after `since` that is not one of `seen`. */
+async function decisionLink(request: APIRequestContext, since: number, jobNumber: string, seen: string[] = []): Promise<string> {
+  let link = '';
+  await expect
+    .poll(
+      async () => {
+        const res = await request.get(`${MAILDEV}/api/email`);
+        if (!res.ok()) return '';
+        const mails = (await res.json()) as MaildevEmail[];
+        const mine = mails.filter((m) => m.to.some((t) => t.address.toLowerCase() === OWNER_EMAIL) && Date.parse(m.time) >= since - 2000);
+        for (const m of mine.reverse()) {
+          const body = `${m.text ?? ''} ${m.html ?? ''}`;
+          if (!body.includes(`job ${jobNumber})`)) continue;
+          const found = body.match(/https?:\/\/[^\s"'<>]+\/decide\/[A-Za-z0-9._~-]+/)?.[0];
+          if (found && !seen.includes(new URL(found).pathname)) {
+            link = new URL(found).pathname;
+            return link;
+          }
+        }
+        return '';
+      },
+      { timeout: 60_000, message: 'a new decision link e-mailed to the owner' },
+    )
+    .not.toBe('');
+  return link;
+}
+
+/** An invented close-up (a cracked spring on a dark exhaust), drawn in the browser and saved as JPEG. */
+async function inventedPhoto(browser: Browser): Promise<Buffer> {
+  const ctx = await browser.newContext({ viewport: { width: 1200, height: 900 } });
+  const page = await ctx.newPage();
+  await page.setContent(`<body style="margin:0">
+    <svg width="1200" height="900" xmlns="http://www.w3.org/2000/svg">
+      <defs><linearGradient id="g" x1="0" y1="0" x2="1" y2="1"><stop offset="0" stop-color="#5b5148"/><stop offset="1" stop-color="#2a2622"/></linearGradient></defs>
+      <rect width="1200" height="900" fill="url(#g)"/>
+      <rect x="0" y="380" width="1200" height="160" fill="#8d7f70"/>
+      <path d="M200 460 q40 -90 80 0 t80 0 t80 0 t80 0 t80 0 t80 0 t80 0 t80 0 t80 0" stroke="#c9c2b6" stroke-width="18" fill="none"/>
+      <path d="M610 400 l22 40 -16 18 26 44" stroke="#17120e" stroke-width="7" fill="none"/>
+      <circle cx="620" cy="455" r="90" stroke="#f0d25a" stroke-width="8" fill="none"/>
+    </svg></body>`);
+  const jpeg = await page.screenshot({ type: 'jpeg', quality: 85 });
+  await ctx.close();
+  return jpeg;
+}
+
+test('the owner’s link follows what the manager does: revoked, re-sent, decided @approval', async ({ browser, baseURL, request }, testInfo) => {
+  test.skip(testInfo.project.name !== 'desktop', 'Changes demo data: runs once, with its own phone and desktop windows.');
+  test.setTimeout(300_000);
+  const stamp = Date.now().toString(36);
+  const springTitle = `Exhaust spring cracked ${stamp}`;
+  const bootTitle = `Carburettor boot perished ${stamp}`;
+  let jobId = '';
+  let jobNumber = '';
+  let requestId = '';
+  const since = Date.now();
+
+  const manager = await signedIn(browser, baseURL, 'manager@brackenfold.example');
+  const owner = await context(browser, baseURL, true);
+  const phone = await owner.newPage();
+  const bar = phone.getByTestId('running-total');
+  const total = (which: string) => bar.locator(`[data-total="${which}"]`);
+
+  await test.step('the manager books Q-MRLW in, prices two findings that share the cowling, adds a photo and sends them', async () => {
+    const { page } = manager;
+    const aircraft = await apiCall<{ items: { id: string; registration: string }[] }>(page, 'GET', '/api/aircraft?q=Q-MRLW');
+    const mrlw = aircraft.items.find((a) => a.registration === 'Q-MRLW')!;
+    const job = await apiCall<{ id: string; number: string; version: number }>(page, 'POST', '/api/jobs', {
+      aircraftId: mrlw.id,
+      title: `Yearly look-over, links journey ${stamp}`,
+      type: 'annual_permit_inspection',
+      bookedInOn: new Date().toISOString().slice(0, 10),
+    });
+    jobId = job.id;
+    jobNumber = job.number;
+    await apiCall(page, 'POST', `/api/jobs/${job.id}/transition`, { to: 'inspecting', version: job.version });
+    const raise = (title: string, category: string, location: string, seen: string) =>
+      apiCall<{ id: string }>(page, 'POST', `/api/jobs/${job.id}/findings`, { title, category, location, seen });
+    const spring = await raise(springTitle, 'airworthiness', 'Exhaust, rear cylinder', 'One retaining spring cracked through at the hook.');
+    const boot = await raise(bootTitle, 'recommended', 'Carburettor, left', 'The rubber boot is cracked round its clamp.');
+
+    const est = await apiCall<{ version: number }>(page, 'GET', `/api/jobs/${job.id}/estimate`);
+    const cowl = randomUUID();
+    // VAT at 20 % is exact on every figure here, so any rounding method gives the same pence.
+    await apiCall(page, 'PUT', `/api/jobs/${job.id}/estimate`, {
+      version: est.version,
+      accessTasks: [{ id: cowl, name: 'Cowling off', hours: '1.5', ratePerHour: '62.00', vatRate: 'standard' }],
+      lines: [
+        { id: randomUUID(), stage: 'inspection', kind: 'labour', description: 'Look-over', quantity: '1', ratePerHour: '62.00', vatRate: 'standard' },
+        { id: randomUUID(), stage: 'discovered', kind: 'labour', description: 'Replace the spring', quantity: '0.5', ratePerHour: '62.00', vatRate: 'standard', findingId: spring.id, accessTaskId: cowl },
+        { id: randomUUID(), stage: 'discovered', kind: 'labour', description: 'Fit a new boot', quantity: '1', ratePerHour: '62.00', vatRate: 'standard', findingId: boot.id, accessTaskId: cowl },
+        { id: randomUUID(), stage: 'discovered', kind: 'part', description: 'Carburettor boot', quantity: '1', unitPrice: '18.40', vatRate: 'standard', findingId: boot.id },
+      ],
+    });
+    const upload = await page.request.post(`/api/jobs/${job.id}/findings/${spring.id}/photos`, {
+      headers: { 'X-CSRF-Token': await csrfOf(page) },
+      multipart: { photos: { name: 'spring.jpg', mimeType: 'image/jpeg', buffer: await inventedPhoto(browser) } },
+    });
+    expect(upload.status(), await upload.text()).toBe(201);
+    const now = await apiCall<{ version: number }>(page, 'GET', `/api/jobs/${job.id}/estimate`);
+    const sent = await apiCall<{ request: { id: string } }>(page, 'POST', `/api/jobs/${job.id}/approval-requests`, {
+      findingIds: [spring.id, boot.id],
+      message: 'Both need the cowling off, so doing them together saves you the opening-up once.',
+      estimateVersion: now.version,
+    });
+    requestId = sent.request.id;
+  });
+
+  const first = await decisionLink(request, since, jobNumber);
+
+  await test.step('the owner opens the link on a phone: photo full screen, and part-way choices charge the cowling once', async () => {
+    const scripts = new Set<string>();
+    phone.on('response', (r) => {
+      if (r.request().resourceType() === 'script') scripts.add(new URL(r.url()).pathname);
+    });
+    await phone.goto(first);
+    await expect(phone.getByText('Finding 1 of 2')).toBeVisible();
+    // The page's own entry: not the app with its router and shell.
+    expect([...scripts].some((s) => /\/assets\/main-/.test(s)), [...scripts].join(' ')).toBe(false);
+    const photo = phone.getByRole('img', { name: `Photo 1 of F-1: ${springTitle}` });
+    await expect(photo).toBeVisible();
+    await expect.poll(() => photo.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBeGreaterThan(0);
+    // Full column width at 375 px: the column is the screen less its 16 px margins.
+    const opener = phone.getByRole('button', { name: /^Photo 1 of F-1/ });
+    expect(Math.round((await opener.boundingBox())!.width)).toBe(PHONE.width - 32);
+    await shot(phone, testInfo, '01-owner-finding-with-photo-375');
+    await opener.click();
+    const viewer = phone.getByRole('dialog', { name: `Photo 1 of F-1: ${springTitle}` });
+    await expect(viewer).toBeVisible();
+    await shot(phone, testInfo, '02-owner-photo-full-screen-375');
+    await phone.keyboard.press('Escape');
+    await expect(viewer).toHaveCount(0);
+
+    // F-1 alone carries the cowling: 31.00 + 93.00 = 124.00 net, 148.80 incl. VAT.
+    await phone.getByRole('radio', { name: /^Approve/ }).check();
+    await expect(total('this-request')).toHaveText('£148.80');
+    // Still open, F-2 without the cowling: 62.00 + 18.40 = 80.40 net, 96.48 incl. VAT.
+    await expect(total('undecided')).toHaveText('£96.48');
+    await phone.getByRole('button', { name: 'Next finding →' }).click();
+    // With F-1 approved, F-2 adds only its own work.
+    await expect(phone.getByTestId('decide-adds')).toContainText('this adds £96.48 incl. VAT');
+    await phone.getByRole('radio', { name: /^Approve/ }).check();
+    // Both, the cowling once: 204.40 net, 245.28 (not 148.80 + 208.08 = 356.88).
+    await expect(total('this-request')).toHaveText('£245.28');
+    await expect(bar).not.toContainText('may come out lower');
+    await phone.getByRole('button', { name: '← Back' }).click();
+    await phone.getByRole('radio', { name: /^Decline/ }).check();
+    // F-2 alone now carries the cowling: 62.00 + 18.40 + 93.00 = 173.40 net, 208.08.
+    await expect(total('this-request')).toHaveText('£208.08');
+    await expect(phone.getByText('cannot be released to fly while it is open')).toBeVisible();
+    await shot(phone, testInfo, '03-owner-declined-airworthiness-part-way-375');
+    await shot(phone, testInfo, '03b-owner-declined-airworthiness-part-way-375-full', true);
+    // The same letter on a desktop screen.
+    const wide = await context(browser, baseURL, false);
+    const widePage = await wide.newPage();
+    await widePage.goto(first);
+    await expect(widePage.getByRole('img', { name: `Photo 1 of F-1: ${springTitle}` })).toBeVisible();
+    await shot(widePage, testInfo, '04-owner-finding-with-photo-1280');
+    await widePage.getByRole('radio', { name: /^Decline/ }).check();
+    await widePage.getByRole('button', { name: 'Next finding →' }).click();
+    await widePage.getByRole('radio', { name: /^Approve/ }).check();
+    await expect(widePage.getByTestId('running-total').locator('[data-total="this-request"]')).toHaveText('£208.08');
+    await shot(widePage, testInfo, '04b-owner-part-way-1280', true);
+    await wide.close();
+  });
+
+  await test.step('the manager revokes the link: the owner sees the closed page with its plain reason', async () => {
+    const { page } = manager;
+    await page.goto(`/jobs/${jobId}`);
+    const requests = page.getByRole('list', { name: 'Approval requests' });
+    await requests.getByRole('button', { name: 'Revoke link' }).click();
+    await expect(requests.locator('[data-request-state="revoked"]')).toHaveCount(1);
+    await shot(page, testInfo, '05-manager-revoked-1280');
+
+    await phone.reload();
+    const closed = phone.getByTestId('decision-closed');
+    await expect(closed.getByText('The workshop withdrew this link', { exact: true })).toBeVisible();
+    await expect(closed.getByText(/The workshop withdrew this link on \d+ \w+\. Contact the workshop/)).toBeVisible();
+    await expect(closed.locator('[data-request-state="revoked"]')).toHaveText('Link revoked');
+    await expect(phone.getByRole('radio')).toHaveCount(0);
+    await expect(phone.getByTestId('running-total')).toHaveCount(0);
+    await shot(phone, testInfo, '06-owner-revoked-375');
+  });
+
+  let second = '';
+  await test.step('the manager re-sends: the old link stops, the new one from the e-mail works', async () => {
+    // The job screen offers Resend only while a request is open or expired; a revoked one is re-sent through the API.
+    await apiCall(manager.page, 'POST', `/api/approval-requests/${requestId}/resend`);
+    second = await decisionLink(request, since, jobNumber, [first]);
+    expect(second).not.toBe(first);
+    await phone.goto(first);
+    await expect(phone.getByRole('heading', { level: 1, name: 'This link no longer opens a request' })).toBeVisible();
+    await expect(phone.getByText('only the link in the newest e-mail works')).toBeVisible();
+    await shot(phone, testInfo, '07-owner-old-link-375');
+    await phone.goto(second);
+    await expect(phone.getByText('Finding 1 of 2')).toBeVisible();
+    await expect(phone.getByRole('radio', { name: /^Approve/ })).not.toBeChecked();
+    await shot(phone, testInfo, '08-owner-new-link-375');
+  });
+
+  let third = '';
+  await test.step('re-sent again from the job screen, the owner decides on the newest link', async () => {
+    const { page } = manager;
+    await page.goto(`/jobs/${jobId}`);
+    const requests = page.getByRole('list', { name: 'Approval requests' });
+    await expect(requests.locator('[data-request-state="sent"]')).toHaveCount(1);
+    await requests.getByRole('button', { name: 'Resend' }).click();
+    await expect(requests.getByText('A new link is on its way to the owner')).toBeVisible();
+    third = await decisionLink(request, since, jobNumber, [first, second]);
+    await phone.goto(second);
+    await expect(phone.getByTestId('decision-unknown-link')).toBeVisible();
+
+    await phone.goto(third);
+    await phone.getByRole('radio', { name: /^Approve/ }).check();
+    await phone.getByRole('button', { name: 'Next finding →' }).click();
+    await phone.getByRole('radio', { name: /^Approve/ }).check();
+    await expect(total('new-total')).toHaveText('£319.68'); // 74.40 quoted + 245.28
+    await phone.getByRole('button', { name: 'Review your choices' }).click();
+    // 148.80 + 208.08 − 245.28.
+    await expect(phone.getByTestId('decide-shared-saving')).toContainText('£111.60 less than their prices added up');
+    await phone.getByLabel('Type your full name to confirm').fill(OWNER_NAME);
+    await shot(phone, testInfo, '09-owner-review-375');
+    await phone.getByRole('button', { name: 'Confirm decisions' }).click();
+    await expect(phone.getByTestId('decision-receipt').getByRole('heading', { name: 'Your decisions are recorded' })).toBeVisible();
+  });
+
+  await test.step('the decided request’s link shows the decided page, on any phone', async () => {
+    const later = await context(browser, baseURL, true);
+    const again = await later.newPage();
+    await again.goto(third);
+    const receipt = again.getByTestId('decision-receipt');
+    await expect(receipt.getByRole('heading', { name: 'Your decisions are recorded' })).toBeVisible();
+    await expect(receipt).toContainText(`Thank you, ${OWNER_NAME}`);
+    await expect(receipt.locator('[data-decision="approve"]')).toHaveCount(2);
+    await expect(receipt.locator('[data-total="new-total"]')).toHaveText('£319.68');
+    await expect(again.getByRole('radio')).toHaveCount(0);
+    await shot(again, testInfo, '10-owner-decided-375', true);
+    await later.close();
+    await owner.close();
+    await manager.ctx.close();
+  });
+});
