@@ -68,6 +68,43 @@ describe('api client', () => {
     await expect(api.get('/jobs')).rejects.toMatchObject({ code: 'network', status: 0 });
   });
 
+  it('uploads files as multipart under "photos" with the CSRF header and without setting Content-Type', async () => {
+    fetchMock.mockResolvedValueOnce(jsonResponse(201, [{ id: 'p1' }]));
+    const a = new File([new Uint8Array([0xff, 0xd8, 0xff, 0xe0])], 'plug.jpg', { type: 'image/jpeg' });
+    const b = new File([new Uint8Array([0x89, 0x50, 0x4e, 0x47])], 'cowl.png', { type: 'image/png' });
+    await expect(api.upload('/jobs/j1/findings/f1/photos', [a, b])).resolves.toEqual([{ id: 'p1' }]);
+    const [url, init] = fetchMock.mock.calls[0]!;
+    expect(url).toBe('/api/jobs/j1/findings/f1/photos');
+    expect(init?.method).toBe('POST');
+    expect(init?.credentials).toBe('include');
+    const headers = init?.headers as Record<string, string>;
+    expect(headers['X-CSRF-Token']).toBe('tok-123');
+    // The browser writes multipart/form-data with its boundary; a hand-set header would lose it.
+    expect(Object.keys(headers).map((k) => k.toLowerCase())).not.toContain('content-type');
+    const form = init?.body as FormData;
+    expect(form).toBeInstanceOf(FormData);
+    const sent = form.getAll('photos') as File[];
+    expect(sent.map((f) => f.name)).toEqual(['plug.jpg', 'cowl.png']);
+    expect([...form.keys()].every((k) => k === 'photos')).toBe(true);
+  });
+
+  it('maps a refused upload to an ApiError carrying the server message', async () => {
+    fetchMock.mockResolvedValueOnce(jsonResponse(415, { error: { code: 'unsupported_type', message: 'notes.jpg is not a JPEG, PNG or WebP picture.', requestId: 'r9' } }));
+    const err = (await api.upload('/jobs/j1/findings/f1/photos', [new File(['hello'], 'notes.jpg', { type: 'image/jpeg' })]).catch((e: unknown) => e)) as ApiError;
+    expect(err).toBeInstanceOf(ApiError);
+    expect(err).toMatchObject({ code: 'unsupported_type', status: 415, message: 'notes.jpg is not a JPEG, PNG or WebP picture.' });
+  });
+
+  it('sends a DELETE with the CSRF header and no body, and reads a 204 as nothing', async () => {
+    fetchMock.mockResolvedValueOnce(new Response(null, { status: 204 }));
+    await expect(api.delete('/jobs/j1/findings/f1/photos/p1')).resolves.toBeUndefined();
+    const [url, init] = fetchMock.mock.calls[0]!;
+    expect(url).toBe('/api/jobs/j1/findings/f1/photos/p1');
+    expect(init?.method).toBe('DELETE');
+    expect(init?.body).toBeUndefined();
+    expect((init?.headers as Record<string, string>)['X-CSRF-Token']).toBe('tok-123');
+  });
+
   it('reads one cookie out of several', () => {
     expect(readCookie('ws_csrf', 'a=1; ws_csrf=x%3Dy; b=2')).toBe('x=y');
     expect(readCookie('missing', 'a=1')).toBeNull();

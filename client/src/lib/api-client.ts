@@ -77,7 +77,9 @@ export function buildUrl(path: string, query?: RequestOptions['query']): string 
 export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Promise<T> {
   const method = opts.method ?? 'GET';
   const headers: Record<string, string> = { Accept: 'application/json' };
-  if (opts.body !== undefined) headers['Content-Type'] = 'application/json';
+  // A multipart body carries its own boundary in Content-Type: the browser must write that header.
+  const isForm = typeof FormData !== 'undefined' && opts.body instanceof FormData;
+  if (opts.body !== undefined && !isForm) headers['Content-Type'] = 'application/json';
   if (UNSAFE.has(method)) {
     const csrf = readCookie('ws_csrf');
     if (csrf) headers['X-CSRF-Token'] = csrf;
@@ -88,7 +90,7 @@ export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Pr
       method,
       headers,
       credentials: 'include',
-      body: opts.body === undefined ? undefined : JSON.stringify(opts.body),
+      body: opts.body === undefined ? undefined : isForm ? (opts.body as FormData) : JSON.stringify(opts.body),
       signal: opts.signal,
     });
   } catch (e) {
@@ -109,4 +111,11 @@ export const api = {
   get: <T>(path: string, query?: RequestOptions['query'], signal?: AbortSignal) => apiRequest<T>(path, { query, signal }),
   post: <T>(path: string, body?: unknown, extra?: Partial<RequestOptions>) => apiRequest<T>(path, { ...extra, method: 'POST', body: body ?? {} }),
   patch: <T>(path: string, body: unknown) => apiRequest<T>(path, { method: 'PATCH', body }),
+  delete: <T = void>(path: string) => apiRequest<T>(path, { method: 'DELETE' }),
+  /** Posts files as multipart/form-data, each under `field`; CSRF and errors as for any other write. */
+  upload: <T>(path: string, files: readonly File[], field = 'photos', extra?: Partial<Pick<RequestOptions, 'signal'>>) => {
+    const form = new FormData();
+    for (const f of files) form.append(field, f, f.name);
+    return apiRequest<T>(path, { ...extra, method: 'POST', body: form });
+  },
 };

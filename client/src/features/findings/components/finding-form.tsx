@@ -8,6 +8,7 @@ import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { withServerErrors } from '@/lib/form-errors';
 import { CategoryChoice } from './category-choice';
+import { PhotoPicker } from './photo-picker';
 
 type FormIn = z.input<typeof findingCreateSchema>;
 type FormOut = z.output<typeof findingCreateSchema>;
@@ -33,10 +34,12 @@ export function FindingForm({
   prefill?: FindingPrefill;
   parts: PartDto[];
   workshop: Pick<WorkshopDto, 'labourRates'>;
-  onSubmit: (v: FormOut) => Promise<unknown>;
+  /** Receives the checked values and the photos chosen (kept here if it throws, so nothing is lost). */
+  onSubmit: (v: FormOut, photos: File[]) => Promise<unknown>;
   onCancel: () => void;
 }) {
   const [summary, setSummary] = useState<string | null>(null);
+  const [photos, setPhotos] = useState<File[]>([]);
   const { register, handleSubmit, control, setError, formState } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(findingCreateSchema),
     defaultValues: {
@@ -54,7 +57,7 @@ export function FindingForm({
 
   const submit = handleSubmit(
     withServerErrors(setError, setSummary, Object.keys(LABELS), async (v) => {
-      await onSubmit(v);
+      await onSubmit(v, photos);
     }),
   );
 
@@ -71,6 +74,11 @@ export function FindingForm({
       <TextField label={LABELS.location} required autoComplete="off" hint="e.g. Engine, cylinder 2, lower plug" error={e.location?.message} {...register('location')} />
       <CategoryChoice current={category ?? null} error={e.category?.message} {...register('category')} />
       <TextAreaField label={LABELS.seen} required rows={4} error={e.seen?.message} {...register('seen')} />
+
+      <fieldset className="flex flex-col gap-3 rounded-card border border-seam p-3">
+        <legend className="px-1 font-semibold">Photos</legend>
+        <PhotoPicker files={photos} onChange={setPhotos} disabled={formState.isSubmitting} />
+      </fieldset>
 
       <fieldset className="flex flex-col gap-3 rounded-card border border-seam p-3">
         <legend className="px-1 font-semibold">Proposed remedy</legend>
