@@ -5,6 +5,7 @@ import { ApprovalRequest, AuditEvent, Customer, Finding, User, Workshop } from '
 import { buildSnapshot, sha256, snapshotHashOf } from '../../server/src/services/approvals.service.js';
 import { loadLines } from '../../server/src/services/estimates.service.js';
 import { findJob } from '../../server/src/services/job-access.js';
+import { snapshotPhotosOf } from '../../server/src/services/photos.service.js';
 import { pricingOf } from '../../server/src/services/pricing.js';
 import type { Scope } from '../../server/src/services/scope.js';
 import type { SeededJob } from './demo-estimates.js';
@@ -33,7 +34,7 @@ export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<s
     const owner = await Customer.findByPk(job.aircraft.customerId, { transaction: t });
     const id = randomUUID();
     const expiresAt = new Date(sentAt.getTime() + settings.approvalLinkDays * day);
-    const snapshot = buildSnapshot({ requestId: id, job, w, owner: { name: owner!.name }, message, sentAt, expiresAt, findings, lines: asSent, tasks: accessTasks, priced });
+    const snapshot = buildSnapshot({ requestId: id, job, w, owner: { name: owner!.name }, message, sentAt, expiresAt, findings, lines: asSent, tasks: accessTasks, priced, photos: await snapshotPhotosOf(findings.map((f) => f.id), t) });
     const r = await ApprovalRequest.create(
       {
         id, workshopId: w.id, jobId: job.id, snapshot, snapshotHash: snapshotHashOf(snapshot), linkNonce: randomBytes(16).toString('hex'),

@@ -5,6 +5,9 @@ import { hashPassword } from '../../server/src/lib/passwords.js';
 import { DEMO_JOBS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_STAFF, DEMO_WORKSHOP } from './demo-data.js';
 import { seedCatalogue, seedJobWork, type SeededJob } from './demo-estimates.js';
 import { seedApprovals } from './demo-approvals.js';
+import { seedDemoPhotos } from './demo-photos.js';
+import { loadStorageConfig } from '../../server/src/config/config.js';
+import { createPhotoStore, type PhotoStore } from '../../server/src/storage/index.js';
 
 export async function findDemoWorkshop(t?: Transaction): Promise<Workshop | null> {
   return Workshop.findOne({ where: { vatNumber: DEMO_WORKSHOP.vatNumber, name: DEMO_WORKSHOP.name }, transaction: t });
@@ -15,7 +18,7 @@ export async function removeDemo(sequelize: Sequelize): Promise<boolean> {
     const w = await findDemoWorkshop(t);
     if (!w) return false;
     // Children first, so no two cascades touch the same row in one statement.
-    for (const table of ['audit_events', 'approval_requests', 'time_logs', 'estimate_lines', 'access_tasks', 'findings', 'job_checklist_items', 'estimates', 'jobs', 'job_counters', 'aircraft', 'job_templates', 'parts', 'suppliers']) {
+    for (const table of ['audit_events', 'finding_photos', 'approval_requests', 'time_logs', 'estimate_lines', 'access_tasks', 'findings', 'job_checklist_items', 'estimates', 'jobs', 'job_counters', 'aircraft', 'job_templates', 'parts', 'suppliers']) {
       await sequelize.query(`DELETE FROM ${table} WHERE workshop_id = $1`, { bind: [w.id], transaction: t });
     }
     await sequelize.query('DELETE FROM users WHERE workshop_id = $1', { bind: [w.id], transaction: t });
@@ -28,8 +31,12 @@ export async function removeDemo(sequelize: Sequelize): Promise<boolean> {
 const day = 86_400_000;
 const isoDay = (d: Date) => d.toISOString().slice(0, 10);
 
-/** Seeds the demo workshop unless it is already there. Returns whether it seeded. */
-export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<boolean> {
+/**
+ * Seeds the demo workshop unless it is already there. Returns whether it seeded. Demo photos go to
+ * the given store, or to the one the environment's storage settings name (as the app would use).
+ */
+export async function seedDemo(sequelize: Sequelize, now = new Date(), store?: PhotoStore): Promise<boolean> {
+  const photos = store ?? createPhotoStore(loadStorageConfig());
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   return sequelize.transaction(async (t) => {
     // Serialise concurrent seeders; the second one then sees the workshop and stops.
@@ -90,6 +97,9 @@ export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<
     const catalogue = await seedCatalogue(w, t);
     if (catalogue) {
       await seedJobWork(w, catalogue, seeded, staff, t);
+      // Before the approval request is built, so its snapshot lists the photos the owner is shown.
+      const brke = seeded.find((j) => j.registration === 'Q-BRKE' && j.job.title === '100-hour engine service');
+      if (brke) await seedDemoPhotos(w, brke.job.id, staff.get('priya')!, photos, brke.at, t);
       await seedApprovals(w, seeded, staff, now, t);
     }
     await sequelize.query('INSERT INTO job_counters (workshop_id, last_number) VALUES ($1, $2)', { bind: [w.id, n], transaction: t });

@@ -21,12 +21,16 @@ import { jobWorkRoutes } from './routes/job-work.routes.js';
 import { workshopRoutes } from './routes/workshop.routes.js';
 import { approvalRequestRoutes, decideRoutes, jobApprovalRoutes } from './routes/approvals.routes.js';
 import type { Deps } from './services/deps.js';
+import type { PhotoStore } from './storage/index.js';
+import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
 
 export interface AppParts {
   config: Config;
   logger: Logger;
   sequelize: Sequelize;
   mail: MailQueue;
+  /** Where finding photos are kept (local folder or an S3-compatible bucket). */
+  photos: PhotoStore;
   /** The reminder and expiry schedule, when this process runs it. */
   chaser?: import('./mail/approval-chaser.js').ApprovalChaser;
 }
@@ -35,7 +39,7 @@ const REQUEST_ID = /^[A-Za-z0-9._-]{8,64}$/;
 
 export function createApp(parts: AppParts): Express {
   const { config, logger, sequelize } = parts;
-  const deps: Deps = { config, mail: parts.mail, logger };
+  const deps: Deps = { config, mail: parts.mail, logger, photos: parts.photos };
   const app = express();
   app.disable('x-powered-by');
   app.set('query parser', 'extended');
@@ -108,8 +112,11 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/jobs', jobsRoutes(deps));
   app.use('/api/jobs', jobWorkRoutes(deps));
   app.use('/api/jobs', jobApprovalRoutes(deps));
+  app.use('/api/jobs', findingPhotoRoutes(deps));
+  app.use('/api/photos', photoRoutes(deps));
   app.use('/api/approval-requests', approvalRequestRoutes(deps));
   app.use('/api/decide', decideRoutes(deps));
+  app.use('/api/decide', decidePhotoRoutes(deps));
   app.use('/api/suppliers', suppliersRoutes(deps));
   app.use('/api/parts', partsRoutes(deps));
   app.use('/api/templates', templatesRoutes(deps));

@@ -6,6 +6,7 @@ import { initModels } from './models/index.js';
 import { dummyHash } from './lib/passwords.js';
 import type { AppParts } from './app.js';
 import { ApprovalChaser } from './mail/approval-chaser.js';
+import { createPhotoStore } from './storage/index.js';
 
 /** Connects the database, binds the models and starts the mail queue and its worker. */
 export async function startParts(config: Config): Promise<AppParts> {
@@ -13,16 +14,17 @@ export async function startParts(config: Config): Promise<AppParts> {
   const sequelize = createSequelize(config.DATABASE_URL, logger);
   await sequelize.authenticate();
   initModels(sequelize);
+  const photos = createPhotoStore(config);
   const mail = new MailQueue(config, sequelize, logger.child({ part: 'mail' }));
   await mail.start();
   // Ready before the first unknown e-mail arrives, so even that one costs no extra time.
   await dummyHash();
   let chaser: ApprovalChaser | undefined;
   if (config.APPROVAL_CHASER) {
-    chaser = new ApprovalChaser(config, { config, mail, logger }, logger.child({ part: 'approvals' }));
+    chaser = new ApprovalChaser(config, { config, mail, logger, photos }, logger.child({ part: 'approvals' }));
     await chaser.start();
   }
-  return { config, logger, sequelize, mail, chaser };
+  return { config, logger, sequelize, mail, photos, chaser };
 }
 
 export async function stopParts(parts: AppParts): Promise<void> {

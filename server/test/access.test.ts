@@ -68,7 +68,7 @@ async function pricedFinding() {
 async function sentRequest(): Promise<string> {
   const f = await pricedFinding();
   const scope = { workshopId: a.workshop.id, userId: a.users.manager.id, role: 'manager' as const, customerId: null };
-  const res = await sendForApproval({ config: server.parts.config, mail: server.parts.mail, logger: server.parts.logger }, scope, f.jobId, { findingIds: [f.id], message: '', estimateVersion: 0 });
+  const res = await sendForApproval({ config: server.parts.config, mail: server.parts.mail, logger: server.parts.logger, photos: server.parts.photos }, scope, f.jobId, { findingIds: [f.id], message: '', estimateVersion: 0 });
   return res.request!.id;
 }
 

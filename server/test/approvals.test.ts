@@ -32,7 +32,7 @@ afterAll(async () => {
   await server?.close();
 });
 
-const deps = () => ({ config: server.parts.config, mail: server.parts.mail, logger: server.parts.logger });
+const deps = () => ({ config: server.parts.config, mail: server.parts.mail, logger: server.parts.logger, photos: server.parts.photos });
 
 /** A fee line at the standard rate (20%), so net 125.00 is 150.00 incl. VAT. */
 const fee = (findingId: string, net: string): EstimateLineInputForm => ({
@@ -129,7 +129,7 @@ describe('sending findings for approval', () => {
     // Key order does not change the canonical form.
     const reordered = Object.fromEntries(Object.entries(body.snapshot).reverse());
     expect(canonicalJson(reordered)).toBe(canonicalJson(body.snapshot));
-    expect(body.snapshot.findings[0]).toMatchObject({ number: 'F-1', price: { net: '125.00', vat: '25.00', gross: '150.00' }, photoIds: [] });
+    expect(body.snapshot.findings[0]).toMatchObject({ number: 'F-1', price: { net: '125.00', vat: '25.00', gross: '150.00' }, photos: [] });
     // The figures are the estimate's own.
     const est = (await manager.get(`/api/jobs/${p.job.id}/estimate`)).body as EstimateDto;
     expect(body.snapshot.totals.quoted.gross).toBe(est.priced.quoted.gross);

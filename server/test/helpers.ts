@@ -1,4 +1,7 @@
 import { randomBytes } from 'node:crypto';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import type { Express } from 'express';
 import request from 'supertest';
 import { inject } from 'vitest';
@@ -38,13 +41,23 @@ export interface TestServer {
   close(): Promise<void>;
 }
 
+/** A photo folder of the test file's own, removed when its server closes. */
+export function tempStorageDir(): string {
+  return fs.mkdtempSync(path.join(os.tmpdir(), 'ws-photos-'));
+}
+
 export async function startTestServer(overrides: Record<string, string> = {}): Promise<TestServer> {
-  const parts = await startParts(testConfig(overrides));
+  const ownDir = overrides.STORAGE_DIR ? null : tempStorageDir();
+  const all = ownDir ? { STORAGE_DIR: ownDir, ...overrides } : overrides;
+  const parts = await startParts(testConfig(all));
   return {
     app: createApp(parts),
     parts,
-    variant: (o) => createApp({ ...parts, config: testConfig({ ...overrides, ...o }) }),
-    close: () => stopParts(parts),
+    variant: (o) => createApp({ ...parts, config: testConfig({ ...all, ...o }) }),
+    close: async () => {
+      await stopParts(parts);
+      if (ownDir) fs.rmSync(ownDir, { recursive: true, force: true });
+    },
   };
 }
 

@@ -10,6 +10,10 @@ export type ApiErrorCode =
   | 'invalid_transition'
   | 'too_many_requests'
   | 'token_invalid'
+  /** 413: a file (or body) is larger than the server accepts; the message names it and the limit. */
+  | 'too_large'
+  /** 415: a file is not of a kind the server accepts, judged by its content. */
+  | 'unsupported_type'
   | 'internal';
 
 export interface ApiErrorBody {

@@ -8,8 +8,46 @@ const bool = z
   .enum(['true', 'false', '1', '0'], { message: 'Use true or false.' })
   .transform((v) => v === 'true' || v === '1');
 
+/**
+ * Where finding photos are kept. The local driver needs a folder; any S3-compatible store needs at
+ * least a bucket, a region and both keys (checked below, with a message per missing setting).
+ */
+const storageShape = {
+  STORAGE_DRIVER: z.enum(['local', 's3'], { message: 'STORAGE_DRIVER must be local or s3.' }).default('local'),
+  /** Local driver: the folder photos are written under (created if missing); defaults to .local/uploads-<profile>. */
+  STORAGE_DIR: z.string().min(1),
+  S3_BUCKET: z.string().min(1).optional(),
+  S3_REGION: z.string().min(1).optional(),
+  /** Only for stores other than AWS itself (MinIO, a test server, …): their base URL. */
+  S3_ENDPOINT: z.url({ message: 'S3_ENDPOINT must be an absolute URL such as http://127.0.0.1:9000.' }).optional(),
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  S3_FORCE_PATH_STYLE: bool.optional(),
+};
+
+type StorageFields = { STORAGE_DRIVER: 'local' | 's3'; S3_BUCKET?: string; S3_REGION?: string; S3_ACCESS_KEY_ID?: string; S3_SECRET_ACCESS_KEY?: string };
+
+function checkStorage(c: StorageFields, ctx: z.RefinementCtx): void {
+  if (c.STORAGE_DRIVER !== 's3') return;
+  const needed: [keyof StorageFields, string][] = [
+    ['S3_BUCKET', 'S3_BUCKET is required when STORAGE_DRIVER=s3: the bucket photos are kept in.'],
+    ['S3_REGION', 'S3_REGION is required when STORAGE_DRIVER=s3 (any value, such as us-east-1, for a store that ignores regions).'],
+    ['S3_ACCESS_KEY_ID', 'S3_ACCESS_KEY_ID is required when STORAGE_DRIVER=s3.'],
+    ['S3_SECRET_ACCESS_KEY', 'S3_SECRET_ACCESS_KEY is required when STORAGE_DRIVER=s3.'],
+  ];
+  for (const [key, message] of needed) if (!c[key]) ctx.addIssue({ code: 'custom', path: [key], message });
+}
+
+/** The default photo folder follows the scripts' profile (lib.sh exports WS_PROFILE and WS_LOCAL_DIR), so dev and test never share one. */
+function defaultStorageDir(env: Record<string, string | undefined>): string {
+  const profile = env.WS_PROFILE || (env.NODE_ENV === 'test' ? 'test' : 'dev');
+  const localDir = env.WS_LOCAL_DIR || path.join(repoRoot, '.local');
+  return path.join(localDir, `uploads-${profile.replace(/[^A-Za-z0-9_-]/g, '_')}`);
+}
+
 const configSchema = z
   .object({
+    ...storageShape,
     NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
     HOST: z.string().min(1).default('127.0.0.1'),
     PORT: z.coerce.number().int().min(0).max(65535).default(3000),
@@ -41,25 +79,44 @@ const configSchema = z
     if (c.NODE_ENV === 'production' && !c.COOKIE_SECURE) {
       ctx.addIssue({ code: 'custom', path: ['COOKIE_SECURE'], message: 'COOKIE_SECURE=false is refused in production: session cookies must be Secure.' });
     }
+    checkStorage(c, ctx);
   });
 
+const storageSchema = z.object(storageShape).superRefine(checkStorage);
+
 export type Config = z.output<typeof configSchema>;
+/** The storage settings alone: what the photo store needs (scripts such as the seeder read only these). */
+export type StorageConfig = Pick<Config, keyof typeof storageShape>;
 export type ConfigInput = z.input<typeof configSchema>;
 
 export class ConfigError extends Error {}
 
-/** Parse once at start-up; a bad value stops the process with every problem listed. */
-export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+function pick(keys: string[], env: Record<string, string | undefined>): Record<string, string> {
   const picked: Record<string, string> = {};
-  for (const key of Object.keys(configSchema.in.shape)) {
+  for (const key of keys) {
     const v = env[key];
     if (v !== undefined && v !== '') picked[key] = v;
   }
-  const result = configSchema.safeParse(picked);
-  if (!result.success) {
-    const lines = result.error.issues.map((i) => `  ${i.path.join('.') || '(config)'}: ${i.message}`);
-    throw new ConfigError(`Wingstage cannot start, the configuration is invalid:\n${lines.join('\n')}`);
-  }
+  picked.STORAGE_DIR ??= defaultStorageDir(env);
+  return picked;
+}
+
+function failed(error: z.ZodError): ConfigError {
+  const lines = error.issues.map((i) => `  ${i.path.join('.') || '(config)'}: ${i.message}`);
+  return new ConfigError(`Wingstage cannot start, the configuration is invalid:\n${lines.join('\n')}`);
+}
+
+/** Parse once at start-up; a bad value stops the process with every problem listed. */
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+  const result = configSchema.safeParse(pick(Object.keys(configSchema.in.shape), env));
+  if (!result.success) throw failed(result.error);
+  return result.data;
+}
+
+/** Only the storage settings, for scripts that do not need the whole app's configuration. */
+export function loadStorageConfig(env: Record<string, string | undefined> = process.env): StorageConfig {
+  const result = storageSchema.safeParse(pick(Object.keys(storageShape), env));
+  if (!result.success) throw failed(result.error);
   return result.data;
 }
 

@@ -16,6 +16,7 @@ import { JobChecklistItem } from './job-checklist-item.model.js';
 import { Finding } from './finding.model.js';
 import { TimeLog } from './time-log.model.js';
 import { ApprovalRequest } from './approval-request.model.js';
+import { FindingPhoto } from './finding-photo.model.js';
 
 let bound: Sequelize | null = null;
 
@@ -24,7 +25,7 @@ export function initModels(sequelize: Sequelize): void {
   if (bound === sequelize) return;
   if (bound) throw new Error('Models are already bound to another database connection.');
   for (const m of [Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken]) m.initModel(sequelize);
-  for (const m of [Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest]) m.initModel(sequelize);
+  for (const m of [Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest, FindingPhoto]) m.initModel(sequelize);
 
   Workshop.hasMany(User, { foreignKey: 'workshopId' });
   User.belongsTo(Workshop, { foreignKey: 'workshopId', as: 'workshop' });
@@ -43,6 +44,9 @@ export function initModels(sequelize: Sequelize): void {
   Finding.belongsTo(User, { foreignKey: 'raisedBy', as: 'raiser' });
   Finding.belongsTo(User, { foreignKey: 'rectifiedBy', as: 'rectifier' });
   TimeLog.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  Finding.hasMany(FindingPhoto, { foreignKey: 'findingId', as: 'photos' });
+  FindingPhoto.belongsTo(Finding, { foreignKey: 'findingId', as: 'finding' });
+  FindingPhoto.belongsTo(User, { foreignKey: 'uploadedBy', as: 'uploader' });
   bound = sequelize;
 }
 
@@ -51,4 +55,4 @@ export function boundSequelize(): Sequelize {
   return bound;
 }
 
-export { Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken, Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest };
+export { Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken, Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest, FindingPhoto };

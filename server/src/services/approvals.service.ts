@@ -19,6 +19,7 @@ import {
   type PreAuthorisationDto,
   type PricedEstimate,
   type SendForApprovalResultDto,
+  type SnapshotPhoto,
   type approvalRequestCreateSchema,
   type decisionSubmitSchema,
   type preAuthorisationSchema,
@@ -31,6 +32,7 @@ import type { Deps } from './deps.js';
 import { assertEstimateEditable, ensureEstimate, loadLines } from './estimates.service.js';
 import { findJob, type JobRow } from './job-access.js';
 import { loadWorkshop, pricingOf } from './pricing.js';
+import { snapshotPhotosOf, withPhotos } from './photos.service.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
 import { toWorkshopDto } from './workshop.service.js';
 
@@ -205,6 +207,8 @@ export function buildSnapshot(p: {
   lines: EstimateLineDto[];
   tasks: AccessTaskDto[];
   priced: PricedEstimate;
+  /** Each finding's current photos (photos.service snapshotPhotosOf); a finding missing here has none. */
+  photos?: Map<string, SnapshotPhoto[]>;
 }): ApprovalSnapshot {
   const { w, lines, tasks, priced } = p;
   const pricing = pricingOf(w);
@@ -239,7 +243,7 @@ export function buildSnapshot(p: {
         seen: f.seen,
         measuredValue: f.measuredValue,
         limit: f.limit,
-        photos: [],
+        photos: p.photos?.get(f.id) ?? [],
         lines: mine.filter((l) => l.stage === 'discovered').map((l) => ({ description: l.description, kind: l.kind, quantity: l.quantity, net: pricedLine.get(l.id)?.net ?? '0.00' })),
         price: own.price,
         accessCovered: own.accessCovered.map((id) => tasks.find((t) => t.id === id)?.name ?? id),
@@ -274,7 +278,7 @@ async function createRequest(
   const id = randomUUID();
   const sentAt = new Date();
   const expiresAt = new Date(sentAt.getTime() + settings.approvalLinkDays * 86_400_000);
-  const snapshot = buildSnapshot({ requestId: id, job, w, owner, message, sentAt, expiresAt, findings, lines, tasks, priced });
+  const snapshot = buildSnapshot({ requestId: id, job, w, owner, message, sentAt, expiresAt, findings, lines, tasks, priced, photos: await snapshotPhotosOf(findings.map((f) => f.id), t) });
   const link = newLink(deps, id);
   const r = await ApprovalRequest.create(
     {
@@ -548,7 +552,7 @@ async function pageOf(r: ApprovalRequest, t?: Transaction): Promise<DecisionPage
   return {
     state: r.state,
     closedReason: closedReason(r),
-    snapshot: r.snapshot,
+    snapshot: withPhotos(r.snapshot),
     snapshotHash: r.snapshotHash,
     decisions: r.state === 'decided' ? await decisionsOf(r.id, t) : null,
     decidedByName: r.decidedByName ?? null,

@@ -9,6 +9,7 @@ import {
   describeLimit,
   isOpenAirworthiness,
   type FindingDto,
+  type FindingPhotoDto,
   type FindingState,
   type JobChecklistItemDto,
   type JobState,
@@ -26,6 +27,7 @@ import { loadParts } from './catalogue.service.js';
 import { assertEstimateEditable, ensureEstimate } from './estimates.service.js';
 import { findJob, type JobRow } from './job-access.js';
 import { loadWorkshop } from './pricing.js';
+import { photosByFinding } from './photos.service.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
 
 type FindingCreate = z.output<typeof findingCreateSchema>;
@@ -47,7 +49,7 @@ const findingInclude = [
   { model: User, as: 'rectifier', required: false, attributes: ['name'] },
 ];
 
-function findingDto(f: Finding): FindingDto {
+function findingDto(f: Finding, photos: FindingPhotoDto[]): FindingDto {
   return {
     id: f.id,
     jobId: f.jobId,
@@ -65,7 +67,7 @@ function findingDto(f: Finding): FindingDto {
     raisedAt: f.raisedAt.toISOString(),
     rectifiedAt: f.rectifiedAt ? f.rectifiedAt.toISOString() : null,
     rectifiedByName: f.rectifier?.name ?? null,
-    photos: [],
+    photos,
     version: f.version,
   };
 }
@@ -79,7 +81,8 @@ async function findFinding(scope: Scope, jobId: string, id: string, t?: Transact
 async function findingOut(scope: Scope, jobId: string, id: string, t?: Transaction): Promise<FindingDto> {
   const f = await Finding.findOne({ where: inWorkshop(scope, { jobId, id }), include: findingInclude, transaction: t });
   if (!f) throw notFound('That finding');
-  return findingDto(f);
+  const photos = await photosByFinding(scope, jobId, [f.id], t);
+  return findingDto(f, photos.get(f.id) ?? []);
 }
 
 export async function listFindings(scope: Scope, jobId: string): Promise<FindingDto[]> {
@@ -87,7 +90,9 @@ export async function listFindings(scope: Scope, jobId: string): Promise<Finding
   const where: Record<string, unknown> = { jobId: job.id };
   // Drafts are the workshop's working notes until priced.
   const rows = await Finding.findAll({ where: inWorkshop(scope, where), include: findingInclude, order: [['seq', 'ASC']] });
-  return rows.filter((f) => scope.role !== 'owner' || f.state !== 'draft').map(findingDto);
+  // Every photo of the job in one query, not one per finding.
+  const photos = await photosByFinding(scope, job.id);
+  return rows.filter((f) => scope.role !== 'owner' || f.state !== 'draft').map((f) => findingDto(f, photos.get(f.id) ?? []));
 }
 
 async function checkRemedy(scope: Scope, remedy: FindingCreate['remedy'], t: Transaction): Promise<void> {
