@@ -26,9 +26,10 @@ const GAP = '0.98';
 // An invented drawing (a retaining spring with a crack marked), made once with sharp; about 26 kB.
 const PHOTO = fileURLToPath(new URL('../fixtures/finding-photo.jpg', import.meta.url));
 
-/** The picture really arrived: the browser decoded it from the server's reply. */
+/** The picture really arrived: the browser decoded it from the server's reply (lazy ones load once in view). */
 async function expectLoaded(img: Locator) {
   await expect(img).toBeVisible();
+  await img.scrollIntoViewIfNeeded();
   await expect.poll(() => img.evaluate((el) => (el as HTMLImageElement).complete && (el as HTMLImageElement).naturalWidth)).toBeGreaterThan(0);
 }
 

@@ -105,7 +105,7 @@ export function FindingPhotos({
         below={
           editable
             ? (p, i) => (
-                <Button variant="quiet" className="px-2" onClick={() => setConfirming(p.id)} aria-label={`Remove photo ${i + 1} of ${f.number}`} disabled={remove.isPending}>
+                <Button variant="secondary" className="w-full" onClick={() => setConfirming(p.id)} aria-label={`Remove photo ${i + 1} of ${f.number}`} disabled={remove.isPending}>
                   Remove
                 </Button>
               )

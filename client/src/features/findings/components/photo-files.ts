@@ -17,13 +17,14 @@ export async function sniffPictureType(file: Blob): Promise<PictureType | null> 
   return null;
 }
 
-/** Sizes for people, to a tenth of a megabyte; `up` rounds up so a file just over a limit never reads as the limit. */
-export function formatMegabytes(bytes: number, up = false): string {
+/** Sizes for people: kB under a megabyte, else to a tenth of a megabyte; `up` rounds up so a file just over a limit never reads as the limit. */
+export function formatFileSize(bytes: number, up = false): string {
+  if (bytes < 1024 * 1024) return `${Math.max(1, Math.ceil(bytes / 1024))} kB`;
   const tenths = (bytes / (1024 * 1024)) * 10;
   return `${(up ? Math.ceil(tenths) : Math.round(tenths)) / 10} MB`;
 }
 
-const MAX_MB = formatMegabytes(PHOTO_LIMITS.maxBytes);
+const MAX_MB = formatFileSize(PHOTO_LIMITS.maxBytes);
 
 export interface PhotoCheck {
   accepted: File[];
@@ -41,7 +42,7 @@ export async function checkPhotoFiles(files: readonly File[], room: number): Pro
   const overLimit: string[] = [];
   for (const file of files) {
     if (file.size > PHOTO_LIMITS.maxBytes) {
-      refused.push(`${file.name} is ${formatMegabytes(file.size, true)}; a photo can be at most ${MAX_MB}.`);
+      refused.push(`${file.name} is ${formatFileSize(file.size, true)}; a photo can be at most ${MAX_MB}.`);
       continue;
     }
     if ((await sniffPictureType(file)) === null) {

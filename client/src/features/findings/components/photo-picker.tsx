@@ -2,7 +2,7 @@ import { PHOTO_LIMITS } from '@wingstage/shared';
 import { useEffect, useState, type ChangeEvent } from 'react';
 import { Button, buttonClass } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
-import { checkPhotoFiles, formatMegabytes, photoRoom, roomSentence } from './photo-files';
+import { checkPhotoFiles, formatFileSize, photoRoom, roomSentence } from './photo-files';
 
 const ACCEPT = PHOTO_LIMITS.acceptedTypes.join(',');
 
@@ -33,7 +33,7 @@ function Preview({ file, index, onRemove, disabled }: { file: File; index: numbe
       <span className="truncate text-xs" title={file.name}>
         {file.name}
       </span>
-      <span className="text-xs text-slate-soft tabular-nums">{formatMegabytes(file.size)}</span>
+      <span className="text-xs text-slate-soft tabular-nums">{formatFileSize(file.size)}</span>
       <Button variant="secondary" onClick={onRemove} disabled={disabled} aria-label={`Remove chosen photo ${index + 1} (${file.name})`}>
         Remove
       </Button>
@@ -77,7 +77,7 @@ export function PhotoPicker({
 
   return (
     <div className="flex flex-col gap-3">
-      <div className="flex flex-wrap gap-2">
+      <div className="grid gap-2 sm:flex sm:flex-wrap">
         <label className={pickClass}>
           <input type="file" accept={ACCEPT} capture="environment" className="sr-only" onChange={(e) => void add(e)} disabled={full || disabled} />
           Take a photo
@@ -88,7 +88,7 @@ export function PhotoPicker({
         </label>
       </div>
       <p className="text-xs text-slate-soft">
-        JPEG, PNG or WebP, up to {formatMegabytes(PHOTO_LIMITS.maxBytes)} each; {PHOTO_LIMITS.maxFilesPerUpload} at a time, {PHOTO_LIMITS.maxPerFinding} per finding.
+        JPEG, PNG or WebP, up to {formatFileSize(PHOTO_LIMITS.maxBytes)} each; {PHOTO_LIMITS.maxFilesPerUpload} at a time, {PHOTO_LIMITS.maxPerFinding} per finding.
         Location and other camera details are removed when the photo is stored.
         {full && files.length > 0 ? ` ${roomSentence(0).replace(/^no/, 'No')}` : ''}
       </p>
