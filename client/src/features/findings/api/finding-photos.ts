@@ -1,6 +1,6 @@
 import type { FindingPhotoDto } from '@wingstage/shared';
 import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { api, uploadWithProgress } from '@/lib/api-client';
 import { jobKeysBase } from '@/lib/job-keys';
 
 /** A photo changes the finding's card and writes a history entry; prices are untouched. */
@@ -8,13 +8,16 @@ function refreshAfterPhotos(qc: QueryClient, jobId: string) {
   return qc.invalidateQueries({ queryKey: jobKeysBase.detail(jobId), predicate: (q) => q.queryKey[3] === 'findings' || q.queryKey[3] === 'history' });
 }
 
-export const uploadFindingPhotos = (jobId: string, findingId: string, files: readonly File[]) =>
-  api.upload<FindingPhotoDto[]>(`/jobs/${jobId}/findings/${findingId}/photos`, files, 'photos');
+export function uploadFindingPhotos(jobId: string, findingId: string, files: readonly File[], onProgress?: (fraction: number) => void) {
+  const path = `/jobs/${jobId}/findings/${findingId}/photos`;
+  // Progress needs XMLHttpRequest; without it (or without a listener) the plain fetch path serves.
+  return onProgress && typeof XMLHttpRequest !== 'undefined' ? uploadWithProgress<FindingPhotoDto[]>(path, files, onProgress, 'photos') : api.upload<FindingPhotoDto[]>(path, files, 'photos');
+}
 
 export function useUploadFindingPhotos(jobId: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (v: { findingId: string; files: readonly File[] }) => uploadFindingPhotos(jobId, v.findingId, v.files),
+    mutationFn: (v: { findingId: string; files: readonly File[]; onProgress?: (fraction: number) => void }) => uploadFindingPhotos(jobId, v.findingId, v.files, v.onProgress),
     onSettled: () => refreshAfterPhotos(qc, jobId),
   });
 }

@@ -1,6 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { describeLimit, findingCreateSchema, type ChecklistLimit, type FindingCategory, type FindingCreateInput, type PartDto, type WorkshopDto } from '@wingstage/shared';
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
@@ -30,6 +30,7 @@ export function FindingForm({
   workshop,
   onSubmit,
   onCancel,
+  sending,
 }: {
   prefill?: FindingPrefill;
   parts: PartDto[];
@@ -37,6 +38,8 @@ export function FindingForm({
   /** Receives the checked values and the photos chosen (kept here if it throws, so nothing is lost). */
   onSubmit: (v: FormOut, photos: File[]) => Promise<unknown>;
   onCancel: () => void;
+  /** Shown by the submit button while the photos go up after the finding is saved. */
+  sending?: ReactNode;
 }) {
   const [summary, setSummary] = useState<string | null>(null);
   const [photos, setPhotos] = useState<File[]>([]);
@@ -125,6 +128,7 @@ export function FindingForm({
           </div>
         </div>
       </fieldset>
+      {sending}
       <div className="flex flex-wrap gap-2">
         <Button type="submit" size="lg" busy={formState.isSubmitting}>
           Raise finding

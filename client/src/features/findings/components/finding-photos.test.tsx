@@ -1,5 +1,5 @@
 import type { FindingDto, FindingPhotoDto } from '@wingstage/shared';
-import { fireEvent, screen, waitFor, within } from '@testing-library/react';
+import { act, fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { jobKeysBase } from '@/lib/job-keys';
 import { renderWithApp } from '@/testing/render';
@@ -51,6 +51,8 @@ describe('photos on a finding card', () => {
   const fetchMock = vi.fn<typeof fetch>();
   beforeEach(() => {
     vi.stubGlobal('fetch', fetchMock);
+    // These answer through fetch; the progress path (XMLHttpRequest) has its own test.
+    vi.stubGlobal('XMLHttpRequest', undefined);
     document.cookie = 'ws_csrf=tok-7';
     vi.spyOn(URL, 'createObjectURL').mockImplementation((b) => `blob:${(b as File).name}`);
     vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => {});
@@ -138,5 +140,42 @@ describe('photos on a finding card', () => {
     fireEvent.click(within(panel).getByRole('button', { name: 'Try again' }));
     expect(await screen.findByText('1 photo attached to F-2.')).toBeTruthy();
     expect(settled).toHaveBeenCalledWith(FID);
+  });
+
+  it('while photos go up from the card, then how far they have got is shown, and the reply closes the panel', async () => {
+    let xhr: { upload: { onprogress: ((e: object) => void) | null }; onload: (() => void) | null; status: number; responseText: string; url: string } | null = null;
+    class ProgressXhr {
+      upload = { onprogress: null as ((e: object) => void) | null };
+      onload: (() => void) | null = null;
+      onerror: (() => void) | null = null;
+      status = 0;
+      responseText = '';
+      url = '';
+      withCredentials = false;
+      constructor() {
+        xhr = this;
+      }
+      open(_m: string, url: string) {
+        this.url = url;
+      }
+      setRequestHeader() {}
+      send() {}
+    }
+    vi.stubGlobal('XMLHttpRequest', ProgressXhr);
+    fetchMock.mockResolvedValue(json(200, [finding]));
+    renderWithApp(<FindingsList findings={[finding]} photos={{ jobId: JOB, canEdit: true }} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Add photos' }));
+    fireEvent.change(screen.getByLabelText('Choose pictures'), { target: { files: [jpeg('a.jpg'), jpeg('b.jpg')] } });
+    fireEvent.click(await screen.findByRole('button', { name: 'Attach 2 photos' }));
+    await waitFor(() => expect(xhr).not.toBeNull());
+    expect(xhr!.url).toBe(`/api/jobs/${JOB}/findings/${FID}/photos`);
+    act(() => xhr!.upload.onprogress?.({ lengthComputable: true, loaded: 40, total: 100 }));
+    expect((await screen.findByText('40%')).closest('[role="status"]')!.textContent).toContain('Sending 2 photos… 40%');
+    expect((screen.getByRole('progressbar', { name: 'Photos sent so far' }) as HTMLProgressElement).value).toBe(40);
+    xhr!.status = 201;
+    xhr!.responseText = JSON.stringify([photo('ph-3', 3), photo('ph-4', 4)]);
+    act(() => xhr!.onload?.());
+    expect(await screen.findByText('2 photos attached to F-2.')).toBeTruthy();
+    expect(screen.queryByRole('progressbar')).toBeNull();
   });
 });

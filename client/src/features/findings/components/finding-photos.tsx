@@ -5,7 +5,7 @@ import { Notice } from '@/components/ui/notice';
 import { PhotoStrip } from '@/components/ui/photo-strip';
 import { isApiError } from '@/lib/api-client';
 import { useRemoveFindingPhoto, useUploadFindingPhotos } from '../api/finding-photos';
-import { PhotoPicker } from './photo-picker';
+import { PhotoPicker, UploadProgress } from './photo-picker';
 import type { UnsentPhotos } from './raise-finding';
 
 const thumb = (id: string) => photoUrl(id, 'thumb');
@@ -46,6 +46,7 @@ export function FindingPhotos({
   const [problem, setProblem] = useState<string | null>(unsent?.message ?? null);
   const [done, setDone] = useState<string | null>(null);
   const [confirming, setConfirming] = useState<string | null>(null);
+  const [progress, setProgress] = useState<number | null>(null);
   const label = photoLabel(f);
   // Photos handed back after this card first showed (the failed upload came after the new finding
   // was listed): open the add panel with them and the reason.
@@ -72,12 +73,15 @@ export function FindingPhotos({
   const send = async () => {
     setProblem(null);
     setDone(null);
+    setProgress(0);
     try {
-      const stored = await upload.mutateAsync({ findingId: f.id, files });
+      const stored = await upload.mutateAsync({ findingId: f.id, files, onProgress: setProgress });
       close();
       setDone(`${stored.length === 1 ? '1 photo' : `${stored.length} photos`} attached to ${f.number}.`);
     } catch (e) {
       setProblem(isApiError(e) ? e.message : 'The upload did not finish. Please try again.');
+    } finally {
+      setProgress(null);
     }
   };
 
@@ -160,6 +164,7 @@ export function FindingPhotos({
             </Notice>
           ) : null}
           <PhotoPicker files={files} onChange={setFiles} existing={f.photos.length} disabled={upload.isPending} />
+          {progress !== null ? <UploadProgress count={files.length} fraction={progress} /> : null}
           <div className="flex flex-wrap gap-2">
             <Button busy={upload.isPending} disabled={files.length === 0} onClick={() => void send()}>
               {problem ? 'Try again' : files.length === 0 ? 'Attach photos' : files.length === 1 ? 'Attach 1 photo' : `Attach ${files.length} photos`}

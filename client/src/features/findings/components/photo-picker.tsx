@@ -120,3 +120,17 @@ export function PhotoPicker({
     </div>
   );
 }
+
+/** How far an upload has gone, in words and as a bar. */
+export function UploadProgress({ count, fraction }: { count: number; fraction: number }) {
+  const pct = Math.round(fraction * 100);
+  return (
+    <div role="status" className="flex flex-col gap-1 text-sm" data-upload-progress={pct}>
+      <span>
+        {pct >= 100 ? 'Photos sent; the server is storing them…' : `Sending ${count === 1 ? 'the photo' : `${count} photos`}… `}
+        {pct < 100 ? <span className="tabular-nums">{pct}%</span> : null}
+      </span>
+      <progress max={100} value={pct} aria-label="Photos sent so far" className="h-2 w-full max-w-80 accent-harbour" />
+    </div>
+  );
+}

@@ -55,6 +55,8 @@ describe('raising a finding with photos', () => {
 
   beforeEach(() => {
     vi.stubGlobal('fetch', fetchMock);
+    // These answer through fetch; the progress path (XMLHttpRequest) has its own test.
+    vi.stubGlobal('XMLHttpRequest', undefined);
     document.cookie = 'ws_csrf=tok-9';
     made = [];
     revoked = [];

@@ -2,7 +2,9 @@ import type { FindingDto, PartDto, WorkshopDto } from '@wingstage/shared';
 import { isApiError } from '@/lib/api-client';
 import { useUploadFindingPhotos } from '../api/finding-photos';
 import { useRaiseFinding } from '../api/record-work';
+import { useState } from 'react';
 import { FindingForm, type FindingPrefill } from './finding-form';
+import { UploadProgress } from './photo-picker';
 
 /** Photos that did not reach the server with their finding, kept so they can be sent again. */
 export interface UnsentPhotos {
@@ -40,8 +42,10 @@ export function RaiseFinding({
 }) {
   const raise = useRaiseFinding(jobId);
   const upload = useUploadFindingPhotos(jobId);
+  const [progress, setProgress] = useState<{ count: number; fraction: number } | null>(null);
   return (
     <FindingForm
+      sending={progress ? <UploadProgress count={progress.count} fraction={progress.fraction} /> : null}
       prefill={prefill}
       parts={parts}
       workshop={workshop}
@@ -49,12 +53,15 @@ export function RaiseFinding({
       onSubmit={async (v, files) => {
         const finding = await raise.mutateAsync(v);
         if (files.length === 0) return onRaised({ finding, photosAttached: 0, unsent: null });
+        setProgress({ count: files.length, fraction: 0 });
         try {
-          const stored = await upload.mutateAsync({ findingId: finding.id, files });
+          const stored = await upload.mutateAsync({ findingId: finding.id, files, onProgress: (fraction) => setProgress({ count: files.length, fraction }) });
           onRaised({ finding, photosAttached: stored.length, unsent: null });
         } catch (e) {
           const message = isApiError(e) ? e.message : 'The upload did not finish.';
           onRaised({ finding, photosAttached: 0, unsent: { files, message } });
+        } finally {
+          setProgress(null);
         }
       }}
     />
