@@ -2,7 +2,8 @@ import { createHash } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { JOB_STATES } from '@wingstage/shared';
-import { Aircraft, ApprovalRequest, Finding, Job, JobTemplate, Part, User, boundSequelize } from '../src/models/index.js';
+import sharp from 'sharp';
+import { Aircraft, ApprovalRequest, Finding, FindingPhoto, Job, JobTemplate, Part, User, boundSequelize } from '../src/models/index.js';
 import { DEMO_PASSWORD, demoSignIns } from '../../db/seeders/demo-data.js';
 import { findDemoWorkshop, removeDemo, seedDemo } from '../../db/seeders/demo.js';
 import { startTestServer, waitForMail, type TestServer } from './helpers.js';
@@ -11,7 +12,7 @@ let server: TestServer;
 
 beforeAll(async () => {
   server = await startTestServer();
-  await seedDemo(boundSequelize());
+  await seedDemo(boundSequelize(), new Date(), server.parts.photos);
 });
 afterAll(async () => {
   await removeDemo(boundSequelize());
@@ -41,7 +42,9 @@ describe('demo seed', () => {
       findings: await Finding.count({ where: { workshopId: w.id } }),
     });
     const before = await counts();
-    expect(await seedDemo(boundSequelize())).toBe(false);
+    const photos = await FindingPhoto.count({ where: { workshopId: w.id } });
+    expect(await seedDemo(boundSequelize(), new Date(), server.parts.photos)).toBe(false);
+    expect(await FindingPhoto.count({ where: { workshopId: w.id } })).toBe(photos);
     expect(await counts()).toEqual(before);
   });
 
@@ -106,6 +109,20 @@ describe('demo seed', () => {
     expect(page.status).toBe(200);
     expect(page.body.snapshot.registration).toBe('Q-BRKE');
     expect(page.body.snapshot.totals.thisRequest.gross).toBe(requests[0]!.gross);
+    // Each finding in the waiting request has its one demo photo, named in the snapshot and served through the link.
+    const snapPhotos = (page.body.snapshot.findings as { photos: { id: string; width: number; height: number }[] }[]).map((f) => f.photos);
+    expect(snapPhotos.map((p) => p.length)).toEqual([1, 1, 1]);
+    const first = snapPhotos[0]![0]!;
+    const pic = await request(server.app).get(`/api/decide/${token}/photos/${first.id}?size=full`).buffer(true).parse((res, cb) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+    expect(pic.status).toBe(200);
+    expect(await sharp(pic.body as Buffer).metadata()).toMatchObject({ format: 'jpeg', width: first.width, height: first.height });
+    const staffView = (await agent.get(`/api/jobs/${waiting.id}/findings`)).body as { photos: { id: string; uploadedByName: string }[] }[];
+    expect(staffView.map((f) => f.photos.map((p) => p.id))).toEqual(snapPhotos.map((p) => p.map((x) => x.id)));
+    expect(staffView[0]!.photos[0]!.uploadedByName).toBe('Priya Tollervey');
 
     const inWork = (await agent.get('/api/jobs?state=in_work')).body.items[0];
     const decided = (await agent.get(`/api/jobs/${inWork.id}/approval-requests`)).body as { state: string; decidedByName: string }[];
