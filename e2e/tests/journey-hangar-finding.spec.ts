@@ -95,14 +95,34 @@ test('an out-of-limit plug gap becomes a finding the manager prices @approval', 
     await form.getByRole('button', { name: '+ Part from the catalogue' }).click();
     await form.getByLabel('Part 1').selectOption({ label: 'WS-1201 — Spark plug, resistor type, 12 mm thread' });
     await form.getByLabel('Qty').fill('4');
-    await form.getByLabel('Choose pictures').setInputFiles(PHOTO);
+    // A good photo and one cut short in transfer: the browser cannot tell, the server can.
+    await form.getByLabel('Choose pictures').setInputFiles([
+      { name: 'finding-photo.jpg', mimeType: 'image/jpeg', buffer: readFileSync(PHOTO) },
+      { name: 'cut-short.jpg', mimeType: 'image/jpeg', buffer: readFileSync(PHOTO).subarray(0, 3000) },
+    ]);
     await expectLoaded(form.getByRole('img', { name: 'Chosen photo 1: finding-photo.jpg' }));
+    await expect(form.getByRole('img', { name: 'Chosen photo 2: cut-short.jpg' })).toBeVisible();
     await shot(page, testInfo, '03-engineer-raise-finding-375');
     await form.getByRole('button', { name: 'Raise finding' }).click();
-    await expect(page.getByText(/is with the manager to price, with 1 photo\./)).toBeVisible();
+
+    // The finding is kept; the photos are not, and the notice says why in the server's words.
+    const notice = page.getByRole('alert').filter({ hasText: 'Finding saved; photos not attached' });
+    await expect(notice).toContainText(/is saved and is with the manager to price, but its 2 photos were not attached: “cut-short\.jpg” could not be read as a picture/);
+    await expect(notice).toContainText('Nothing you typed is lost.');
+    await shot(page, testInfo, '03b-engineer-photos-not-attached-375', false);
     const raised = page.locator('li[data-finding]', { hasText: findingTitle });
     await expect(raised.getByText('Recommended', { exact: true })).toBeVisible();
     await expect(raised.getByText('Draft', { exact: true })).toBeVisible();
+    await expect(raised.getByRole('img', { name: /^Photo \d of F-/ })).toHaveCount(0);
+
+    // Both photos wait on the finding's card; without the damaged one, the other goes up.
+    const retry = raised.getByRole('group', { name: /^Add photos to F-/ });
+    await expect(retry.getByRole('alert')).toContainText('cut-short.jpg');
+    await retry.scrollIntoViewIfNeeded();
+    await shot(page, testInfo, '03c-engineer-retry-on-card-375', false);
+    await retry.getByRole('button', { name: 'Remove chosen photo 2 (cut-short.jpg)' }).click();
+    await retry.getByRole('button', { name: 'Try again' }).click();
+    await expect(raised.getByText(/^1 photo attached to F-\d+\.$/)).toBeVisible();
     await expectLoaded(raised.getByRole('img', { name: /^Photo 1 of F-\d+: Spark plug gap/ }));
     await shot(page, testInfo, '04-engineer-finding-raised-375');
 
@@ -111,7 +131,7 @@ test('an out-of-limit plug gap becomes a finding the manager prices @approval', 
     const adding = raised.getByRole('group', { name: /^Add photos to F-/ });
     await adding.getByLabel('Choose pictures').setInputFiles(PHOTO);
     await adding.getByRole('button', { name: 'Attach 1 photo' }).click();
-    await expect(raised.getByText(/^1 photo attached to F-\d+\.$/)).toBeVisible();
+    await expect(raised.getByRole('img', { name: /^Photo \d of F-/ })).toHaveCount(2);
     await expectLoaded(raised.getByRole('img', { name: /^Photo 2 of F-\d+: Spark plug gap/ }));
     await raised.scrollIntoViewIfNeeded();
     await shot(page, testInfo, '04b-engineer-card-two-photos-375', false);
