@@ -118,7 +118,8 @@ test('an out-of-limit plug gap becomes a finding the manager prices @approval', 
     // Both photos wait on the finding's card; without the damaged one, the other goes up.
     const retry = raised.getByRole('group', { name: /^Add photos to F-/ });
     await expect(retry.getByRole('alert')).toContainText('cut-short.jpg');
-    await retry.scrollIntoViewIfNeeded();
+    await notice.getByRole('button', { name: /^Go to F-\d+$/ }).click();
+    await expect(retry.getByRole('alert')).toBeInViewport();
     await shot(page, testInfo, '03c-engineer-retry-on-card-375', false);
     await retry.getByRole('button', { name: 'Remove chosen photo 2 (cut-short.jpg)' }).click();
     await retry.getByRole('button', { name: 'Try again' }).click();

@@ -86,7 +86,14 @@ export function Component() {
       {raised ? (
         <div className="mb-4">
           <Notice title={raised.title} tone={raised.problem ? 'problem' : 'info'}>
-            {raised.text}
+            <p>{raised.text}</p>
+            {raised.problem ? (
+              <div>
+                <Button variant="secondary" size="lg" onClick={() => document.querySelector(`[data-finding="${raised.number}"]`)?.scrollIntoView({ block: 'start' })}>
+                  Go to {raised.number}
+                </Button>
+              </div>
+            ) : null}
           </Notice>
         </div>
       ) : null}

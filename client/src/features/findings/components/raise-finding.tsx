@@ -69,7 +69,7 @@ export function RaiseFinding({
 }
 
 /** The hangar's words for what happened, for a notice above the form's old place. */
-export function describeRaise({ finding: f, photosAttached, unsent }: RaiseOutcome): { title: string; text: string; problem: boolean } {
+export function describeRaise({ finding: f, photosAttached, unsent }: RaiseOutcome): { title: string; text: string; problem: boolean; number: string } {
   const name = `${f.number} “${f.title}”`;
   if (unsent) {
     const n = unsent.files.length;
@@ -77,8 +77,9 @@ export function describeRaise({ finding: f, photosAttached, unsent }: RaiseOutco
       title: 'Finding saved; photos not attached',
       text: `${name} is saved and is with the manager to price, but its ${n === 1 ? 'photo was' : `${n} photos were`} not attached: ${unsent.message} Nothing you typed is lost. Try the ${n === 1 ? 'photo' : 'photos'} again from ${f.number}'s card.`,
       problem: true,
+      number: f.number,
     };
   }
   const photos = photosAttached === 0 ? '' : photosAttached === 1 ? ', with 1 photo' : `, with ${photosAttached} photos`;
-  return { title: 'Finding raised', text: `${name} is with the manager to price${photos}.`, problem: false };
+  return { title: 'Finding raised', text: `${name} is with the manager to price${photos}.`, problem: false, number: f.number };
 }
