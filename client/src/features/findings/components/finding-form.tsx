@@ -133,7 +133,8 @@ export function FindingForm({
         <Button type="submit" size="lg" busy={formState.isSubmitting}>
           Raise finding
         </Button>
-        <Button variant="secondary" size="lg" onClick={onCancel}>
+        {/* Not while saving: the finding may already exist and its photos be on their way. */}
+        <Button variant="secondary" size="lg" onClick={onCancel} disabled={formState.isSubmitting}>
           Cancel
         </Button>
       </div>
