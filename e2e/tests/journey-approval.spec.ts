@@ -1,4 +1,5 @@
-import { expect, test, type APIRequestContext, type Browser, type BrowserContext, type Page, type TestInfo } from '@playwright/test';
+import { fileURLToPath } from 'node:url';
+import { expect, test, type APIRequestContext, type Browser, type BrowserContext, type Locator, type Page, type TestInfo } from '@playwright/test';
 
 /**
  * The approval journey. An engineer at phone width records a spark plug gap outside the template's
@@ -6,6 +7,9 @@ import { expect, test, type APIRequestContext, type Browser, type BrowserContext
  * at desktop width prices both, saves, and sends one request. The owner opens the e-mailed link on
  * a phone, approves the plug work and declines the airworthiness item, types their name and
  * confirms. The manager's estimate, the owner's own page and the job's history all show the result.
+ *
+ * The engineer attaches a photo to the plug finding (and sees a text file named .jpg refused in the
+ * form); the manager sees its thumbnail on the finding's card and opens it large.
  *
  * The job is booked in by the test itself (for the demo aircraft Q-SALT, from the demo annual
  * permit template), so it never collides with the other journeys on the seeded demo jobs.
@@ -19,6 +23,15 @@ const OWNER_EMAIL = 'group@owners.example';
 const OWNER_NAME = 'Hazel Brambury';
 // Above the example wear limit of 0.9 mm in the demo template.
 const GAP = '0.98';
+// An invented drawing (a retaining spring with a crack marked), made once with sharp; about 26 kB.
+const PHOTO = fileURLToPath(new URL('../fixtures/finding-photo.jpg', import.meta.url));
+
+/** The picture really arrived: the browser decoded it from the server's reply (lazy ones load once in view). */
+async function expectLoaded(img: Locator) {
+  await expect(img).toBeVisible();
+  await img.scrollIntoViewIfNeeded();
+  await expect.poll(() => img.evaluate((el) => (el as HTMLImageElement).complete && (el as HTMLImageElement).naturalWidth)).toBeGreaterThan(0);
+}
 
 /** `fullPage: false` keeps what a phone actually shows, with the running total fixed at its foot. */
 async function shot(page: Page, testInfo: TestInfo, name: string, fullPage = true) {
@@ -143,8 +156,30 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await form.getByRole('button', { name: '+ Part from the catalogue' }).click();
     await form.getByLabel('Part 1').selectOption({ label: 'WS-1201 — Spark plug, resistor type, 12 mm thread' });
     await form.getByLabel('Qty').fill('4');
+
+    // A text file given a .jpg name is refused in the form, by name, before anything is sent.
+    const choose = form.getByLabel('Choose pictures');
+    await choose.setInputFiles({ name: 'torque-notes.jpg', mimeType: 'image/jpeg', buffer: Buffer.from('Prop bolts: torque to the maker’s figure.\n') });
+    await expect(form.getByRole('alert').filter({ hasText: 'torque-notes.jpg is not a JPEG, PNG or WebP picture' })).toBeVisible();
+    await expect(form.getByRole('list', { name: 'Chosen photos' })).toHaveCount(0);
+    await shot(page, testInfo, '01b-engineer-text-file-refused-375', false);
+    await choose.setInputFiles(PHOTO);
+    const preview = form.getByRole('img', { name: 'Chosen photo 1: finding-photo.jpg' });
+    await expectLoaded(preview);
+    await expect(form.getByRole('alert').filter({ hasText: 'torque-notes.jpg' })).toHaveCount(0);
+    await preview.scrollIntoViewIfNeeded();
+    await shot(page, testInfo, '01c-engineer-photo-chosen-375', false);
     await form.getByRole('button', { name: 'Raise finding' }).click();
-    await expect(page.getByText(/is with the manager to price/)).toBeVisible();
+    await expect(page.getByText(/is with the manager to price, with 1 photo\./)).toBeVisible();
+    const plugCard = page.locator('li[data-finding]', { hasText: plugTitle });
+    const plugThumb = plugCard.getByRole('img', { name: new RegExp(`^Photo 1 of F-\\d+: ${plugTitle}$`) });
+    await expectLoaded(plugThumb);
+    await plugCard.getByRole('button', { name: /^Photo 1 of F-/ }).click();
+    const viewer = page.getByRole('dialog', { name: /Photo 1 of 1/ });
+    await expectLoaded(viewer.getByRole('img'));
+    await shot(page, testInfo, '01d-engineer-photo-viewer-375', false);
+    await page.keyboard.press('Escape');
+    await expect(viewer).toHaveCount(0);
 
     await page.getByRole('button', { name: 'Raise finding' }).click();
     form = page.getByRole('form', { name: 'Raise finding' });
@@ -174,6 +209,18 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await expect(page.getByTestId('estimate-save-state')).toHaveText(/Saved/);
     await expect(plug.getByText('Priced', { exact: true })).toBeVisible();
     await expect(spring.getByText('Priced', { exact: true })).toBeVisible();
+
+    // The engineer's photo is on the plug finding's card; the spring finding has none.
+    await expectLoaded(plug.getByRole('img', { name: new RegExp(`^Photo 1 of F-\\d+: ${plugTitle}$`) }));
+    await expect(spring.getByRole('img', { name: /^Photo / })).toHaveCount(0);
+    await plug.scrollIntoViewIfNeeded();
+    await shot(page, testInfo, '02b-manager-card-thumbnail-1280', false);
+    await plug.getByRole('button', { name: /^Photo 1 of F-/ }).click();
+    const viewer = page.getByRole('dialog', { name: /Photo 1 of 1/ });
+    await expectLoaded(viewer.getByRole('img'));
+    await shot(page, testInfo, '02c-manager-photo-viewer-1280', false);
+    await viewer.getByRole('button', { name: 'Close' }).click();
+    await expect(viewer).toHaveCount(0);
 
     await plug.getByLabel(/Include F-\d+ in the request/).check();
     await spring.getByLabel(/Include F-\d+ in the request/).check();
@@ -282,6 +329,8 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     const entry = page.locator('li', { hasText: jobTitle });
     await expect(entry.locator('[data-owner-total="committed"]')).toHaveText(`${newTotal} incl. VAT`);
     await expect(entry.getByTestId('decision-waiting')).toHaveCount(0);
+    // What was found, with the engineer's photo.
+    await expectLoaded(entry.getByRole('region', { name: 'What we found' }).getByRole('img', { name: new RegExp(`^Photo 1 of F-\\d+: ${plugTitle}$`) }));
     await shot(page, testInfo, '10-owner-my-aircraft-375');
     await ctx.close();
   });

@@ -1,9 +1,13 @@
-import { expect, test, type Browser, type Page, type TestInfo } from '@playwright/test';
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { expect, test, type Browser, type Locator, type Page, type TestInfo } from '@playwright/test';
 
 /**
  * An engineer at phone width records a spark plug gap outside the template's example limit on the
  * demo annual inspection of Q-BRKA and raises the proposed finding; the manager at desktop width
- * prices it in the estimate builder, saves, and sees the discovered-work total change.
+ * prices it in the estimate builder, saves, and sees the discovered-work total change. Photos: the
+ * engineer attaches one with the finding, adds a second from its card, looks at both large and
+ * removes the second; the manager sees the one left, and tries the form's photo section at desktop width.
  *
  * It changes the demo job, so it runs once (desktop project) against a freshly seeded database,
  * as docker-free-scripts/test.sh provides.
@@ -14,10 +18,21 @@ const PHONE = { width: 375, height: 812 };
 const DESKTOP = { width: 1280, height: 900 };
 // Above the example wear limit of 0.9 mm in the demo template.
 const GAP = '0.97';
+// An invented drawing made once with sharp (see journey-approval.spec.ts).
+const PHOTO = fileURLToPath(new URL('../fixtures/finding-photo.jpg', import.meta.url));
 
-async function shot(page: Page, testInfo: TestInfo, name: string) {
+async function expectLoaded(img: Locator) {
+  await expect(img).toBeVisible();
+  await img.scrollIntoViewIfNeeded();
+  await expect.poll(() => img.evaluate((el) => (el as HTMLImageElement).complete && (el as HTMLImageElement).naturalWidth)).toBeGreaterThan(0);
+}
+
+// A 1×1 PNG, to show a second kind of picture in the previews.
+const PNG_1PX = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkaPhfDwAE/wH+Yb5XbwAAAABJRU5ErkJggg==', 'base64');
+
+async function shot(page: Page, testInfo: TestInfo, name: string, fullPage = true) {
   const path = testInfo.outputPath(`${name}.png`);
-  await page.screenshot({ path, fullPage: true });
+  await page.screenshot({ path, fullPage });
   await testInfo.attach(name, { path, contentType: 'image/png' });
 }
 
@@ -80,13 +95,59 @@ test('an out-of-limit plug gap becomes a finding the manager prices @approval', 
     await form.getByRole('button', { name: '+ Part from the catalogue' }).click();
     await form.getByLabel('Part 1').selectOption({ label: 'WS-1201 — Spark plug, resistor type, 12 mm thread' });
     await form.getByLabel('Qty').fill('4');
+    // A good photo and one cut short in transfer: the browser cannot tell, the server can.
+    await form.getByLabel('Choose pictures').setInputFiles([
+      { name: 'finding-photo.jpg', mimeType: 'image/jpeg', buffer: readFileSync(PHOTO) },
+      { name: 'cut-short.jpg', mimeType: 'image/jpeg', buffer: readFileSync(PHOTO).subarray(0, 3000) },
+    ]);
+    await expectLoaded(form.getByRole('img', { name: 'Chosen photo 1: finding-photo.jpg' }));
+    await expect(form.getByRole('img', { name: 'Chosen photo 2: cut-short.jpg' })).toBeVisible();
     await shot(page, testInfo, '03-engineer-raise-finding-375');
     await form.getByRole('button', { name: 'Raise finding' }).click();
-    await expect(page.getByText(/is with the manager to price/)).toBeVisible();
+
+    // The finding is kept; the photos are not, and the notice says why in the server's words.
+    const notice = page.getByRole('alert').filter({ hasText: 'Finding saved; photos not attached' });
+    await expect(notice).toContainText(/is saved and is with the manager to price, but its 2 photos were not attached: “cut-short\.jpg” could not be read as a picture/);
+    await expect(notice).toContainText('Nothing you typed is lost.');
+    await shot(page, testInfo, '03b-engineer-photos-not-attached-375', false);
     const raised = page.locator('li[data-finding]', { hasText: findingTitle });
     await expect(raised.getByText('Recommended', { exact: true })).toBeVisible();
     await expect(raised.getByText('Draft', { exact: true })).toBeVisible();
+    await expect(raised.getByRole('img', { name: /^Photo \d of F-/ })).toHaveCount(0);
+
+    // Both photos wait on the finding's card; without the damaged one, the other goes up.
+    const retry = raised.getByRole('group', { name: /^Add photos to F-/ });
+    await expect(retry.getByRole('alert')).toContainText('cut-short.jpg');
+    await notice.getByRole('button', { name: /^Go to F-\d+$/ }).click();
+    await expect(retry.getByRole('alert')).toBeInViewport();
+    await shot(page, testInfo, '03c-engineer-retry-on-card-375', false);
+    await retry.getByRole('button', { name: 'Remove chosen photo 2 (cut-short.jpg)' }).click();
+    await retry.getByRole('button', { name: 'Try again' }).click();
+    await expect(raised.getByText(/^1 photo attached to F-\d+\.$/)).toBeVisible();
+    await expectLoaded(raised.getByRole('img', { name: /^Photo 1 of F-\d+: Spark plug gap/ }));
     await shot(page, testInfo, '04-engineer-finding-raised-375');
+
+    // A second photo from the card, both seen large, then the second one removed again.
+    await raised.getByRole('button', { name: 'Add photos' }).click();
+    const adding = raised.getByRole('group', { name: /^Add photos to F-/ });
+    await adding.getByLabel('Choose pictures').setInputFiles(PHOTO);
+    await adding.getByRole('button', { name: 'Attach 1 photo' }).click();
+    await expect(raised.getByRole('img', { name: /^Photo \d of F-/ })).toHaveCount(2);
+    await expectLoaded(raised.getByRole('img', { name: /^Photo 2 of F-\d+: Spark plug gap/ }));
+    await raised.scrollIntoViewIfNeeded();
+    await shot(page, testInfo, '04b-engineer-card-two-photos-375', false);
+    await raised.getByRole('button', { name: /^Photo 1 of F-/ }).click();
+    const viewer = page.getByRole('dialog', { name: /^Photo 1 of 2/ });
+    await expectLoaded(viewer.getByRole('img'));
+    await viewer.getByRole('button', { name: 'Next photo →' }).click();
+    await expect(page.getByRole('dialog', { name: /^Photo 2 of 2/ })).toBeVisible();
+    await shot(page, testInfo, '04c-engineer-viewer-375', false);
+    await page.keyboard.press('Escape');
+    await expect(page.getByRole('dialog')).toHaveCount(0);
+    await raised.getByRole('button', { name: /^Remove photo 2 of F-/ }).click();
+    await raised.getByRole('group', { name: 'Confirm removal' }).getByRole('button', { name: 'Remove photo 2' }).click();
+    await expect(raised.getByText(/^Photo removed from F-\d+\.$/)).toBeVisible();
+    await expect(raised.getByRole('img', { name: /^Photo \d of F-/ })).toHaveCount(1);
     await ctx.close();
   });
 
@@ -98,6 +159,8 @@ test('an out-of-limit plug gap becomes a finding the manager prices @approval', 
     const before = await discovered.textContent();
     const finding = page.locator('li[data-finding]', { hasText: findingTitle });
     await expect(finding.getByText('Draft', { exact: true })).toBeVisible();
+    await expectLoaded(finding.getByRole('img', { name: /^Photo 1 of F-\d+: Spark plug gap/ }));
+    await expect(finding.getByRole('img', { name: /^Photo \d of F-/ })).toHaveCount(1);
     await shot(page, testInfo, '05-manager-job-1280');
 
     await finding.getByRole('button', { name: 'Price finding' }).click();
@@ -117,6 +180,20 @@ test('an out-of-limit plug gap becomes a finding the manager prices @approval', 
     // What the server priced and stored is what the builder showed live.
     await expect(page.getByTestId('stage-head-discovered')).toHaveText(live ?? '');
     await shot(page, testInfo, '07-manager-saved-1280');
+
+    // The form's photo section at desktop width; cancelling raises nothing and sends nothing.
+    await page.goto(jobPath.replace('/jobs/', '/hangar/'));
+    await page.getByRole('button', { name: 'Raise finding' }).first().click();
+    const form = page.getByRole('form', { name: 'Raise finding' });
+    await form.getByLabel('Choose pictures').setInputFiles([
+      { name: 'finding-photo.jpg', mimeType: 'image/jpeg', buffer: readFileSync(PHOTO) },
+      { name: 'cowl-inside.png', mimeType: 'image/png', buffer: PNG_1PX },
+    ]);
+    await expectLoaded(form.getByRole('img', { name: 'Chosen photo 2: cowl-inside.png' }));
+    await form.locator('fieldset', { hasText: 'Photos' }).first().scrollIntoViewIfNeeded();
+    await shot(page, testInfo, '08-manager-form-photos-1280', false);
+    await form.getByRole('button', { name: 'Cancel' }).click();
+    await expect(page.getByRole('form', { name: 'Raise finding' })).toHaveCount(0);
     await ctx.close();
   });
 });

@@ -38,6 +38,19 @@ export function setUnauthorizedHandler(fn: UnauthorizedListener | null): void {
   onUnauthorized = fn;
 }
 
+/** The shared error shape in a failed reply's body, or a plain message when the body is something else. */
+function errorFromBody(status: number, body: unknown): ApiError {
+  const err = (body as Partial<ApiErrorBody> | null)?.error;
+  if (err && typeof err.code === 'string' && typeof err.message === 'string') {
+    return new ApiError({ code: err.code, message: err.message, status, fields: err.fields, requestId: err.requestId });
+  }
+  return new ApiError({
+    code: status === 404 ? 'not_found' : status >= 500 ? 'internal' : 'conflict',
+    message: status >= 500 ? 'The server could not finish that. Please try again in a moment.' : `The request failed (${status}).`,
+    status,
+  });
+}
+
 async function parseError(res: Response): Promise<ApiError> {
   let body: unknown = null;
   try {
@@ -45,16 +58,10 @@ async function parseError(res: Response): Promise<ApiError> {
   } catch {
     // A proxy or crash page is not JSON; fall through to a generic message.
   }
-  const err = (body as Partial<ApiErrorBody> | null)?.error;
-  if (err && typeof err.code === 'string' && typeof err.message === 'string') {
-    return new ApiError({ code: err.code, message: err.message, status: res.status, fields: err.fields, requestId: err.requestId });
-  }
-  return new ApiError({
-    code: res.status === 404 ? 'not_found' : res.status >= 500 ? 'internal' : 'conflict',
-    message: res.status >= 500 ? 'The server could not finish that. Please try again in a moment.' : `The request failed (${res.status}).`,
-    status: res.status,
-  });
+  return errorFromBody(res.status, body);
 }
+
+const NETWORK_MESSAGE = 'Wingstage could not reach the server. Check the connection and try again.';
 
 export interface RequestOptions {
   method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
@@ -77,7 +84,9 @@ export function buildUrl(path: string, query?: RequestOptions['query']): string 
 export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Promise<T> {
   const method = opts.method ?? 'GET';
   const headers: Record<string, string> = { Accept: 'application/json' };
-  if (opts.body !== undefined) headers['Content-Type'] = 'application/json';
+  // A multipart body carries its own boundary in Content-Type: the browser must write that header.
+  const isForm = typeof FormData !== 'undefined' && opts.body instanceof FormData;
+  if (opts.body !== undefined && !isForm) headers['Content-Type'] = 'application/json';
   if (UNSAFE.has(method)) {
     const csrf = readCookie('ws_csrf');
     if (csrf) headers['X-CSRF-Token'] = csrf;
@@ -88,12 +97,12 @@ export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Pr
       method,
       headers,
       credentials: 'include',
-      body: opts.body === undefined ? undefined : JSON.stringify(opts.body),
+      body: opts.body === undefined ? undefined : isForm ? (opts.body as FormData) : JSON.stringify(opts.body),
       signal: opts.signal,
     });
   } catch (e) {
     if ((e as Error).name === 'AbortError') throw e;
-    throw new ApiError({ code: 'network', message: 'Wingstage could not reach the server. Check the connection and try again.', status: 0 });
+    throw new ApiError({ code: 'network', message: NETWORK_MESSAGE, status: 0 });
   }
   if (!res.ok) {
     const err = await parseError(res);
@@ -105,8 +114,53 @@ export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Pr
   return (text ? JSON.parse(text) : undefined) as T;
 }
 
+/**
+ * Posts files as multipart/form-data and reports how much has been sent (0 to 1), which a phone on
+ * a weak hangar signal needs to see. fetch cannot report upload progress, so this one request
+ * goes through XMLHttpRequest, with the same CSRF header, cookies and error mapping as the rest.
+ */
+export function uploadWithProgress<T>(path: string, files: readonly File[], onProgress: (fraction: number) => void, field = 'photos'): Promise<T> {
+  const form = new FormData();
+  for (const f of files) form.append(field, f, f.name);
+  return new Promise<T>((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', buildUrl(path));
+    xhr.withCredentials = true;
+    xhr.setRequestHeader('Accept', 'application/json');
+    const csrf = readCookie('ws_csrf');
+    if (csrf) xhr.setRequestHeader('X-CSRF-Token', csrf);
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable && e.total > 0) onProgress(Math.min(1, e.loaded / e.total));
+    };
+    xhr.onload = () => {
+      let body: unknown = undefined;
+      try {
+        body = xhr.responseText ? JSON.parse(xhr.responseText) : undefined;
+      } catch {
+        body = null;
+      }
+      if (xhr.status >= 200 && xhr.status < 300) {
+        onProgress(1);
+        resolve(body as T);
+        return;
+      }
+      if (xhr.status === 401) onUnauthorized?.();
+      reject(errorFromBody(xhr.status, body));
+    };
+    xhr.onerror = () => reject(new ApiError({ code: 'network', message: NETWORK_MESSAGE, status: 0 }));
+    xhr.send(form);
+  });
+}
+
 export const api = {
   get: <T>(path: string, query?: RequestOptions['query'], signal?: AbortSignal) => apiRequest<T>(path, { query, signal }),
   post: <T>(path: string, body?: unknown, extra?: Partial<RequestOptions>) => apiRequest<T>(path, { ...extra, method: 'POST', body: body ?? {} }),
   patch: <T>(path: string, body: unknown) => apiRequest<T>(path, { method: 'PATCH', body }),
+  delete: <T = void>(path: string) => apiRequest<T>(path, { method: 'DELETE' }),
+  /** Posts files as multipart/form-data, each under `field`; CSRF and errors as for any other write. */
+  upload: <T>(path: string, files: readonly File[], field = 'photos', extra?: Partial<Pick<RequestOptions, 'signal'>>) => {
+    const form = new FormData();
+    for (const f of files) form.append(field, f, f.name);
+    return apiRequest<T>(path, { ...extra, method: 'POST', body: form });
+  },
 };

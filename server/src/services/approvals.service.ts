@@ -19,7 +19,6 @@ import {
   type PreAuthorisationDto,
   type PricedEstimate,
   type SendForApprovalResultDto,
-  type SnapshotPhoto,
   type approvalRequestCreateSchema,
   type decisionSubmitSchema,
   type preAuthorisationSchema,
@@ -208,7 +207,7 @@ export function buildSnapshot(p: {
   tasks: AccessTaskDto[];
   priced: PricedEstimate;
   /** Each finding's current photos (photos.service snapshotPhotosOf); a finding missing here has none. */
-  photos?: Map<string, SnapshotPhoto[]>;
+  photos?: Map<string, ApprovalSnapshot['findings'][number]['photos']>;
 }): ApprovalSnapshot {
   const { w, lines, tasks, priced } = p;
   const pricing = pricingOf(w);

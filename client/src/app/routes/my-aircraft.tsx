@@ -4,7 +4,7 @@ import type { LoaderFunctionArgs } from 'react-router-dom';
 import { Caution } from '@/components/ui/notice';
 import { myAircraftQueryOptions } from '@/features/owner/api/get-my-aircraft';
 import { myJobsQueryOptions } from '@/features/owner/api/get-my-jobs';
-import { myJobEstimateQueryOptions, myJobRequestsQueryOptions } from '@/features/owner/api/get-my-job-money';
+import { myJobEstimateQueryOptions, myJobFindingsQueryOptions, myJobRequestsQueryOptions } from '@/features/owner/api/get-my-job-money';
 import { MyAircraftLetter, type JobMoney } from '@/features/owner/components/my-aircraft-letter';
 import { queryClient } from '@/lib/query-client';
 import { requireSession } from '../guards';
@@ -25,7 +25,10 @@ export function Component() {
   const open = jobs.items.filter((j) => !isTerminalJobState(j.state));
   const estimates = useQueries({ queries: open.map((j) => myJobEstimateQueryOptions(j.id)) });
   const requests = useQueries({ queries: open.map((j) => myJobRequestsQueryOptions(j.id)) });
-  const money: Record<string, JobMoney> = Object.fromEntries(open.map((j, i) => [j.id, { estimate: estimates[i]?.data, requests: requests[i]?.data }]));
+  const findings = useQueries({ queries: open.map((j) => myJobFindingsQueryOptions(j.id)) });
+  const money: Record<string, JobMoney> = Object.fromEntries(
+    open.map((j, i) => [j.id, { estimate: estimates[i]?.data, requests: requests[i]?.data, findings: findings[i]?.data }]),
+  );
   return (
     <>
       <MyAircraftLetter firstName={firstName} workshopName={session.workshop.name} aircraft={aircraft.items} jobs={jobs.items} money={money} />

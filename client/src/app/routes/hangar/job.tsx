@@ -6,10 +6,10 @@ import { Button } from '@/components/ui/button';
 import { Caution, Loading, Notice } from '@/components/ui/notice';
 import { Card, PageHeader } from '@/components/ui/page';
 import { StateBadge } from '@/components/ui/state-badge';
-import { useRaiseFinding } from '@/features/findings/api/record-work';
 import { checklistQueryOptions, findingsQueryOptions, timeQueryOptions } from '@/features/findings/api/get-job-work';
 import { Checklist } from '@/features/findings/components/checklist';
-import { FindingForm, type FindingPrefill } from '@/features/findings/components/finding-form';
+import type { FindingPrefill } from '@/features/findings/components/finding-form';
+import { describeRaise, RaiseFinding, type UnsentPhotos } from '@/features/findings/components/raise-finding';
 import { FindingActions } from '@/features/findings/components/finding-actions';
 import { FindingsList } from '@/features/findings/components/findings-list';
 import { TimeLog } from '@/features/findings/components/time-log';
@@ -43,9 +43,10 @@ export function Component() {
   const findings = useQuery(findingsQueryOptions(id));
   const time = useQuery(timeQueryOptions(id));
   const parts = useQuery(partsQueryOptions(ALL_ACTIVE_PARTS));
-  const raise = useRaiseFinding(id);
   const [raising, setRaising] = useState<FindingPrefill | null>(null);
-  const [raised, setRaised] = useState<string | null>(null);
+  const [raised, setRaised] = useState<ReturnType<typeof describeRaise> | null>(null);
+  // Photos that did not go up with their new finding wait on its card for another try.
+  const [unsent, setUnsent] = useState<Record<string, UnsentPhotos>>({});
   const formRef = useRef<HTMLDivElement>(null);
   const canWork = can.raiseFinding(role) && (job.state === 'inspecting' || job.state === 'in_work');
 
@@ -84,7 +85,16 @@ export function Component() {
       ) : null}
       {raised ? (
         <div className="mb-4">
-          <Notice title="Finding raised">{raised}</Notice>
+          <Notice title={raised.title} tone={raised.problem ? 'problem' : 'info'}>
+            <p>{raised.text}</p>
+            {raised.problem ? (
+              <div>
+                <Button variant="secondary" size="lg" onClick={() => document.querySelector(`[data-finding="${raised.number}"]`)?.scrollIntoView({ block: 'start' })}>
+                  Go to {raised.number}
+                </Button>
+              </div>
+            ) : null}
+          </Notice>
         </div>
       ) : null}
 
@@ -93,15 +103,17 @@ export function Component() {
           {raising ? (
             <div ref={formRef} className="scroll-mt-4">
               <Card title="Raise finding">
-                <FindingForm
+                <RaiseFinding
+                  jobId={id}
                   prefill={raising}
                   parts={parts.data?.items ?? []}
                   workshop={workshop}
                   onCancel={() => setRaising(null)}
-                  onSubmit={async (v) => {
-                    const f = await raise.mutateAsync(v);
+                  onRaised={(outcome) => {
                     setRaising(null);
-                    setRaised(`${f.number} “${f.title}” is with the manager to price.`);
+                    setRaised(describeRaise(outcome));
+                    const left = outcome.unsent;
+                    if (left) setUnsent((u) => ({ ...u, [outcome.finding.id]: left }));
                   }}
                 />
               </Card>
@@ -136,7 +148,22 @@ export function Component() {
               ) : null
             }
           >
-            {findings.data ? <FindingsList findings={findings.data} action={(f) => <FindingActions jobId={job.id} finding={f} role={session.user.role} />} /> : findings.isError ? <p>Findings could not be loaded.</p> : <Loading />}
+            {findings.data ? (
+              <FindingsList
+                findings={findings.data}
+                action={(f) => <FindingActions jobId={job.id} finding={f} role={session.user.role} />}
+                photos={{
+                  jobId: id,
+                  canEdit: can.raiseFinding(role),
+                  unsent,
+                  onUnsentSettled: (findingId) =>
+                    setUnsent((u) => {
+                      const { [findingId]: _gone, ...rest } = u;
+                      return rest;
+                    }),
+                }}
+              />
+            ) : findings.isError ? <p>Findings could not be loaded.</p> : <Loading />}
           </Card>
           <Card title="Time">
             {time.data ? <TimeLog jobId={id} entries={time.data} canLog={canWork} /> : time.isError ? <p>Time could not be loaded.</p> : <Loading />}

@@ -1,6 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { describeLimit, findingCreateSchema, type ChecklistLimit, type FindingCategory, type FindingCreateInput, type PartDto, type WorkshopDto } from '@wingstage/shared';
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
@@ -8,6 +8,7 @@ import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { withServerErrors } from '@/lib/form-errors';
 import { CategoryChoice } from './category-choice';
+import { PhotoPicker } from './photo-picker';
 
 type FormIn = z.input<typeof findingCreateSchema>;
 type FormOut = z.output<typeof findingCreateSchema>;
@@ -29,14 +30,19 @@ export function FindingForm({
   workshop,
   onSubmit,
   onCancel,
+  sending,
 }: {
   prefill?: FindingPrefill;
   parts: PartDto[];
   workshop: Pick<WorkshopDto, 'labourRates'>;
-  onSubmit: (v: FormOut) => Promise<unknown>;
+  /** Receives the checked values and the photos chosen (kept here if it throws, so nothing is lost). */
+  onSubmit: (v: FormOut, photos: File[]) => Promise<unknown>;
   onCancel: () => void;
+  /** Shown by the submit button while the photos go up after the finding is saved. */
+  sending?: ReactNode;
 }) {
   const [summary, setSummary] = useState<string | null>(null);
+  const [photos, setPhotos] = useState<File[]>([]);
   const { register, handleSubmit, control, setError, formState } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(findingCreateSchema),
     defaultValues: {
@@ -54,7 +60,7 @@ export function FindingForm({
 
   const submit = handleSubmit(
     withServerErrors(setError, setSummary, Object.keys(LABELS), async (v) => {
-      await onSubmit(v);
+      await onSubmit(v, photos);
     }),
   );
 
@@ -71,6 +77,11 @@ export function FindingForm({
       <TextField label={LABELS.location} required autoComplete="off" hint="e.g. Engine, cylinder 2, lower plug" error={e.location?.message} {...register('location')} />
       <CategoryChoice current={category ?? null} error={e.category?.message} {...register('category')} />
       <TextAreaField label={LABELS.seen} required rows={4} error={e.seen?.message} {...register('seen')} />
+
+      <fieldset className="flex flex-col gap-3 rounded-card border border-seam p-3">
+        <legend className="px-1 font-semibold">Photos</legend>
+        <PhotoPicker files={photos} onChange={setPhotos} disabled={formState.isSubmitting} />
+      </fieldset>
 
       <fieldset className="flex flex-col gap-3 rounded-card border border-seam p-3">
         <legend className="px-1 font-semibold">Proposed remedy</legend>
@@ -117,11 +128,13 @@ export function FindingForm({
           </div>
         </div>
       </fieldset>
+      {sending}
       <div className="flex flex-wrap gap-2">
         <Button type="submit" size="lg" busy={formState.isSubmitting}>
           Raise finding
         </Button>
-        <Button variant="secondary" size="lg" onClick={onCancel}>
+        {/* Not while saving: the finding may already exist and its photos be on their way. */}
+        <Button variant="secondary" size="lg" onClick={onCancel} disabled={formState.isSubmitting}>
           Cancel
         </Button>
       </div>

@@ -2,8 +2,29 @@ import { describeLimit, type FindingDto } from '@wingstage/shared';
 import type { ReactNode } from 'react';
 import { CategoryBadge, FindingStateBadge } from '@/components/ui/finding-badges';
 import { formatDateTime, trimDecimal } from '@/lib/format';
+import { FindingPhotos, FindingPhotoStrip } from './finding-photos';
+import type { UnsentPhotos } from './raise-finding';
 
-export function FindingsList({ findings, action, empty = 'No findings raised on this job.' }: { findings: FindingDto[]; action?: (f: FindingDto) => ReactNode; empty?: string }) {
+/** Who may change photos here, and photos waiting to be sent again after a failed upload. */
+export interface FindingsListPhotos {
+  jobId: string;
+  canEdit: boolean;
+  unsent?: Record<string, UnsentPhotos>;
+  onUnsentSettled?: (findingId: string) => void;
+}
+
+export function FindingsList({
+  findings,
+  action,
+  photos,
+  empty = 'No findings raised on this job.',
+}: {
+  findings: FindingDto[];
+  action?: (f: FindingDto) => ReactNode;
+  /** Without it the photos are shown read-only. */
+  photos?: FindingsListPhotos;
+  empty?: string;
+}) {
   if (findings.length === 0) return <p className="text-slate-soft">{empty}</p>;
   return (
     <ul className="flex flex-col gap-3">
@@ -37,6 +58,17 @@ export function FindingsList({ findings, action, empty = 'No findings raised on 
                 .join(' · ')}
             </p>
           ) : null}
+          {photos ? (
+            <FindingPhotos
+              jobId={photos.jobId}
+              finding={f}
+              canEdit={photos.canEdit}
+              unsent={photos.unsent?.[f.id] ?? null}
+              onUnsentSettled={() => photos.onUnsentSettled?.(f.id)}
+            />
+          ) : (
+            <FindingPhotoStrip finding={f} />
+          )}
           <p className="text-xs text-slate-soft">
             Raised by {f.raisedByName}, {formatDateTime(f.raisedAt)}
           </p>

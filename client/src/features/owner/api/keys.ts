@@ -5,4 +5,5 @@ export const ownerKeys = {
   jobs: () => [...ownerKeys.all, 'jobs'] as const,
   jobEstimate: (jobId: string) => [...ownerKeys.all, 'jobs', jobId, 'estimate'] as const,
   jobRequests: (jobId: string) => [...ownerKeys.all, 'jobs', jobId, 'approval-requests'] as const,
+  jobFindings: (jobId: string) => [...ownerKeys.all, 'jobs', jobId, 'findings'] as const,
 };

@@ -1,5 +1,5 @@
-import type { AircraftDto, ApprovalRequestDto, EstimateDto, JobDto, Totals } from '@wingstage/shared';
-import { render, screen, within } from '@testing-library/react';
+import type { AircraftDto, ApprovalRequestDto, EstimateDto, FindingDto, JobDto, Totals } from '@wingstage/shared';
+import { fireEvent, render, screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { MyAircraftLetter } from './my-aircraft-letter';
 
@@ -106,5 +106,27 @@ describe('MyAircraftLetter', () => {
       <MyAircraftLetter firstName="Orla" workshopName="Brackenfold Light Aircraft Engineering" aircraft={[aircraft('a1', 'Q-ORLA')]} jobs={[job('0001', 'a1', 'Wing re-cover', 'in_work')]} money={{ '0001': { requests: [decided] } }} />,
     );
     expect(screen.queryByTestId('decision-waiting')).toBeNull();
+  });
+
+  it('lists what was found on an open job with its photos, which open large; withdrawn findings are left out', () => {
+    const f = (id: string, number: string, title: string, state: FindingDto['state'], photos: FindingDto['photos']) =>
+      ({ id, jobId: '0001', number, title, category: 'recommended', state, photos }) as FindingDto;
+    const photo = { id: 'ph-1', findingId: 'f1', width: 2048, height: 1536, thumbWidth: 480, thumbHeight: 360, bytes: 1, uploadedByName: 'Priya Tollervey', uploadedAt: '' };
+    render(
+      <MyAircraftLetter
+        firstName="Orla"
+        workshopName="Brackenfold Light Aircraft Engineering"
+        aircraft={[aircraft('a1', 'Q-ORLA')]}
+        jobs={[job('0001', 'a1', 'Wing re-cover', 'awaiting_owner')]}
+        money={{ '0001': { findings: [f('f1', 'F-1', 'Worn sail stitching', 'sent', [photo]), f('f2', 'F-2', 'Raised in error', 'withdrawn', [])] } }}
+      />,
+    );
+    const found = screen.getByRole('region', { name: 'What we found' });
+    expect(found.textContent).toContain('F-1 · Worn sail stitching');
+    expect(found.textContent).not.toContain('Raised in error');
+    const thumb = within(found).getByRole('img', { name: 'Photo 1 of F-1: Worn sail stitching' });
+    expect(thumb.getAttribute('src')).toBe('/api/photos/ph-1?size=thumb');
+    fireEvent.click(within(found).getByRole('button', { name: 'Photo 1 of F-1: Worn sail stitching' }));
+    expect(within(screen.getByRole('dialog')).getByRole('img').getAttribute('src')).toBe('/api/photos/ph-1?size=full');
   });
 });

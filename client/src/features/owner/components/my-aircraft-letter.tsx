@@ -1,5 +1,7 @@
-import { JOB_TYPE_LABELS, compareAmounts, isTerminalJobState, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type JobDto, type JobState } from '@wingstage/shared';
+import { JOB_TYPE_LABELS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto, type JobState } from '@wingstage/shared';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
+import { CategoryBadge, FindingStateBadge } from '@/components/ui/finding-badges';
+import { PhotoStrip } from '@/components/ui/photo-strip';
 import { EnvelopeIcon } from '@/components/ui/icons';
 import { StateBadge } from '@/components/ui/state-badge';
 import { formatDate, formatDateTime, formatHours, formatMoney } from '@/lib/format';
@@ -8,6 +10,8 @@ import { formatDate, formatDateTime, formatHours, formatMoney } from '@/lib/form
 export interface JobMoney {
   estimate?: EstimateDto;
   requests?: ApprovalRequestDto[];
+  /** What was found on the job, as the server lets the owner see it. */
+  findings?: FindingDto[];
 }
 
 /** What each state means for the owner, in the workshop's words rather than the system's. */
@@ -76,6 +80,34 @@ function MoneySoFar({ estimate }: { estimate: EstimateDto }) {
   );
 }
 
+const thumb = (id: string) => photoUrl(id, 'thumb');
+const full = (id: string) => photoUrl(id, 'full');
+
+/** The findings we have told the owner about, each with its photos. */
+function WhatWeFound({ findings }: { findings: FindingDto[] }) {
+  const shown = findings.filter((f) => f.state !== 'withdrawn' && f.state !== 'draft');
+  if (shown.length === 0) return null;
+  return (
+    <section className="mt-3 flex flex-col gap-2" aria-label="What we found">
+      <h4 className="font-semibold">What we found</h4>
+      <ul className="flex flex-col gap-3">
+        {shown.map((f) => (
+          <li key={f.id} data-owner-finding={f.number} className="flex flex-col gap-2 border-t border-seam pt-2">
+            <p>
+              <span className="font-semibold tabular-nums">{f.number}</span> · {f.title}
+            </p>
+            <div className="flex flex-wrap items-center gap-2">
+              <CategoryBadge category={f.category} />
+              <FindingStateBadge state={f.state} />
+            </div>
+            <PhotoStrip photos={f.photos} label={`${f.number}: ${f.title}`} thumbSrc={thumb} fullSrc={full} />
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}
+
 function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
   const waiting = money?.requests?.find((r) => r.state === 'sent');
   const currency = money?.estimate?.currency ?? 'GBP';
@@ -92,6 +124,7 @@ function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
       </p>
       {waiting ? <DecisionWaiting request={waiting} currency={currency} /> : null}
       {money?.estimate && !isTerminalJobState(job.state) ? <MoneySoFar estimate={money.estimate} /> : null}
+      {money?.findings ? <WhatWeFound findings={money.findings} /> : null}
     </li>
   );
 }
