@@ -265,6 +265,11 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await page.goto(new URL(link).pathname);
     await expect(page.getByRole('heading', { level: 1, name: 'Work found on Q-SALT' })).toBeVisible();
     await expect(page.getByText('Finding 1 of 2')).toBeVisible();
+    // The engineer's photo, frozen in the request, shown large through the link alone.
+    const ownerPhoto = page.getByRole('img', { name: new RegExp(`^Photo 1 of F-\\d+: ${plugTitle}$`) });
+    await expectLoaded(ownerPhoto);
+    expect((await ownerPhoto.boundingBox())?.width ?? 0, 'the photo spans the phone column').toBeGreaterThanOrEqual(300);
+    await page.evaluate(() => window.scrollTo(0, 0));
     const bar = page.getByTestId('running-total');
     await expect(bar).toBeInViewport();
     await shot(page, testInfo, '05-owner-finding-1-375', false);
