@@ -302,6 +302,20 @@ describe('refused uploads leave nothing behind', () => {
     expect((await upload(staff.engineer, f.jobId, f.id, six.slice(0, 1))).status).toBe(201);
   });
 
+  it('when two uploads race for the last places on a finding, then one is stored and the other refused with its files removed', async () => {
+    const f = await inspectingFinding();
+    const tiny = await jpeg(40, 30);
+    const files = (n: number, tag: string) => Array.from({ length: n }, (_, i) => ({ name: `${tag}${i}.jpg`, body: tiny }));
+    expect((await upload(staff.engineer, f.jobId, f.id, files(PHOTO_LIMITS.maxFilesPerUpload, 'a'))).status).toBe(201);
+    expect((await upload(staff.engineer, f.jobId, f.id, files(PHOTO_LIMITS.maxPerFinding - PHOTO_LIMITS.maxFilesPerUpload - 2, 'b'))).status).toBe(201);
+    // Both pass the early count (10 + 2 ≤ 12); the finding's row lock lets only one write its rows.
+    const [one, two] = await Promise.all([upload(staff.engineer, f.jobId, f.id, files(2, 'c')), upload(staff.manager, f.jobId, f.id, files(2, 'd'))]);
+    expect([one.status, two.status].sort()).toEqual([201, 400]);
+    expect(await FindingPhoto.count({ where: { findingId: f.id } })).toBe(PHOTO_LIMITS.maxPerFinding);
+    const rows = await FindingPhoto.findAll({ where: { findingId: f.id } });
+    expect(storedFor(f).sort()).toEqual(rows.flatMap((r) => [`${r.id}.jpg`, `${r.id}-thumb.jpg`]).sort());
+  });
+
   it('when the body is not multipart, has no file, or uses another field, then it is 400; without the CSRF header it is 403 and nothing is read', async () => {
     const f = await inspectingFinding();
     const json = await staff.engineer.post(`/api/jobs/${f.jobId}/findings/${f.id}/photos`, { photos: [] });
@@ -483,6 +497,34 @@ describe('photos in approval requests', () => {
     const revoked = await anon().get(decidePhotoUrl(token, before.id));
     expect(revoked.status).toBe(404);
     expect(revoked.body.error.message).toMatch(/link is not valid/);
+  });
+
+  it('when one address keeps asking for photos that are not there, then it is rate-limited; photos that load never count', async () => {
+    const { job, f } = await pricedThroughEstimate();
+    const pic = (await upload(staff.engineer, job.id, f.id, [{ name: 'a.jpg', body: await jpeg(200, 150) }])).body[0] as FindingPhotoDto;
+    const { token } = await sendAndReadToken(job.id, f.id);
+    // A real listening server and fetch's kept-alive connection, as a phone's browser loads a page of pictures.
+    const http = server.variant({ DECIDE_ADDRESS_LIMIT: '3' }).listen(0, '127.0.0.1');
+    await new Promise((r) => http.once('listening', r));
+    const base = `http://127.0.0.1:${(http.address() as import('node:net').AddressInfo).port}`;
+    const get = async (url: string) => {
+      const r = await fetch(base + url);
+      await r.arrayBuffer();
+      return r;
+    };
+    try {
+      for (let i = 0; i < 6; i++) expect((await get(decidePhotoUrl(token, pic.id, 'thumb'))).status).toBe(200);
+      // A loaded picture is taken off the count once the server has finished sending it, a moment
+      // after the client has it; let the last one settle.
+      await new Promise((r) => setTimeout(r, 100));
+      for (let i = 0; i < 3; i++) expect((await get(decidePhotoUrl(token, randomUUID()))).status).toBe(404);
+      const limited = await fetch(base + decidePhotoUrl(token, randomUUID()));
+      expect(limited.status).toBe(429);
+      expect(((await limited.json()) as { error: { code: string } }).error.code).toBe('too_many_requests');
+    } finally {
+      http.closeAllConnections();
+      await new Promise((r) => http.close(r));
+    }
   });
 
   it('when a stored snapshot predates photos (photoIds), then the decision page reads its findings as having no photos', async () => {
