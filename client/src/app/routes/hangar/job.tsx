@@ -154,7 +154,7 @@ export function Component() {
                 action={(f) => <FindingActions jobId={job.id} finding={f} role={session.user.role} />}
                 photos={{
                   jobId: id,
-                  canEdit: can.raiseFinding(role),
+                  canEdit: can.raiseFinding(role) && canWork,
                   unsent,
                   onUnsentSettled: (findingId) =>
                     setUnsent((u) => {

@@ -171,7 +171,7 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
         <FindingsList
           findings={findings}
           empty="No findings yet. Engineers raise them from the Hangar."
-          photos={{ jobId: job.id, canEdit: can.raiseFinding(role) }}
+          photos={{ jobId: job.id, canEdit: can.raiseFinding(role) && job.state !== 'closed' && job.state !== 'cancelled' }}
           action={(f) => {
             const p = pricedFindings.get(f.id);
             return (
