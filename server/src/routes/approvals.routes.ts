@@ -1,14 +1,12 @@
 import { Router } from 'express';
-import { rateLimit } from 'express-rate-limit';
 import {
   ROLES,
   approvalRequestCreateSchema,
   decisionSubmitSchema,
   idParamsSchema,
   preAuthorisationSchema,
-  tokenParamsSchema,
 } from '@wingstage/shared';
-import { AppError } from '../errors/app-error.js';
+import { decideAddressLimit, invalidDecideLink, wellFormedToken } from '../middleware/decide-link.js';
 import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validParams, validate } from '../middleware/validate.js';
 import * as approvals from '../services/approvals.service.js';
@@ -54,23 +52,14 @@ export function approvalRequestRoutes(deps: Deps): Router {
  */
 export function decideRoutes(deps: Deps): Router {
   const router = Router();
-  // Per address, in this process's memory (as sign-in); several processes would need a shared store.
-  const perAddress = rateLimit({
-    windowMs: 15 * 60_000,
-    limit: deps.config.DECIDE_ADDRESS_LIMIT,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: (_req, _res, next) => next(new AppError('too_many_requests', 429, 'Too many attempts from this address. Wait 15 minutes and try again.')),
-  });
-  const known = (token: unknown) => tokenParamsSchema.safeParse({ token }).success;
-  const notValid = () => new AppError('not_found', 404, 'This approval link is not valid. Use the link in the newest e-mail from the workshop.');
+  const perAddress = decideAddressLimit(deps.config);
 
   router.get('/:token', perAddress, async (req, res) => {
-    if (!known(req.params.token)) throw notValid();
+    if (!wellFormedToken(req.params.token)) throw invalidDecideLink();
     res.json(await approvals.getDecisionPage(String(req.params.token)));
   });
   router.post('/:token', perAddress, validate({ body: decisionSubmitSchema }), async (req, res) => {
-    if (!known(req.params.token)) throw notValid();
+    if (!wellFormedToken(req.params.token)) throw invalidDecideLink();
     const page = await approvals.submitDecision(deps, String(req.params.token), validBody(req, decisionSubmitSchema), {
       ip: req.ip ?? '',
       userAgent: String(req.headers['user-agent'] ?? ''),

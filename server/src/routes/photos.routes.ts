@@ -1,9 +1,9 @@
 import { Router, type NextFunction, type Request, type RequestHandler, type Response } from 'express';
-import { rateLimit } from 'express-rate-limit';
 import multer from 'multer';
 import { z } from 'zod';
-import { PHOTO_LIMITS, ROLES, idSchema, photoParamsSchema, photoQuerySchema, tokenParamsSchema } from '@wingstage/shared';
+import { PHOTO_LIMITS, ROLES, idSchema, photoParamsSchema, photoQuerySchema } from '@wingstage/shared';
 import { AppError } from '../errors/app-error.js';
+import { decideAddressLimit, invalidDecideLink, wellFormedToken } from '../middleware/decide-link.js';
 import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validParams, validQuery, validate } from '../middleware/validate.js';
 import type { Deps } from '../services/deps.js';
@@ -102,17 +102,9 @@ export function photoRoutes(deps: Deps): Router {
  */
 export function decidePhotoRoutes(deps: Deps): Router {
   const router = Router();
-  const perAddress = rateLimit({
-    windowMs: 15 * 60_000,
-    limit: deps.config.DECIDE_ADDRESS_LIMIT,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    skipSuccessfulRequests: true,
-    handler: (_req, _res, next) => next(new AppError('too_many_requests', 429, 'Too many attempts from this address. Wait 15 minutes and try again.')),
-  });
-  const notValid = () => new AppError('not_found', 404, 'This approval link is not valid. Use the link in the newest e-mail from the workshop.');
+  const perAddress = decideAddressLimit(deps.config, { failuresOnly: true });
   router.get('/:token/photos/:photoId', perAddress, async (req, res) => {
-    if (!tokenParamsSchema.safeParse({ token: req.params.token }).success) throw notValid();
+    if (!wellFormedToken(req.params.token)) throw invalidDecideLink();
     const id = idSchema.safeParse(req.params.photoId);
     if (!id.success) throw new AppError('not_found', 404, 'That photo was not found.');
     const q = photoQuerySchema.parse(req.query);
