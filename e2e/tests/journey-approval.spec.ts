@@ -245,7 +245,10 @@ test('an engineer raises findings, the manager sends one request, the owner deci
   await test.step('the owner opens the e-mailed link on a phone, approves one finding and declines the other', async () => {
     const link = await decisionLink(request, OWNER_EMAIL, since, jobNumber);
     // An upper bound (the manager's steps after sending and the poll interval count too).
-    testInfo.annotations.push({ type: 'send → e-mail in maildev (ms, upper bound)', description: String(Date.now() - sentClickedAt) });
+    const sendToMail = Date.now() - sentClickedAt;
+    testInfo.annotations.push({ type: 'send → e-mail in maildev (ms, upper bound)', description: String(sendToMail) });
+    // Printed so a CI log records the measurement (the list reporter shows a test's output).
+    console.log(`[measure] send → e-mail in maildev: ${sendToMail} ms (upper bound)`);
     // The same letter on a desktop screen (looking changes nothing).
     const wide = await context(browser, baseURL, false);
     const widePage = await wide.newPage();
@@ -275,6 +278,7 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await shot(page, testInfo, '05-owner-finding-1-375', false);
     page.off('response', onResponse);
     testInfo.annotations.push({ type: 'owner page scripts', description: [...scripts].sort().join(' ') });
+    console.log(`[measure] scripts the owner's phone loads: ${[...scripts].sort().join(' ')}`);
 
     await page.getByRole('radio', { name: /Approve/ }).check();
     for (const b of await page.getByRole('button').all()) {
