@@ -89,6 +89,7 @@ const TOKEN = 'tok_en-123';
 const page = (over: Partial<DecisionPageDto> = {}): DecisionPageDto => ({
   state: 'sent',
   closedReason: null,
+  newerLinkSentAt: null,
   snapshot: snapshot(),
   snapshotHash: HASH,
   decisions: null,
