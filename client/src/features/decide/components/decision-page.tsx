@@ -457,8 +457,8 @@ function VatOnWholeBill({ totals: t, currency }: { totals: RunningTotal; currenc
   if (!t.wholeInvoice || compareAmounts(t.addsToTotal, t.thisRequestAsChosen) === 0) return null;
   return (
     <p className="mx-auto max-w-xl pt-1 text-xs text-slate-soft" data-testid="decide-vat-whole-bill">
-      VAT is worked out on the whole bill, so approving this adds {formatMoney(t.addsToTotal, currency)}, not the {formatMoney(t.thisRequestAsChosen, currency)} its own
-      prices come to.
+      VAT is worked out on the whole bill, so what you are approving adds {formatMoney(t.addsToTotal, currency)} to it, not the{' '}
+      {formatMoney(t.thisRequestAsChosen, currency)} it comes to on its own.
     </p>
   );
 }
@@ -580,8 +580,8 @@ function Closed({ page }: { page: DecisionPageDto }) {
 }
 
 /**
- * For a link the server does not know: typed wrong, cut short by a mail program, or replaced when
- * the workshop sent the request again (a re-sent request has a new link and the old one stops).
+ * For a link the server never issued: typed wrong or cut short by a mail program. (An older link of
+ * a re-sent request is known to the server and gets the closed page, saying a newer link was sent.)
  */
 export function UnknownLink() {
   return (
@@ -589,8 +589,8 @@ export function UnknownLink() {
       <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">
         This link no longer opens a request
       </h1>
-      <p>If the workshop sent you this request again, only the link in the newest e-mail works: open that one.</p>
-      <p>Otherwise the link may have been cut short by your e-mail program. Open it again from the e-mail, or ask the workshop to send a new one.</p>
+      <p>The link may have been cut short or changed by your e-mail program. Open it again from the e-mail, taking care to use the whole link.</p>
+      <p>If it still does not open, ask the workshop to send the request again.</p>
     </article>
   );
 }
