@@ -98,8 +98,8 @@ describe('a link superseded by re-sending the request', () => {
     const r = (await ApprovalRequest.findByPk(requestId))!;
     expect(r.state).toBe('sent');
     expect(r.decidedAt).toBeNull();
-    const [{ n }] = await boundSequelize().query<{ n: number }>(`SELECT count(*)::int AS n FROM approval_decisions WHERE request_id = $1`, { bind: [requestId], type: QueryTypes.SELECT });
-    expect(n).toBe(0);
+    const [count] = await boundSequelize().query<{ n: number }>(`SELECT count(*)::int AS n FROM approval_decisions WHERE request_id = $1`, { bind: [requestId], type: QueryTypes.SELECT });
+    expect(count?.n).toBe(0);
     // The newest link still decides.
     const ok = await anon().post(`/api/decide/${second}`).send(decideBody(live, f.id));
     expect(ok.status).toBe(200);
