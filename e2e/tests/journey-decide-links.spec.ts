@@ -6,9 +6,9 @@ import { expect, test, type APIRequestContext, type Browser, type BrowserContext
  * findings that share the cowling (one of them airworthiness, with a photo); the owner opens the
  * link on a phone, looks at the photo full screen and tries part-way choices, whose running total
  * charges the cowling once. The manager revokes the link: it shows the closed page and its plain
- * reason. The manager re-sends: the old link stops, the new one from the e-mail works. Re-sent
- * again from the job screen, the owner decides on the newest link, which from then on shows the
- * decided page.
+ * reason. The manager re-sends: the old link no longer decides and says a newer link was sent, the
+ * new one from the e-mail works. Re-sent again from the job screen, the owner decides on the newest
+ * link, which from then on shows the decided page; the older links still only point to the newest.
  *
  * The job is booked in by the test itself for the demo aircraft Q-MRLW, so it never collides with
  * the other journeys.
@@ -244,15 +244,30 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
   });
 
   let second = '';
-  await test.step('the manager re-sends: the old link stops, the new one from the e-mail works', async () => {
+  await test.step('the manager re-sends: the old link says a newer one was sent, the new one from the e-mail works', async () => {
     // The job screen offers Resend only while a request is open or expired; a revoked one is re-sent through the API.
     await apiCall(manager.page, 'POST', `/api/approval-requests/${requestId}/resend`);
     second = await decisionLink(request, since, jobNumber, [first]);
     expect(second).not.toBe(first);
     await phone.goto(first);
-    await expect(phone.getByRole('heading', { level: 1, name: 'This link no longer opens a request' })).toBeVisible();
-    await expect(phone.getByText('only the link in the newest e-mail works')).toBeVisible();
+    const closed = phone.getByTestId('decision-closed');
+    await expect(closed).toHaveAttribute('data-superseded', 'true');
+    await expect(closed.getByText('A newer link was sent to you', { exact: true })).toBeVisible();
+    await expect(closed.getByText(/^A newer link was sent to you on \d{1,2} [A-Z][a-z]{2}: use the link in the newest e-mail\.$/)).toBeVisible();
+    await expect(closed.locator('[data-request-state="sent"]')).toBeVisible();
+    await expect(phone.getByRole('radio')).toHaveCount(0);
+    await expect(phone.getByTestId('running-total')).toHaveCount(0);
+    await expect(phone.getByRole('img', { name: /^Photo / })).toHaveCount(0);
     await shot(phone, testInfo, '07-owner-old-link-375');
+    const wide = await context(browser, baseURL, false);
+    const widePage = await wide.newPage();
+    await widePage.goto(first);
+    await expect(widePage.getByTestId('decision-closed').getByText('A newer link was sent to you', { exact: true })).toBeVisible();
+    await shot(widePage, testInfo, '07b-owner-old-link-1280');
+    await wide.close();
+    // A link never issued still opens nothing.
+    await phone.goto(`/decide/${'Q'.repeat(43)}`);
+    await expect(phone.getByRole('heading', { level: 1, name: 'This link no longer opens a request' })).toBeVisible();
     await phone.goto(second);
     await expect(phone.getByText('Finding 1 of 2')).toBeVisible();
     await expect(phone.getByRole('radio', { name: /^Approve/ })).not.toBeChecked();
@@ -269,7 +284,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await expect(requests.getByText('A new link is on its way to the owner')).toBeVisible();
     third = await decisionLink(request, since, jobNumber, [first, second]);
     await phone.goto(second);
-    await expect(phone.getByTestId('decision-unknown-link')).toBeVisible();
+    await expect(phone.getByTestId('decision-closed')).toHaveAttribute('data-superseded', 'true');
 
     await phone.goto(third);
     await phone.getByRole('radio', { name: /^Approve/ }).check();
@@ -296,6 +311,11 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await expect(receipt.locator('[data-total="new-total"]')).toHaveText('£319.68');
     await expect(again.getByRole('radio')).toHaveCount(0);
     await shot(again, testInfo, '10-owner-decided-375', true);
+    // An older link says the request has since been decided, without showing the decisions.
+    await again.goto(first);
+    const closed = again.getByTestId('decision-closed');
+    await expect(closed.getByText(/^A newer link was sent to you on .+, and the request has since been decided\./)).toBeVisible();
+    await expect(again.getByTestId('decision-receipt')).toHaveCount(0);
     await later.close();
     await owner.close();
     await manager.ctx.close();

@@ -83,6 +83,15 @@ describe('the snapshot carries what the engine needs to price any choice', () =>
         { id: prop, name: 'Propeller off', net: '46.50', vatRate: 'standard' },
       ]),
       accessPaid: [prop],
+      // The inspection scope as engine inputs (2 h and 0.5 h × 62.00), with the propeller work it pays for,
+      // so the page can price the whole estimate after any choice.
+      committed: {
+        lines: [
+          { stage: 'inspection', kind: 'labour', net: '124.00', vatRate: 'standard', accessTaskId: null },
+          { stage: 'inspection', kind: 'labour', net: '31.00', vatRate: 'standard', accessTaskId: prop },
+        ],
+        accessTasks: [{ id: prop, net: '46.50', vatRate: 'standard' }],
+      },
     });
     expect(s.pricingBasis!.accessTasks).toHaveLength(2);
     const f1 = s.findings.find((f) => f.findingId === plugs.id)!;
@@ -130,6 +139,8 @@ describe('the snapshot carries what the engine needs to price any choice', () =>
     // Nothing was approved on this job before, so the approved stage is exactly this request as chosen, cowling included.
     expect(priceChoice(s, choice)!.stages.approved).toEqual(est.priced.stages.approved);
     expect(shown.thisRequestAsChosen).toBe(est.priced.stages.approved.gross);
+    // And the page's new total is the estimate's committed total: inspection scope, propeller and all.
+    expect(shown).toMatchObject({ wholeInvoice: true, newTotal: est.priced.committed.gross });
   });
 });
 

@@ -243,7 +243,7 @@ describe("the owner's decision", () => {
     expect((await Finding.findAll({ where: { jobId: p.job.id } })).map((f) => f.state)).toEqual(['sent', 'sent']);
   });
 
-  it('when the link is revoked, then it explains so and refuses; a re-send gives a new link and the old one stops working', async () => {
+  it('when the link is revoked, then it explains so and refuses; a re-send gives a new link and the old one only says a newer one was sent', async () => {
     const p = await pricedJob(['14.00']);
     const { request: r, token } = await sendAndRead(p);
     const page = (await anon().get(`/api/decide/${token}`)).body as DecisionPageDto;
@@ -260,7 +260,10 @@ describe("the owner's decision", () => {
     expect(resent.body).toMatchObject({ state: 'sent', snapshotHash: r.snapshotHash });
     const fresh = await tokenOf(p.ownerEmail, r.id);
     expect(fresh).not.toBe(token);
-    expect((await anon().get(`/api/decide/${token}`)).status).toBe(404);
+    const old = await anon().get(`/api/decide/${token}`);
+    expect(old.status).toBe(200);
+    expect(old.body.closedReason).toMatch(/^A newer link was sent to you on .+: use the link in the newest e-mail\.$/);
+    expect((await anon().post(`/api/decide/${token}`).send(allDecisions(page, () => 'approve'))).status).toBe(409);
     const ok = await anon().post(`/api/decide/${fresh}`).send(allDecisions(page, () => 'approve'));
     expect(ok.status).toBe(200);
   });

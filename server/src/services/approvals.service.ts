@@ -259,6 +259,16 @@ export function buildSnapshot(p: {
       accessTasks: needed.map((t) => ({ id: t.id, name: tasks.find((x) => x.id === t.id)?.name ?? t.id, net: t.net, vatRate: t.vatRate })),
       // Inspection scope and approved work are charged first (the engine's stage order), so these never count here.
       accessPaid: needed.filter((t) => t.chargedIn === 'inspection' || t.chargedIn === 'approved').map((t) => t.id),
+      // The page prices the whole estimate after the owner's choice from these, so its new total is the
+      // estimate's own committed total (VAT on the invoice total is not the sum of two parts' VAT).
+      committed: {
+        lines: priced.lines
+          .filter((l): l is typeof l & { stage: 'inspection' | 'approved' } => l.stage === 'inspection' || l.stage === 'approved')
+          .map((l) => ({ stage: l.stage, kind: l.kind, net: l.net, vatRate: l.vatRate, accessTaskId: l.accessTaskId })),
+        accessTasks: priced.accessTasks
+          .filter((t) => t.chargedIn === 'inspection' || t.chargedIn === 'approved')
+          .map((t) => ({ id: t.id, net: t.net, vatRate: t.vatRate })),
+      },
     },
     totals: {
       quoted: priced.quoted,
@@ -473,6 +483,11 @@ export async function resendRequest(deps: Deps, scope: Scope, id: string): Promi
     const w = await loadWorkshop(scope, t);
     const link = newLink(deps, r.id);
     const expiresAt = new Date(Date.now() + toWorkshopDto(w).settings.approvalLinkDays * 86_400_000);
+    // Only the old token's hash is kept, so an older e-mail's link can say a newer one was sent.
+    await boundSequelize().query(`INSERT INTO approval_superseded_links (token_hash, request_id, superseded_at) VALUES ($1, $2, now()) ON CONFLICT DO NOTHING`, {
+      bind: [r.tokenHash, r.id],
+      transaction: t,
+    });
     await r.update({ state: 'sent', linkNonce: link.nonce, tokenHash: link.tokenHash, expiresAt, revokedAt: null, lastRemindedAt: null }, { transaction: t });
     const owner = await ownerContact(job, t);
     await deps.mail.enqueue(approvalRequestMail({ to: owner.email, ownerName: owner.name, snapshot: r.snapshot, link: link.url, replacement: false, expiresAt }), t);
@@ -567,6 +582,52 @@ async function pageOf(r: ApprovalRequest, t?: Transaction): Promise<DecisionPage
     decisions: r.state === 'decided' ? await decisionsOf(r.id, t) : null,
     decidedByName: r.decidedByName ?? null,
     decidedAt: r.decidedAt ? r.decidedAt.toISOString() : null,
+    newerLinkSentAt: null,
+  };
+}
+
+/** The request a superseded link belonged to, and when its newest link was sent; null if the link was never issued. */
+async function bySupersededToken(token: string, t: Transaction): Promise<{ requestId: string; newestAt: Date } | null> {
+  const [row] = await boundSequelize().query<{ request_id: string; newest_at: Date }>(
+    `SELECT s.request_id, (SELECT max(x.superseded_at) FROM approval_superseded_links x WHERE x.request_id = s.request_id) AS newest_at
+       FROM approval_superseded_links s WHERE s.token_hash = $1`,
+    { bind: [sha256(token)], type: QueryTypes.SELECT, transaction: t },
+  );
+  return row ? { requestId: row.request_id, newestAt: new Date(row.newest_at) } : null;
+}
+
+/** What an older e-mail's link says: a newer link exists, and what has happened to the request since. */
+function supersededReason(r: ApprovalRequest, newestAt: Date): string {
+  const first = `A newer link was sent to you on ${day(newestAt)}`;
+  switch (r.state) {
+    case 'decided':
+      return `${first}, and the request has since been decided. Contact the workshop to change anything.`;
+    case 'expired':
+      return `${first}, and that link has since run out. Ask the workshop to send the request again.`;
+    case 'revoked':
+      return `${first}, and the workshop has since withdrawn the request. Contact the workshop if you expected to decide it.`;
+    case 'replaced':
+      return `${first}, and the request has since been replaced by a newer one: use the link in the newest e-mail.`;
+    default:
+      return `${first}: use the link in the newest e-mail.`;
+  }
+}
+
+/**
+ * The closed page for a superseded link: the request's state and plain words, but none of its
+ * decisions and no photos (the photo route knows only the current link), and nothing to decide.
+ */
+function supersededPageOf(r: ApprovalRequest, newestAt: Date): DecisionPageDto {
+  const snap = withPhotos(r.snapshot);
+  return {
+    state: r.state,
+    closedReason: supersededReason(r, newestAt),
+    snapshot: { ...snap, findings: snap.findings.map((f) => ({ ...f, photos: [] })) },
+    snapshotHash: r.snapshotHash,
+    decisions: null,
+    decidedByName: null,
+    decidedAt: null,
+    newerLinkSentAt: newestAt.toISOString(),
   };
 }
 
@@ -607,7 +668,14 @@ async function expireDue(now: Date, where: { jobId?: string } = {}): Promise<num
 export async function getDecisionPage(token: string): Promise<DecisionPageDto> {
   return boundSequelize().transaction(async (t) => {
     const r = await byToken(token, t, true);
-    if (!r) throw unknownLink();
+    if (!r) {
+      const old = await bySupersededToken(token, t);
+      if (!old) throw unknownLink();
+      const req = await ApprovalRequest.findOne({ where: { id: old.requestId }, transaction: t, lock: t.LOCK.UPDATE });
+      if (!req) throw unknownLink();
+      await expireIfDue(req, new Date(), t);
+      return supersededPageOf(req, old.newestAt);
+    }
     await expireIfDue(r, new Date(), t);
     return pageOf(r, t);
   });
@@ -620,7 +688,12 @@ function sameHash(a: string, b: string): boolean {
 export async function submitDecision(deps: Deps, token: string, input: DecisionInput, from: { ip: string; userAgent: string }): Promise<DecisionPageDto> {
   const result = await boundSequelize().transaction(async (t) => {
     const peek = await byToken(token, t);
-    if (!peek) throw unknownLink();
+    if (!peek) {
+      const old = await bySupersededToken(token, t);
+      const req = old ? await ApprovalRequest.findOne({ where: { id: old.requestId }, transaction: t }) : null;
+      if (!old || !req) throw unknownLink();
+      return { refused: supersededReason(req, old.newestAt), page: null };
+    }
     // The job first, as every staff change does; then the request row, which serialises two submissions.
     await Job.findOne({ where: { id: peek.jobId }, transaction: t, lock: t.LOCK.UPDATE });
     const r = await byToken(token, t, true);

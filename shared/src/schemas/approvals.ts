@@ -59,6 +59,29 @@ export interface SnapshotPricingBasis {
   accessTasks: { id: string; name: string; net: string; vatRate: VatRateCode }[];
   /** Of those, the ids the inspection scope or already-approved work pays for: never charged in this request. */
   accessPaid: string[];
+  /**
+   * The work already committed at sending (inspection scope and approved work) as engine inputs, so
+   * the page can price the whole estimate as it would stand after the owner's choice and show the
+   * new total with VAT worked on the whole invoice, as the estimate will. Absent from snapshots sent
+   * before it existed: the page then adds "approved so far" and "approving now".
+   */
+  committed?: SnapshotCommittedWork;
+}
+
+/** One committed line as the engine needs it: no description, only what prices it. */
+export interface SnapshotCommittedLine {
+  stage: 'inspection' | 'approved';
+  kind: LineKind;
+  /** After any line discount, in the currency's minor units. */
+  net: string;
+  vatRate: VatRateCode;
+  accessTaskId: string | null;
+}
+
+export interface SnapshotCommittedWork {
+  lines: SnapshotCommittedLine[];
+  /** Opening-up tasks committed work pays for (their own labour priced), including any the request's lines also name. */
+  accessTasks: { id: string; net: string; vatRate: VatRateCode }[];
 }
 
 /** What the owner saw, frozen at sending. Its SHA-256 (hex, of the canonical JSON) is the snapshot hash. */
@@ -169,8 +192,13 @@ export interface DecisionPageDto {
   closedReason: string | null;
   snapshot: ApprovalSnapshot;
   snapshotHash: string;
-  /** Present once decided. */
+  /** Present once decided (never through a link that a newer one has superseded). */
   decisions: { findingId: string; decision: Decision; note: string }[] | null;
   decidedByName: string | null;
   decidedAt: string | null;
+  /**
+   * Set when this page was opened with a link the workshop has since superseded by re-sending the
+   * request: when the newest link was sent. Such a link shows the request closed and decides nothing.
+   */
+  newerLinkSentAt: string | null;
 }

@@ -89,6 +89,7 @@ const TOKEN = 'tok_en-123';
 const page = (over: Partial<DecisionPageDto> = {}): DecisionPageDto => ({
   state: 'sent',
   closedReason: null,
+  newerLinkSentAt: null,
   snapshot: snapshot(),
   snapshotHash: HASH,
   decisions: null,
@@ -343,5 +344,60 @@ describe('DecisionPage running total with a pricing basis', () => {
     render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
     choose('Approve');
     expect(screen.getByTestId('running-total').textContent).toContain('may come out lower');
+  });
+});
+
+describe('DecisionPage opened with an older link of a re-sent request', () => {
+  it('then it shows the request closed, says a newer link was sent, and offers no choices, photos or receipt', () => {
+    const s = snapshot();
+    s.findings[0]!.photos = PHOTOS;
+    render(
+      <DecisionPage
+        token={TOKEN}
+        page={page({
+          snapshot: s,
+          closedReason: 'A newer link was sent to you on 2 Dec: use the link in the newest e-mail.',
+          newerLinkSentAt: '2026-12-02T09:00:00Z',
+        })}
+        onSubmit={vi.fn()}
+      />,
+    );
+    const closed = screen.getByTestId('decision-closed');
+    expect(closed.getAttribute('data-superseded')).toBe('true');
+    expect(within(closed).getByText('A newer link was sent to you')).toBeTruthy();
+    expect(within(closed).getByText('A newer link was sent to you on 2 Dec: use the link in the newest e-mail.')).toBeTruthy();
+    expect(within(closed).getByText('This request:')).toBeTruthy();
+    expect(screen.queryByRole('radio')).toBeNull();
+    expect(screen.queryByRole('img')).toBeNull();
+    expect(screen.queryByTestId('running-total')).toBeNull();
+  });
+});
+
+describe('DecisionPage new total with the committed work in the snapshot', () => {
+  it('when VAT is rounded down on the invoice total, then the bar adds up to the whole-bill figure and says why approving adds a penny more', () => {
+    const base = snapshot();
+    // Inspection £10.03 (VAT 2.006 → 2.00), F-1 £20.03 (4.006 → 4.00); the whole bill £30.06 (6.012 → 6.01) = £36.07 [derived from VAT Notice 700 §17.5].
+    const s: ApprovalSnapshot = {
+      ...base,
+      rounding: 'invoice-down',
+      findings: [{ ...base.findings[0]!, lines: [{ description: 'Fit new plugs', kind: 'fee', quantity: '1', net: '20.03', vatRate: 'standard', accessTaskId: null }], price: totals('20.03', '4.00', '24.03') }],
+      pricingBasis: {
+        vatRates: { standard: '20', reduced: '5', zero: '0' },
+        accessTasks: [],
+        accessPaid: [],
+        committed: { lines: [{ stage: 'inspection', kind: 'labour', net: '10.03', vatRate: 'standard', accessTaskId: null }], accessTasks: [] },
+      },
+      totals: { quoted: totals('10.03', '2.00', '12.03'), approvedSoFar: totals('10.03', '2.00', '12.03'), thisRequest: totals('20.03', '4.00', '24.03'), undecidedElsewhere: totals('0.00', '0.00', '0.00') },
+    };
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
+    const bar = screen.getByTestId('running-total');
+    expect(screen.queryByTestId('decide-vat-whole-bill')).toBeNull();
+    choose('Approve');
+    expect(within(bar).getByText('£12.03', { selector: '[data-total="approved-so-far"]' })).toBeTruthy();
+    expect(within(bar).getByText('£24.04', { selector: '[data-total="this-request"]' })).toBeTruthy();
+    expect(within(bar).getByText('£36.07', { selector: '[data-total="new-total"]' })).toBeTruthy();
+    expect(screen.getByTestId('decide-vat-whole-bill').textContent).toBe(
+      'VAT is worked out on the whole bill, so what you are approving adds £24.04 to it, not the £24.03 it comes to on its own.',
+    );
   });
 });

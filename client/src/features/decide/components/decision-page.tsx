@@ -40,8 +40,8 @@ const things = (n: number) => `${WORDS[n] ?? String(n)} ${n === 1 ? 'thing' : 't
  */
 export function DecisionPage({ page, token, onSubmit, submitting = false, onReload }: DecisionPageProps) {
   const s = page.snapshot;
-  if (page.state !== 'sent' || page.closedReason) {
-    return page.decisions && page.decidedAt ? <Receipt page={page} /> : <Closed page={page} />;
+  if (page.state !== 'sent' || page.closedReason || page.newerLinkSentAt) {
+    return page.decisions && page.decidedAt && !page.newerLinkSentAt ? <Receipt page={page} /> : <Closed page={page} />;
   }
   return <Deciding page={page} token={token} onSubmit={onSubmit} submitting={submitting} onReload={onReload} key={page.snapshotHash + s.requestId} />;
 }
@@ -449,6 +449,20 @@ function SharedSaving({ totals: t, currency }: { totals: RunningTotal; currency:
   );
 }
 
+/**
+ * When VAT is worked on the whole invoice, what a choice adds to the bill can differ by a penny from
+ * the approved work's own price; said once, so the figures that differ are explained.
+ */
+function VatOnWholeBill({ totals: t, currency }: { totals: RunningTotal; currency: string }) {
+  if (!t.wholeInvoice || compareAmounts(t.addsToTotal, t.thisRequestAsChosen) === 0) return null;
+  return (
+    <p className="mx-auto max-w-xl pt-1 text-xs text-slate-soft" data-testid="decide-vat-whole-bill">
+      VAT is worked out on the whole bill, so what you are approving adds {formatMoney(t.addsToTotal, currency)} to it, not the{' '}
+      {formatMoney(t.thisRequestAsChosen, currency)} it comes to on its own.
+    </p>
+  );
+}
+
 function RunningTotalBar({ currency, totals: t }: { currency: string; totals: RunningTotal }) {
   const m = (a: string) => formatMoney(a, currency);
   return (
@@ -465,7 +479,7 @@ function RunningTotalBar({ currency, totals: t }: { currency: string; totals: Ru
           <span className="text-slate-soft">Approved so far</span> <span data-total="approved-so-far">{m(t.approvedSoFar)}</span>
         </p>
         <p className="flex justify-between gap-2">
-          <span className="text-slate-soft">Approving now</span> <span data-total="this-request">{m(t.thisRequestAsChosen)}</span>
+          <span className="text-slate-soft">Approving now</span> <span data-total="this-request">{m(t.addsToTotal)}</span>
         </p>
         <p className="flex justify-between gap-2">
           <span className="text-slate-soft">Not yet decided</span> <span data-total="undecided">{m(t.undecided)}</span>
@@ -474,6 +488,7 @@ function RunningTotalBar({ currency, totals: t }: { currency: string; totals: Ru
           <span>New total, incl. VAT</span> <span data-total="new-total">{m(t.newTotal)}</span>
         </p>
       </div>
+      <VatOnWholeBill totals={t} currency={currency} />
       {!t.exact && t.sharesOpeningUp && t.chosen > 0 && t.chosen < t.of ? (
         <p className="mx-auto max-w-xl pt-1 text-xs text-slate-soft">Some findings share opening-up work, charged once when approved together, so part-way figures may come out lower.</p>
       ) : null}
@@ -524,7 +539,7 @@ function Receipt({ page }: { page: DecisionPageDto }) {
         <dt>First quoted</dt>
         <dd className="text-right">{formatMoney(t.quoted, s.currency)}</dd>
         <dt>You approved in this request</dt>
-        <dd className="text-right">{formatMoney(t.thisRequestAsChosen, s.currency)}</dd>
+        <dd className="text-right">{formatMoney(t.addsToTotal, s.currency)}</dd>
         <dt className="font-bold">New total, incl. VAT</dt>
         <dd className="text-right font-bold" data-total="new-total">
           {formatMoney(t.newTotal, s.currency)}
@@ -549,11 +564,13 @@ const CLOSED_TITLE: Record<DecisionPageDto['state'], string> = {
 
 function Closed({ page }: { page: DecisionPageDto }) {
   const s = page.snapshot;
+  const superseded = page.newerLinkSentAt !== null && page.newerLinkSentAt !== undefined;
   return (
-    <article className="flex flex-col gap-5" data-testid="decision-closed">
+    <article className="flex flex-col gap-5" data-testid="decision-closed" data-superseded={superseded ? 'true' : undefined}>
       <Letterhead s={s} />
-      <Notice title={CLOSED_TITLE[page.state]}>
-        <p>
+      <Notice title={superseded ? 'A newer link was sent to you' : CLOSED_TITLE[page.state]}>
+        <p className="flex flex-wrap items-center gap-2">
+          {superseded ? <span>This request:</span> : null}
           <ApprovalRequestBadge state={page.state} />
         </p>
         <p>{page.closedReason ?? `This request can no longer be decided. Please contact ${s.workshopName}.`}</p>
@@ -563,8 +580,8 @@ function Closed({ page }: { page: DecisionPageDto }) {
 }
 
 /**
- * For a link the server does not know: typed wrong, cut short by a mail program, or replaced when
- * the workshop sent the request again (a re-sent request has a new link and the old one stops).
+ * For a link the server never issued: typed wrong or cut short by a mail program. (An older link of
+ * a re-sent request is known to the server and gets the closed page, saying a newer link was sent.)
  */
 export function UnknownLink() {
   return (
@@ -572,8 +589,8 @@ export function UnknownLink() {
       <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">
         This link no longer opens a request
       </h1>
-      <p>If the workshop sent you this request again, only the link in the newest e-mail works: open that one.</p>
-      <p>Otherwise the link may have been cut short by your e-mail program. Open it again from the e-mail, or ask the workshop to send a new one.</p>
+      <p>The link may have been cut short or changed by your e-mail program. Open it again from the e-mail, taking care to use the whole link.</p>
+      <p>If it still does not open, ask the workshop to send the request again.</p>
     </article>
   );
 }

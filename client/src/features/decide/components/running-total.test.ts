@@ -1,6 +1,17 @@
-import type { ApprovalSnapshot, SnapshotLine, Totals } from '@wingstage/shared';
+import {
+  priceEstimate,
+  sumAmounts,
+  VAT_ROUNDING_METHODS,
+  type ApprovalSnapshot,
+  type EstimateInput,
+  type EstimateStage,
+  type SnapshotLine,
+  type Totals,
+  type VatRounding,
+  type WorkshopPricing,
+} from '@wingstage/shared';
 import { describe, expect, it } from 'vitest';
-import { addsWithChoices, priceChoice, runningTotal, snapshotEngineInput } from './running-total';
+import { addsWithChoices, priceChoice, runningTotal, snapshotEngineInput, wholeEstimateInput, type Choices } from './running-total';
 
 const PLUGS = '5b1d2c3e-4f50-4a61-8b72-9c83d4e5f607';
 const HOSE = '6c2e3d4f-5061-4b72-9c83-ad94e5f60718';
@@ -173,5 +184,150 @@ describe('runningTotal for an older snapshot without a pricing basis', () => {
     expect(r).toMatchObject({ thisRequestAsChosen: '188.40', undecided: '220.12', exact: false, sharesOpeningUp: true });
     // The whole request still uses the snapshot's request total.
     expect(runningTotal(old(), { [PLUGS]: 'approve', [HOSE]: 'approve' }).thisRequestAsChosen).toBe('284.92');
+  });
+});
+
+describe('new total: the whole estimate after the choice, VAT worked as the estimate works it', () => {
+  const ONLY = '0a1b2c3d-4e5f-4a60-8b71-c82d93ea4f05';
+
+  /**
+   * One finding asked about, one inspection line committed, the workshop rounding VAT on the invoice
+   * total. VAT Notice 700 §17.5 lets a business work VAT on the invoice total and round that total
+   * down to a whole penny (invoice-down), or to the nearest penny, half up, as HMRC manual VATREC12030
+   * reads "nearest" (invoice-nearest) [derived from §17.5, as shared/test/pricing-vat.test.ts]:
+   *
+   *   committed:  inspection £10.03       VAT 2.006 → down 2.00, nearest 2.01
+   *   request:    finding    £20.03       VAT 4.006 → down 4.00, nearest 4.01
+   *   whole bill: £30.06                  VAT 6.012 → down 6.01, nearest 6.01
+   *
+   *   invoice-down:    parts 12.03 + 24.03 = 36.06; whole 30.06 + 6.01 = 36.07 (a penny more)
+   *   invoice-nearest: parts 12.04 + 24.04 = 36.08; whole 30.06 + 6.01 = 36.07 (a penny less)
+   */
+  function pennySnapshot(rounding: 'invoice-down' | 'invoice-nearest', withCommitted = true): ApprovalSnapshot {
+    const s = snapshot([], { rounding });
+    const parts = rounding === 'invoice-down' ? { so: t('10.03', '2.00', '12.03'), req: t('20.03', '4.00', '24.03') } : { so: t('10.03', '2.01', '12.04'), req: t('20.03', '4.01', '24.04') };
+    s.findings = [{ ...s.findings[0]!, findingId: ONLY, number: 'F-1', lines: [line('Re-seat the fairing', 'labour', '20.03')], price: parts.req }];
+    s.pricingBasis = {
+      vatRates: { standard: '20', reduced: '5', zero: '0' },
+      accessTasks: [],
+      accessPaid: [],
+      ...(withCommitted ? { committed: { lines: [{ stage: 'inspection' as const, kind: 'fee' as const, net: '10.03', vatRate: 'standard' as const, accessTaskId: null }], accessTasks: [] } } : {}),
+    };
+    s.totals = { quoted: parts.so, approvedSoFar: parts.so, thisRequest: parts.req, undecidedElsewhere: t('0.00', '0.00', '0.00') };
+    return s;
+  }
+
+  it('when VAT is rounded down on the invoice total, then approving gives 36.07 (the whole bill), not 12.03 + 24.03 = 36.06', () => {
+    const r = runningTotal(pennySnapshot('invoice-down'), { [ONLY]: 'approve' });
+    expect(r).toMatchObject({ approvedSoFar: '12.03', thisRequestAsChosen: '24.03', newTotal: '36.07', addsToTotal: '24.04', wholeInvoice: true });
+  });
+
+  it('when VAT is rounded to the nearest penny on the invoice total, then approving gives 36.07, not 12.04 + 24.04 = 36.08', () => {
+    const r = runningTotal(pennySnapshot('invoice-nearest'), { [ONLY]: 'approve' });
+    expect(r).toMatchObject({ approvedSoFar: '12.04', thisRequestAsChosen: '24.04', newTotal: '36.07', addsToTotal: '24.03', wholeInvoice: true });
+  });
+
+  it('when the finding is declined or left open, then the new total is what is already committed', () => {
+    for (const choice of ['decline', undefined] as const) {
+      expect(runningTotal(pennySnapshot('invoice-down'), { [ONLY]: choice })).toMatchObject({ newTotal: '12.03', addsToTotal: '0.00' });
+    }
+  });
+
+  it('when the snapshot was sent without the committed work, then it adds the two parts as before', () => {
+    const s = pennySnapshot('invoice-down', false);
+    expect(wholeEstimateInput(s, {})).toBeNull();
+    expect(runningTotal(s, { [ONLY]: 'approve' })).toMatchObject({ newTotal: '36.06', addsToTotal: '24.03', wholeInvoice: false, exact: true });
+  });
+
+  /*
+   * The same job priced as the estimate itself holds it (hours × rate, unit cost × mark-up, a
+   * percentage discount, access tasks by hours) for every choice of two findings and every rounding
+   * method: the page's new total must be the estimate's committed total after deciding.
+   */
+  const PROP = '1b2c3d4e-5f60-4a71-8b82-c93da4eb5f16';
+  const OLD = '2c3d4e5f-6071-4b82-9c93-da4eb5fc6027';
+  function realEstimate(choices: Choices): EstimateInput {
+    const stage = (id: string): EstimateStage => (choices[id] === 'approve' ? 'approved' : choices[id] === 'decline' ? 'declined' : 'discovered');
+    return {
+      lines: [
+        { id: 'i1', stage: 'inspection', kind: 'labour', hours: '2', ratePerHour: '62.00', vatRate: 'standard' },
+        { id: 'i2', stage: 'inspection', kind: 'part', quantity: '3', unitCost: '2.345', vatRate: 'standard' },
+        { id: 'i3', stage: 'inspection', kind: 'fee', amount: '17.35', vatRate: 'reduced' },
+        { id: 'i4', stage: 'inspection', kind: 'labour', hours: '0.5', ratePerHour: '62.00', vatRate: 'standard', accessTaskId: PROP },
+        { id: 'a1', stage: 'approved', findingId: OLD, kind: 'labour', hours: '0.3', ratePerHour: '62.00', vatRate: 'standard', discount: { percent: '10' } },
+        { id: 'p1', stage: stage(PLUGS), findingId: PLUGS, kind: 'labour', hours: '0.5', ratePerHour: '62.00', vatRate: 'standard', accessTaskId: COWL },
+        { id: 'p2', stage: stage(PLUGS), findingId: PLUGS, kind: 'part', quantity: '4', unitCost: '6.88', vatRate: 'standard' },
+        { id: 'p3', stage: stage(PLUGS), findingId: PLUGS, kind: 'labour', hours: '0.25', ratePerHour: '62.00', vatRate: 'standard', accessTaskId: PROP },
+        { id: 'h1', stage: stage(HOSE), findingId: HOSE, kind: 'labour', hours: '1', ratePerHour: '62.00', vatRate: 'standard', accessTaskId: COWL, discount: { percent: '10' } },
+        { id: 'h2', stage: stage(HOSE), findingId: HOSE, kind: 'subcontract', cost: '40.00', markupPercent: '10', vatRate: 'reduced' },
+      ],
+      accessTasks: [
+        { id: COWL, hours: '1.5', ratePerHour: '62.00', vatRate: 'standard' },
+        { id: PROP, hours: '0.75', ratePerHour: '62.00', vatRate: 'standard' },
+      ],
+    };
+  }
+  const pricingFor = (vatRounding: VatRounding): WorkshopPricing => ({
+    currency: 'GBP',
+    vatRounding,
+    vatRates: { standard: '20', reduced: '5', zero: '0' },
+    partsMarkupPercent: '20',
+    subcontractMarkupPercent: '15',
+  });
+
+  /** The snapshot as the server freezes it: nets after mark-up and discount; totals from the engine. */
+  function frozen(rounding: VatRounding): ApprovalSnapshot {
+    const before = priceEstimate(realEstimate({}), pricingFor(rounding));
+    const s = snapshot([PROP], { rounding: rounding });
+    // 4 × 6.88 = 27.52 + 20 % = 33.024 → 33.02; 62.00 less 10 % = 55.80; 40.00 + 10 % = 44.00 (reduced).
+    s.findings[0]!.lines = [line('Fit plugs', 'labour', '31.00', COWL), line('Spark plugs', 'part', '33.02'), line('Check the prop flange', 'labour', '15.50', PROP)];
+    s.findings[1]!.lines = [line('Replace hose', 'labour', '55.80', COWL), { ...line('Hose made up', 'subcontract', '44.00'), vatRate: 'reduced' }];
+    for (const f of s.findings) f.price = before.findings.find((x) => x.findingId === f.findingId)!.price;
+    s.pricingBasis = {
+      vatRates: { standard: '20', reduced: '5', zero: '0' },
+      accessTasks: [
+        { id: COWL, name: 'Cowling off', net: '93.00', vatRate: 'standard' },
+        { id: PROP, name: 'Propeller off', net: '46.50', vatRate: 'standard' },
+      ],
+      accessPaid: [PROP],
+      committed: {
+        // 2 × 62.00 = 124.00; 3 × 2.345 = 7.035 + 20 % = 8.442 → 8.44; 17.35 reduced; 0.5 × 62.00 = 31.00; 0.3 × 62.00 = 18.60 less 10 % = 16.74.
+        lines: [
+          { stage: 'inspection', kind: 'labour', net: '124.00', vatRate: 'standard', accessTaskId: null },
+          { stage: 'inspection', kind: 'part', net: '8.44', vatRate: 'standard', accessTaskId: null },
+          { stage: 'inspection', kind: 'fee', net: '17.35', vatRate: 'reduced', accessTaskId: null },
+          { stage: 'inspection', kind: 'labour', net: '31.00', vatRate: 'standard', accessTaskId: PROP },
+          { stage: 'approved', kind: 'labour', net: '16.74', vatRate: 'standard', accessTaskId: null },
+        ],
+        accessTasks: [{ id: PROP, net: '46.50', vatRate: 'standard' }],
+      },
+    };
+    s.totals = { ...s.totals, quoted: before.quoted, approvedSoFar: before.committed, thisRequest: before.undecided, undecidedElsewhere: t('0.00', '0.00', '0.00') };
+    return s;
+  }
+
+  const OPTIONS = ['approve', 'decline', undefined] as const;
+  const CHOICES: Choices[] = OPTIONS.flatMap((p) => OPTIONS.map((h) => ({ [PLUGS]: p, [HOSE]: h })));
+
+  it.each(VAT_ROUNDING_METHODS)("under %s, for each of the 9 choices, then the new total is the estimate's committed total after deciding", (rounding) => {
+    const s = frozen(rounding);
+    for (const choice of CHOICES) {
+      const after = priceEstimate(realEstimate(choice), pricingFor(rounding)).committed.gross;
+      const r = runningTotal(s, choice);
+      expect({ choice, newTotal: r.newTotal }).toEqual({ choice, newTotal: after });
+      expect(sumAmounts([r.approvedSoFar, r.addsToTotal], 'GBP')).toBe(after);
+    }
+  });
+
+  it('then for some choice and rounding the two parts added would have missed it by a penny, which the whole-bill figure does not', () => {
+    const misses = VAT_ROUNDING_METHODS.flatMap((rounding) =>
+      CHOICES.filter((choice) => {
+        const r = runningTotal(frozen(rounding), choice);
+        return sumAmounts([r.approvedSoFar, r.thisRequestAsChosen], 'GBP') !== r.newTotal;
+      }).map((choice) => ({ rounding, choice })),
+    );
+    expect(misses.length).toBeGreaterThan(0);
+    // Only a method that rounds a total can differ: VAT per line to the nearest penny adds up the same however the lines are grouped.
+    expect(misses.some((m) => m.rounding === 'line-nearest')).toBe(false);
   });
 });

@@ -1,5 +1,8 @@
 import {
   compareAmounts,
+  Dec,
+  formatAmount,
+  minorUnits,
   FINDING_CATEGORY_LABELS,
   priceEstimate,
   sumAmounts,
@@ -24,8 +27,17 @@ export interface RunningTotal {
   thisRequestAsChosen: string;
   /** Findings of this request without a choice yet, plus discovered work awaiting a decision elsewhere. */
   undecided: string;
-  /** Approved so far plus this request as chosen: what the bill would come to. */
+  /**
+   * What the bill would come to after this choice. With the committed work in the snapshot it is the
+   * engine's committed total of the whole estimate as it would then stand (VAT worked on the whole
+   * invoice where the workshop rounds that way), so it is exactly what the estimate shows after
+   * deciding; otherwise approved so far plus this request as chosen.
+   */
   newTotal: string;
+  /** newTotal − approvedSoFar: how much this choice adds to the bill, so the figures shown add up. */
+  addsToTotal: string;
+  /** True when newTotal is the whole estimate priced at once (the snapshot carries the committed work). */
+  wholeInvoice: boolean;
   /**
    * True when the figures come from the pricing engine run on the owner's choice (every snapshot
    * sent with a pricing basis). False for an older snapshot, whose part-way figures add up the
@@ -49,7 +61,10 @@ export interface RunningTotal {
 const STAGE_OF: Record<Decision, EstimateStage> = { approve: 'approved', decline: 'declined' };
 
 /** A snapshot line as the engine takes it, keeping its kind; `net` is already after any discount. */
-function engineLine(l: SnapshotLine, common: { id: string; stage: EstimateStage; findingId: string; vatRate: VatRateCode }): EstimateLineInput {
+function engineLine(
+  l: Pick<SnapshotLine, 'kind' | 'net' | 'accessTaskId'>,
+  common: { id: string; stage: EstimateStage; findingId: string | null; vatRate: VatRateCode },
+): EstimateLineInput {
   const base = { ...common, accessTaskId: l.accessTaskId ?? null };
   switch (l.kind) {
     case 'labour':
@@ -102,6 +117,32 @@ export function snapshotEngineInput(snapshot: ApprovalSnapshot, choices: Choices
   };
 }
 
+/**
+ * The whole estimate as it would stand after the owner's current choice: the committed work frozen
+ * at sending (inspection scope and approved work, in their own stages) plus this request's lines in
+ * the stages the choice puts them. Its `committed` total is what the estimate will show once the
+ * owner decides. Null for a snapshot sent without the committed work.
+ */
+export function wholeEstimateInput(snapshot: ApprovalSnapshot, choices: Choices): { input: EstimateInput; pricing: WorkshopPricing } | null {
+  const request = snapshotEngineInput(snapshot, choices);
+  const committed = snapshot.pricingBasis?.committed;
+  if (!request || !committed) return null;
+  // The committed lines name the tasks they pay for, so the request's nil placeholder lines are not needed.
+  const lines = request.input.lines.filter((l) => !l.id.startsWith('paid:'));
+  committed.lines.forEach((l, i) => lines.push(engineLine(l, { id: `committed:${i}`, stage: l.stage, findingId: null, vatRate: l.vatRate })));
+  const tasks = new Map((request.input.accessTasks ?? []).map((t) => [t.id, t]));
+  for (const t of committed.accessTasks) {
+    if (!tasks.has(t.id)) tasks.set(t.id, { id: t.id, hours: '1', ratePerHour: t.net, vatRate: t.vatRate });
+  }
+  return { input: { lines, accessTasks: [...tasks.values()] }, pricing: request.pricing };
+}
+
+/** The engine's figures for the whole estimate after the owner's current choice, or null (see `wholeEstimateInput`). */
+export function priceWholeChoice(snapshot: ApprovalSnapshot, choices: Choices): PricedEstimate | null {
+  const e = wholeEstimateInput(snapshot, choices);
+  return e ? priceEstimate(e.input, e.pricing) : null;
+}
+
 /** The engine's figures for the owner's current choice, or null for an older snapshot. */
 export function priceChoice(snapshot: ApprovalSnapshot, choices: Choices): PricedEstimate | null {
   const e = snapshotEngineInput(snapshot, choices);
@@ -133,12 +174,17 @@ export function runningTotal(snapshot: ApprovalSnapshot, choices: Choices): Runn
     const thisRequestAsChosen = priced.stages.approved.gross;
     const ownPrices = sumAmounts(findings.filter((f) => choices[f.findingId] === 'approve').map((f) => f.price.gross), c);
     const saving = sumAmounts([ownPrices, `-${thisRequestAsChosen}`], c);
+    const whole = priceWholeChoice(snapshot, choices);
+    // With invoice-total rounding, VAT on the whole bill can differ by a penny from the two parts' VAT added.
+    const newTotal = whole ? whole.committed.gross : sumAmounts([snapshot.totals.approvedSoFar.gross, thisRequestAsChosen], c);
     return {
       ...common,
       sharedSaving: compareAmounts(saving, '0') > 0 ? saving : null,
       thisRequestAsChosen,
       undecided: sumAmounts([priced.stages.discovered.gross, snapshot.totals.undecidedElsewhere.gross], c),
-      newTotal: sumAmounts([snapshot.totals.approvedSoFar.gross, thisRequestAsChosen], c),
+      newTotal,
+      addsToTotal: formatAmount(new Dec(newTotal).minus(snapshot.totals.approvedSoFar.gross), minorUnits(c)),
+      wholeInvoice: whole !== null,
       exact: true,
     };
   }
@@ -152,6 +198,8 @@ export function runningTotal(snapshot: ApprovalSnapshot, choices: Choices): Runn
     thisRequestAsChosen,
     undecided: sumAmounts([partOf(open), snapshot.totals.undecidedElsewhere.gross], c),
     newTotal: sumAmounts([snapshot.totals.approvedSoFar.gross, thisRequestAsChosen], c),
+    addsToTotal: thisRequestAsChosen,
+    wholeInvoice: false,
     exact: false,
   };
 }
