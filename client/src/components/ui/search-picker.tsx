@@ -1,5 +1,5 @@
 import type { Page } from '@wingstage/shared';
-import { useQuery, type QueryFunction, type QueryKey } from '@tanstack/react-query';
+import { useQuery, type QueryFunctionContext, type QueryKey } from '@tanstack/react-query';
 import { useCombobox } from 'downshift';
 import { useEffect, useId, useRef, useState, type ReactNode, type Ref } from 'react';
 
@@ -9,7 +9,8 @@ const DEBOUNCE_MS = 250;
 
 interface QueryShape<T> {
   queryKey: QueryKey;
-  queryFn?: QueryFunction<T, QueryKey>;
+  // Method syntax on purpose: it accepts a feature's queryFn typed for its own, narrower key.
+  queryFn?(context: QueryFunctionContext<QueryKey>): T | Promise<T>;
 }
 
 /**
