@@ -144,4 +144,49 @@ describe('EstimateBuilder', () => {
     expect(screen.getByDisplayValue('Their new scope line')).toBeTruthy();
     expect(screen.getByRole('heading', { name: /Estimate/ }).textContent).toContain('version 4');
   });
+
+  it("'+ Part…' searches the active catalogue on the server and adds the picked part as a priced line", async () => {
+    const plug = {
+      id: '9c9c9c9c-0000-4000-8000-000000000105',
+      partNumber: 'WS-1305',
+      description: 'Gasket set, rocker cover',
+      unitCost: '14.50',
+      unitPrice: null,
+      markupPercent: null,
+      sellPrice: '17.40',
+      vatRate: 'standard',
+      supplierId: null,
+      supplierName: null,
+      leadTimeDays: 0,
+      active: true,
+      version: 1,
+    };
+    fetchMock.mockImplementation(async (url) => {
+      const u = new URL(String(url), 'http://test.local');
+      const q = u.searchParams.get('q');
+      return json(q === 'rocker' ? { items: [plug], total: 1, page: 1, pageSize: 20 } : { items: [], total: 0, page: 1, pageSize: 20 });
+    });
+    renderWithApp(<Harness estimate={estimateOf([line({})])} />);
+    const scope = within(screen.getByRole('region', { name: 'Inspection scope' }));
+    const box = scope.getByRole('combobox', { name: 'Add a catalogue part to inspection scope' }) as HTMLInputElement;
+    fireEvent.change(box, { target: { value: 'rocker' } });
+    fireEvent.click(await scope.findByRole('option', { name: /WS-1305 — Gasket set, rocker cover/ }));
+
+    const partsUrl = fetchMock.mock.calls.map(([u]) => new URL(String(u), 'http://test.local')).find((u) => u.searchParams.get('q') === 'rocker')!;
+    expect(partsUrl.pathname).toBe('/api/parts');
+    expect(partsUrl.searchParams.get('active')).toBe('true');
+    expect(scope.getByDisplayValue('WS-1305 Gasket set, rocker cover')).toBeTruthy();
+    expect(scope.getByDisplayValue('14.50')).toBeTruthy();
+    // Ready for the next part, and the change waits to be saved.
+    expect(box.value).toBe('');
+    expect(screen.getByText('Unsaved changes')).toBeTruthy();
+  });
+
+  it('still adds a part that is not in the catalogue', () => {
+    renderWithApp(<Harness estimate={estimateOf([line({})])} />);
+    const scope = within(screen.getByRole('region', { name: 'Inspection scope' }));
+    const before = scope.getAllByLabelText('Description').length;
+    fireEvent.click(scope.getByRole('button', { name: '+ Part not in the catalogue' }));
+    expect(scope.getAllByLabelText('Description')).toHaveLength(before + 1);
+  });
 });
