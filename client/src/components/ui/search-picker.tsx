@@ -235,7 +235,7 @@ export function SearchPicker<T>({
             : 'hidden'
         }
       >
-        <ul {...getMenuProps()} aria-label={label} className="flex flex-col">
+        <ul {...getMenuProps()} className="flex flex-col">
           {isOpen
             ? items.map((item, index) => {
                 const chosen = selectedItem != null && source.id(selectedItem) === source.id(item);
