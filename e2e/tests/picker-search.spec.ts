@@ -77,7 +77,7 @@ test('the 105th owner, an aircraft and a catalogue part are each found by search
 
   await test.step('the aircraft is saved with that owner', async () => {
     await page.getByLabel('Registration').fill(registration);
-    await page.getByLabel('Type', { exact: true }).fill('Single-seat sport microlight');
+    await page.getByRole('textbox', { name: 'Type', exact: true }).fill('Single-seat sport microlight');
     await page.getByRole('button', { name: 'Add aircraft' }).click();
     await expect(page.getByRole('heading', { level: 1, name: registration })).toBeVisible();
     await expect(page.getByRole('link', { name: lastName })).toBeVisible();
@@ -87,10 +87,10 @@ test('the 105th owner, an aircraft and a catalogue part are each found by search
     await page.goto('/jobs/new');
     const aircraft = page.getByRole('combobox', { name: 'Aircraft' });
     await aircraft.fill(`Yarrowby ${tag}`);
-    await expect(page.getByRole('option')).toHaveCount(1);
-    await expect(page.getByRole('option')).toContainText(`${registration} — ${lastName}`);
+    await expect(page.getByRole('listbox').getByRole('option')).toHaveCount(1);
+    await expect(page.getByRole('listbox').getByRole('option')).toContainText(`${registration} — ${lastName}`);
     await shot(page, testInfo, 'book-in-picker-open');
-    await page.getByRole('option').click();
+    await page.getByRole('listbox').getByRole('option').click();
     await expect(aircraft).toHaveValue(`${registration} — ${lastName}`);
     await page.getByLabel('Title').fill(`Picker check ${tag}`);
     await page.getByRole('button', { name: 'Book in' }).click();
@@ -101,7 +101,7 @@ test('the 105th owner, an aircraft and a catalogue part are each found by search
     const scope = page.getByRole('region', { name: 'Inspection scope' });
     const addPart = scope.getByRole('combobox', { name: 'Add a catalogue part to inspection scope' });
     await addPart.fill('spark');
-    const option = scope.getByRole('option', { name: /WS-1201 — Spark plug/ });
+    const option = scope.getByRole('listbox').getByRole('option', { name: /WS-1201 — Spark plug/ });
     await expect(option).toBeVisible();
     await addPart.scrollIntoViewIfNeeded();
     await shot(page, testInfo, 'estimate-part-picker-open');
