@@ -59,6 +59,7 @@ test('the 105th owner, an aircraft and a catalogue part are each found by search
     await expect(page.getByRole('listbox')).toBeVisible();
     await expect(page.getByRole('option')).toHaveCount(20);
     await expect(page.getByText('Showing the first 20 — type more to narrow', { exact: true }).first()).toBeVisible();
+    await shot(page, testInfo, 'owner-picker-first-20');
 
     await owner.fill(`Yarrowby ${tag}`);
     await expect(page.getByRole('option')).toHaveCount(1);
@@ -100,10 +101,12 @@ test('the 105th owner, an aircraft and a catalogue part are each found by search
   await test.step("the estimate's + Part… picker adds a catalogue part found by search", async () => {
     const scope = page.getByRole('region', { name: 'Inspection scope' });
     const addPart = scope.getByRole('combobox', { name: 'Add a catalogue part to inspection scope' });
-    await addPart.fill('spark');
+    // Near the top of the screen, so the open list shows in the screenshot below it.
+    await addPart.evaluate((el) => el.scrollIntoView({ block: 'start' }));
+    await page.evaluate(() => window.scrollBy(0, -120));
+    await addPart.fill('WS-');
     const option = scope.getByRole('listbox').getByRole('option', { name: /WS-1201 — Spark plug/ });
     await expect(option).toBeVisible();
-    await addPart.scrollIntoViewIfNeeded();
     await shot(page, testInfo, 'estimate-part-picker-open');
     await option.click();
     await expect(scope.getByLabel('Description', { exact: true }).last()).toHaveValue(/^WS-1201 Spark plug/);

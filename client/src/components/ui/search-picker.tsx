@@ -60,7 +60,7 @@ export interface SearchPickerProps<T> {
 }
 
 const controlClass =
-  'block w-full min-h-tap rounded-control border border-seam-strong bg-cloth-raised py-2 pl-3 pr-24 text-base text-slate placeholder:text-slate-soft aria-[invalid=true]:border-2 aria-[invalid=true]:border-ember';
+  'block w-full min-h-tap rounded-control border border-seam-strong bg-cloth-raised py-2 pl-3 text-base text-slate placeholder:text-slate-soft aria-[invalid=true]:border-2 aria-[invalid=true]:border-ember';
 
 /**
  * A text box that searches one list endpoint as you type and offers the first matches in a
@@ -160,6 +160,7 @@ export function SearchPicker<T>({
     },
   });
 
+  const clearable = !required && !clearAfterPick && Boolean(wanted) && !disabled;
   const describedBy = [hint ? `${id}-hint` : '', error ? `${id}-error` : ''].filter(Boolean).join(' ') || undefined;
   const busy = open && results.isFetching;
   let status = '';
@@ -200,10 +201,11 @@ export function SearchPicker<T>({
             'aria-busy': busy || undefined,
           } as Parameters<typeof getInputProps>[0])}
           autoComplete="off"
-          className={controlClass}
+          // Room on the right for the 44 px buttons drawn over the box, so text never runs under them.
+          className={`${controlClass} ${clearable ? 'pr-24' : 'pr-12'}`}
         />
         <div className="absolute inset-y-0 right-0 flex items-center">
-          {!required && !clearAfterPick && wanted && !disabled ? (
+          {clearable ? (
             <button
               type="button"
               className="flex size-tap items-center justify-center text-slate-soft hover:text-slate"

@@ -405,7 +405,7 @@ function AddLine({ stage, api, workshop }: { stage: 'inspection' | 'discovered';
         className="min-w-56 flex-[1_1_14rem] sm:max-w-96"
         label={`Add a catalogue part to ${STAGE_LABELS[stage].toLowerCase()}`}
         hideLabel
-        placeholder="+ Part… type a number or name"
+        placeholder="+ Part… type to search"
         source={partPickerSource}
         value={null}
         clearAfterPick
