@@ -57,6 +57,8 @@ export interface SearchPickerProps<T> {
   /** Act as a one-shot "add" control: report the pick, then empty the box for the next one. */
   clearAfterPick?: boolean;
   className?: string;
+  /** Replaces the label's look (e.g. the estimate's small field labels); screen readers hear the same name. */
+  labelClassName?: string;
 }
 
 const controlClass =
@@ -84,6 +86,7 @@ export function SearchPicker<T>({
   hideLabel,
   clearAfterPick,
   className = '',
+  labelClassName = 'text-sm font-semibold text-slate',
 }: SearchPickerProps<T>) {
   const auto = useId();
   const id = idProp ?? `picker-${auto}`;
@@ -172,7 +175,7 @@ export function SearchPicker<T>({
 
   return (
     <div className={`relative flex flex-col gap-1 ${className}`}>
-      <label {...getLabelProps()} className={hideLabel ? 'sr-only' : 'text-sm font-semibold text-slate'}>
+      <label {...getLabelProps()} className={hideLabel ? 'sr-only' : labelClassName}>
         {label}
         {required ? (
           <span aria-hidden="true" className="font-normal text-slate-soft">
@@ -233,7 +236,7 @@ export function SearchPicker<T>({
       <div
         className={
           isOpen
-            ? 'absolute left-0 right-0 top-full z-30 mt-1 max-h-[min(22rem,60vh)] overflow-auto rounded-control border border-seam-strong bg-cloth-raised shadow-lg'
+            ? 'absolute left-0 right-0 top-full z-30 mt-1 max-h-[min(22rem,60vh)] overflow-auto sm:min-w-96 rounded-control border border-seam-strong bg-cloth-raised shadow-lg'
             : 'hidden'
         }
       >
@@ -260,7 +263,12 @@ export function SearchPicker<T>({
             : null}
         </ul>
         {isOpen && !settled && items.length === 0 ? <p className="px-3 py-2 text-sm text-slate-soft">Searching…</p> : null}
-        {status ? <p aria-hidden="true" className="border-t border-seam px-3 py-2 text-sm text-slate-soft">{status}</p> : null}
+        {/* Pinned to the bottom of the open list, so "type more" shows without scrolling through it. */}
+        {status ? (
+          <p aria-hidden="true" className="sticky bottom-0 border-t border-seam-strong bg-cloth-sunk px-3 py-2 text-sm font-semibold text-slate">
+            {status}
+          </p>
+        ) : null}
       </div>
       {/* Announced once the results settle, for people who cannot see the list change. */}
       <p role="status" className="sr-only">

@@ -1,5 +1,5 @@
 import * as shared from '@wingstage/shared';
-import { estimateEngineInput, workshopPricingFrom, type EstimateDto, type EstimateLineDto, type WorkshopDto } from '@wingstage/shared';
+import { estimateEngineInput, workshopPricingFrom, type EstimateDto, type EstimateLineDto, type SupplierDto, type WorkshopDto } from '@wingstage/shared';
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { formatMoney } from '@/lib/format';
@@ -59,9 +59,9 @@ function estimateOf(lines: EstimateLineDto[], version = 3): EstimateDto {
   return { jobId: JOB, version, currency: 'GBP', lines, accessTasks: [], priced: real(estimateEngineInput(lines, []), pricing) };
 }
 
-function Harness({ estimate }: { estimate: EstimateDto }) {
+function Harness({ estimate, suppliers = [] }: { estimate: EstimateDto; suppliers?: SupplierDto[] }) {
   const draft = useEstimateDraft(JOB, estimate, pricing);
-  return <EstimateBuilder draft={draft} workshop={workshop} parts={[]} suppliers={[]} findings={[]} editable />;
+  return <EstimateBuilder draft={draft} workshop={workshop} suppliers={suppliers} findings={[]} editable />;
 }
 
 const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
@@ -188,5 +188,28 @@ describe('EstimateBuilder', () => {
     const before = scope.getAllByLabelText('Description').length;
     fireEvent.click(scope.getByRole('button', { name: '+ Part not in the catalogue' }));
     expect(scope.getAllByLabelText('Description')).toHaveLength(before + 1);
+  });
+
+  it("a sub-contract line shows its supplier's name and changes to one found by searching the server", async () => {
+    const mk = (n: number, name: string): SupplierDto => ({ id: `3f3f3f3f-0000-4000-8000-${String(n).padStart(12, '0')}`, name, kind: 'propeller_shop', email: '', phone: '', notes: '', active: true, version: 1 });
+    const propShop = mk(1, 'Larkspur Propeller Works');
+    const farShop = mk(140, 'Tidewell Fabric Loft');
+    const sub = line({ kind: 'subcontract', description: 'Propeller overhaul', quantity: '1', labourRateCode: null, ratePerHour: null, amount: '300.00', supplierId: propShop.id });
+    fetchMock.mockImplementation(async (url, init) => {
+      if (init?.method === 'PUT') return json(estimateOf([{ ...sub, supplierId: farShop.id }], 4));
+      const q = new URL(String(url), 'http://test.local').searchParams.get('q');
+      return json(q === 'tidewell' ? { items: [farShop], total: 1, page: 1, pageSize: 20 } : { items: [], total: 0, page: 1, pageSize: 20 });
+    });
+    renderWithApp(<Harness estimate={estimateOf([sub])} suppliers={[propShop]} />);
+    const box = screen.getByRole('combobox', { name: 'Supplier' }) as HTMLInputElement;
+    expect(box.value).toBe('Larkspur Propeller Works');
+    fireEvent.change(box, { target: { value: 'tidewell' } });
+    fireEvent.click(await screen.findByRole('option', { name: /Tidewell Fabric Loft/ }));
+    expect(box.value).toBe('Tidewell Fabric Loft');
+    expect(screen.getByText('Unsaved changes')).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Save estimate' }));
+    await waitFor(() => expect(fetchMock.mock.calls.some(([, i]) => i?.method === 'PUT')).toBe(true));
+    const [, init] = fetchMock.mock.calls.find(([, i]) => i?.method === 'PUT')!;
+    expect(JSON.parse(String(init?.body)).lines[0]).toMatchObject({ kind: 'subcontract', supplierId: farShop.id });
   });
 });

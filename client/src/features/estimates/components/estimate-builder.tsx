@@ -16,7 +16,7 @@ import { CategoryBadge } from '@/components/ui/finding-badges';
 import { CrossIcon } from '@/components/ui/icons';
 import { Notice } from '@/components/ui/notice';
 import { SearchPicker } from '@/components/ui/search-picker';
-import { partPickerSource } from '@/features/catalogue/api/catalogue-pickers';
+import { partPickerSource, supplierPickerSource, type SupplierOption } from '@/features/catalogue/api/catalogue-pickers';
 import { formatMoney, moneyForInput } from '@/lib/format';
 import { LINE_KIND_LABELS, STAGE_LABELS } from '@/lib/line-kinds';
 import { VAT_RATE_LABELS } from '@/lib/pricing-preview';
@@ -337,18 +337,18 @@ function EditableLine({
         ) : null}
         {l.kind === 'subcontract' ? (
           <>
-            <Small label="Supplier" wide>
-              {(id) => (
-                <select id={id} className={inputClass} value={l.supplierId ?? ''} onChange={(e) => set({ supplierId: e.target.value || null })}>
-                  <option value="">Choose a supplier…</option>
-                  {suppliers.map((s) => (
-                    <option key={s.id} value={s.id}>
-                      {s.name}
-                    </option>
-                  ))}
-                </select>
-              )}
-            </Small>
+            <div className="min-w-56 flex-[2_1_14rem]">
+              {/* Searches every supplier on the server; the names passed in only label the one already chosen. */}
+              <SearchPicker<SupplierOption>
+                label="Supplier"
+                labelClassName="text-xs font-semibold text-slate-soft"
+                source={supplierPickerSource}
+                value={l.supplierId}
+                selected={suppliers.find((s) => s.id === l.supplierId) ?? null}
+                placeholder={l.supplierId && !suppliers.some((s) => s.id === l.supplierId) ? 'Chosen — type to change' : 'Type a supplier name'}
+                onChange={(id) => set({ supplierId: id })}
+              />
+            </div>
             <Small label="Supplier's cost">{(id) => <input id={id} inputMode="decimal" className={inputClass} value={l.amount ?? ''} onChange={(e) => set({ amount: e.target.value.trim() })} />}</Small>
             <Small label="Mark-up %">
               {(id) => <input id={id} inputMode="decimal" className={inputClass} placeholder={workshop.settings.subcontractMarkupPercent} value={l.markupPercent ?? ''} onChange={(e) => set({ markupPercent: opt(e.target.value) })} />}
