@@ -93,7 +93,10 @@ test('an out-of-limit plug gap becomes a finding the manager prices @approval', 
     await form.getByLabel('What should be done').fill('Fit a new set of plugs gapped to the manufacturer’s figure.');
     await form.getByLabel('Hours').fill('0.5');
     await form.getByRole('button', { name: '+ Part from the catalogue' }).click();
-    await form.getByLabel('Part 1').selectOption({ label: 'WS-1201 — Spark plug, resistor type, 12 mm thread' });
+    // The part is found by searching the catalogue on the server, then picked from the list.
+    await form.getByRole('combobox', { name: 'Part 1' }).fill('WS-1201');
+    await form.getByRole('option', { name: /WS-1201 — Spark plug, resistor type, 12 mm thread/ }).click();
+    await expect(form.getByRole('combobox', { name: 'Part 1' })).toHaveValue('WS-1201 — Spark plug, resistor type, 12 mm thread');
     await form.getByLabel('Qty').fill('4');
     // A good photo and one cut short in transfer: the browser cannot tell, the server can.
     await form.getByLabel('Choose pictures').setInputFiles([

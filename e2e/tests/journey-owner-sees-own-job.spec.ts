@@ -94,7 +94,8 @@ test('a new owner accepts an invitation and sees only their own job', async ({ p
 
   await test.step('the manager adds the aircraft', async () => {
     await page.getByRole('link', { name: 'Add aircraft' }).click();
-    await expect(page.getByLabel('Owner')).toHaveValue(/.+/);
+    // Started from the owner's page, the owner picker opens with their name.
+    await expect(page.getByRole('combobox', { name: 'Owner' })).toHaveValue(u.ownerName);
     await page.getByLabel('Registration').fill(u.registration);
     await page.getByLabel('Type').fill('Two-seat flex-wing trike');
     await page.getByLabel('Engine', { exact: true }).fill('80 hp flat-four four-stroke');
@@ -107,6 +108,8 @@ test('a new owner accepts an invitation and sees only their own job', async ({ p
   await test.step('the manager books the aircraft in', async () => {
     await page.getByRole('link', { name: 'Book in' }).click();
     await expect(page.getByRole('heading', { level: 1, name: 'Book in' })).toBeVisible();
+    // Booked in from the aircraft's page: the aircraft picker opens with it chosen.
+    await expect(page.getByRole('combobox', { name: 'Aircraft' })).toHaveValue(`${u.registration} — ${u.ownerName}`);
     await page.getByLabel('Kind of work').selectOption({ label: 'Annual permit inspection' });
     await page.getByLabel('Title').fill(u.jobTitle);
     await shot(page, testInfo, '04-book-in');

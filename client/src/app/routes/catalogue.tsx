@@ -6,7 +6,7 @@ import { Button } from '@/components/ui/button';
 import { SearchBox } from '@/components/ui/data-table';
 import { Loading } from '@/components/ui/notice';
 import { Card, PageHeader } from '@/components/ui/page';
-import { ALL_SUPPLIERS, suppliersQueryOptions } from '@/features/catalogue/api/get-suppliers';
+import { suppliersQueryOptions } from '@/features/catalogue/api/get-suppliers';
 import { partsQueryOptions, type PartListParams } from '@/features/catalogue/api/get-parts';
 import { PartForm } from '@/features/catalogue/components/part-form';
 import { PartsTable } from '@/features/catalogue/components/parts-table';
@@ -50,7 +50,6 @@ export function Component() {
   const pricing = workshopPricingFrom(workshop);
   const parts = useQuery({ ...partsQueryOptions(listQuery(params)), enabled: show === 'parts' });
   const suppliers = useQuery({ ...suppliersQueryOptions(listQuery(params)), enabled: show === 'suppliers' });
-  const allSuppliers = useQuery({ ...suppliersQueryOptions(ALL_SUPPLIERS), enabled: editor && show === 'parts' });
   const [editingPart, setEditingPart] = useState<PartDto | 'new' | null>(null);
   const [editingSupplier, setEditingSupplier] = useState<SupplierDto | 'new' | null>(null);
 
@@ -81,7 +80,6 @@ export function Component() {
               <PartForm
                 key={editingPart === 'new' ? 'new' : `${editingPart.id}:${editingPart.version}`}
                 part={editingPart === 'new' ? null : editingPart}
-                suppliers={(allSuppliers.data?.items ?? []).filter((s) => s.active)}
                 pricing={pricing}
                 onDone={() => setEditingPart(null)}
               />

@@ -8,14 +8,17 @@ import { aircraftQueryOptions } from '@/features/aircraft/api/get-aircraft';
 import { useUpdateAircraft } from '@/features/aircraft/api/update-aircraft';
 import { AIRCRAFT_LABELS, AircraftForm } from '@/features/aircraft/components/aircraft-form';
 import { aircraftKeys } from '@/features/aircraft/api/keys';
-import { ALL_OWNERS, customersQueryOptions } from '@/features/customers/api/get-customers';
+import { customerQueryOptions } from '@/features/customers/api/get-customer';
 import { isApiError } from '@/lib/api-client';
 import { queryClient } from '@/lib/query-client';
 import { EDITORS, requireSession } from '../../guards';
+import { ownerPickerSource } from './owner-picker';
 
 export async function loader({ request, params }: LoaderFunctionArgs) {
   await requireSession(request, EDITORS);
-  await Promise.all([queryClient.ensureQueryData(aircraftQueryOptions(params.id!)), queryClient.ensureQueryData(customersQueryOptions(ALL_OWNERS))]);
+  const aircraft = await queryClient.ensureQueryData(aircraftQueryOptions(params.id!));
+  // The owner picker shows this name at once instead of looking it up after the page opens.
+  await queryClient.ensureQueryData(customerQueryOptions(aircraft.customerId)).catch(() => null);
   return null;
 }
 
@@ -23,7 +26,6 @@ export function Component() {
   const { id } = useParams() as { id: string };
   const navigate = useNavigate();
   const { data: aircraft } = useSuspenseQuery(aircraftQueryOptions(id));
-  const { data: owners } = useSuspenseQuery(customersQueryOptions(ALL_OWNERS));
   const update = useUpdateAircraft(id);
   // What the form was filled from; a refused save compares it with what is saved now.
   const [started, setStarted] = useState<AircraftDto>(aircraft);
@@ -48,7 +50,7 @@ export function Component() {
       <AircraftForm
         key={formKey}
         initial={aircraft}
-        owners={owners.items}
+        owners={ownerPickerSource}
         submitLabel="Save changes"
         cancelTo={`/aircraft/${id}`}
         onSubmit={async (v) => {

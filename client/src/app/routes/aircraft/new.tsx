@@ -1,22 +1,23 @@
-import { useSuspenseQuery } from '@tanstack/react-query';
 import { useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { PageHeader } from '@/components/ui/page';
 import { useCreateAircraft } from '@/features/aircraft/api/create-aircraft';
 import { AircraftForm } from '@/features/aircraft/components/aircraft-form';
-import { ALL_OWNERS, customersQueryOptions } from '@/features/customers/api/get-customers';
+import { customerQueryOptions } from '@/features/customers/api/get-customer';
 import { queryClient } from '@/lib/query-client';
 import { EDITORS, requireSession } from '../../guards';
+import { ownerPickerSource } from './owner-picker';
 
 export async function loader({ request }: LoaderFunctionArgs) {
   await requireSession(request, EDITORS);
-  await queryClient.ensureQueryData(customersQueryOptions(ALL_OWNERS));
+  // Primes the owner's name for an aircraft added from an owner's page; an unknown id leaves the picker empty.
+  const ownerId = new URL(request.url).searchParams.get('customerId');
+  if (ownerId) await queryClient.ensureQueryData(customerQueryOptions(ownerId)).catch(() => null);
   return null;
 }
 
 export function Component() {
   const [search] = useSearchParams();
   const navigate = useNavigate();
-  const { data: owners } = useSuspenseQuery(customersQueryOptions(ALL_OWNERS));
   const create = useCreateAircraft();
   const ownerId = search.get('customerId') ?? undefined;
   const back = ownerId ? `/owners/${ownerId}` : '/aircraft';
@@ -24,7 +25,7 @@ export function Component() {
     <>
       <PageHeader title="Add aircraft" back={{ to: back, label: 'Back' }} />
       <AircraftForm
-        owners={owners.items}
+        owners={ownerPickerSource}
         defaultOwnerId={ownerId}
         submitLabel="Add aircraft"
         cancelTo={back}

@@ -3,6 +3,8 @@ import { useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-rou
 import { ButtonLink } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page';
+import { aircraftPickerSource } from '@/features/aircraft/api/aircraft-picker';
+import { aircraftQueryOptions } from '@/features/aircraft/api/get-aircraft';
 import { aircraftListQueryOptions } from '@/features/aircraft/api/get-aircraft-list';
 import { templatesQueryOptions } from '@/features/templates/api/get-templates';
 import { useCreateJob } from '@/features/jobs/api/create-job';
@@ -10,19 +12,24 @@ import { BookInForm } from '@/features/jobs/components/job-form';
 import { queryClient } from '@/lib/query-client';
 import { EDITORS, requireSession } from '../../guards';
 
-// The list endpoint's page-size ceiling; a small workshop's whole fleet fits in one page.
-const ALL_AIRCRAFT = { pageSize: 100, sort: 'registration', dir: 'asc' as const };
+// One row is enough to know whether there is any aircraft to book in; the picker searches the rest.
+const ANY_AIRCRAFT = { pageSize: 1, sort: 'registration', dir: 'asc' as const };
 
 export async function loader({ request }: LoaderFunctionArgs) {
   await requireSession(request, EDITORS);
-  await queryClient.ensureQueryData(aircraftListQueryOptions(ALL_AIRCRAFT));
+  const aircraftId = new URL(request.url).searchParams.get('aircraftId');
+  await Promise.all([
+    queryClient.ensureQueryData(aircraftListQueryOptions(ANY_AIRCRAFT)),
+    // Primes the picker's label for a booking started from an aircraft's page; an unknown id just leaves it empty.
+    aircraftId ? queryClient.ensureQueryData(aircraftQueryOptions(aircraftId)).catch(() => null) : null,
+  ]);
   return null;
 }
 
 export function Component() {
   const [search] = useSearchParams();
   const navigate = useNavigate();
-  const { data: aircraft } = useSuspenseQuery(aircraftListQueryOptions(ALL_AIRCRAFT));
+  const { data: aircraft } = useSuspenseQuery(aircraftListQueryOptions(ANY_AIRCRAFT));
   const create = useCreateJob();
   // Booking in still works if templates cannot be loaded: the picker is simply not offered.
   const templates = useQuery(templatesQueryOptions());
@@ -30,7 +37,7 @@ export function Component() {
   return (
     <>
       <PageHeader title="Book in" lead="Open a job for one visit of one aircraft." back={{ to: back, label: 'Back' }} />
-      {aircraft.items.length === 0 ? (
+      {aircraft.total === 0 ? (
         <Notice title="No aircraft yet">
           <p>Add the aircraft first, then book it in.</p>
           <div className="mt-2">
@@ -39,7 +46,7 @@ export function Component() {
         </Notice>
       ) : (
         <BookInForm
-          aircraft={aircraft.items}
+          aircraft={aircraftPickerSource}
           defaultAircraftId={search.get('aircraftId') ?? undefined}
           cancelTo={back}
           templates={(templates.data ?? []).filter((t) => t.active)}

@@ -4,7 +4,9 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { Button, ButtonLink } from '@/components/ui/button';
-import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
+import { TextAreaField, TextField } from '@/components/ui/field';
+import { PickerField } from '@/components/ui/picker-field';
+import type { PickerSource } from '@/components/ui/search-picker';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { withServerErrors } from '@/lib/form-errors';
 
@@ -19,7 +21,7 @@ export const AIRCRAFT_LABELS = {
   notes: 'Notes',
 };
 
-export function AircraftForm({
+export function AircraftForm<O>({
   initial,
   owners,
   defaultOwnerId,
@@ -28,14 +30,15 @@ export function AircraftForm({
   onSubmit,
 }: {
   initial?: AircraftDto;
-  owners: { id: string; name: string }[];
+  /** Searches the workshop's owners on the server; the value's label is looked up by id. */
+  owners: PickerSource<O>;
   defaultOwnerId?: string;
   submitLabel: string;
   cancelTo: string;
   onSubmit: (values: AircraftCreate) => Promise<unknown>;
 }) {
   const [summary, setSummary] = useState<string | null>(null);
-  const { register, handleSubmit, setError, formState } = useForm<z.input<typeof aircraftCreateSchema>, unknown, z.output<typeof aircraftCreateSchema>>({
+  const { register, control, handleSubmit, setError, formState } = useForm<z.input<typeof aircraftCreateSchema>, unknown, z.output<typeof aircraftCreateSchema>>({
     resolver: zodResolver(aircraftCreateSchema),
     defaultValues: {
       customerId: initial?.customerId ?? defaultOwnerId ?? '',
@@ -59,14 +62,7 @@ export function AircraftForm({
   return (
     <form onSubmit={submit} noValidate className="flex max-w-2xl flex-col gap-4">
       <FormErrorSummary message={summary} errors={e} labels={AIRCRAFT_LABELS} />
-      <SelectField label={AIRCRAFT_LABELS.customerId} required error={e.customerId ? 'Choose the owner.' : undefined} {...register('customerId')}>
-        <option value="">Choose the owner…</option>
-        {owners.map((o) => (
-          <option key={o.id} value={o.id}>
-            {o.name}
-          </option>
-        ))}
-      </SelectField>
+      <PickerField control={control} name="customerId" label={AIRCRAFT_LABELS.customerId} required source={owners} placeholder="Type the owner's name" error="Choose the owner." />
       <div className="grid gap-4 sm:grid-cols-2">
         <TextField label={AIRCRAFT_LABELS.registration} required autoCapitalize="characters" autoComplete="off" hint="For example Q-BRKA." error={e.registration?.message} {...register('registration')} />
         <TextField label={AIRCRAFT_LABELS.serial} autoComplete="off" error={e.serial?.message} {...register('serial')} />

@@ -1,15 +1,17 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { partCreateSchema, VAT_RATE_CODES, type PartDto, type SupplierDto, type WorkshopPricing } from '@wingstage/shared';
+import { partCreateSchema, VAT_RATE_CODES, type PartDto, type WorkshopPricing } from '@wingstage/shared';
 import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
+import { PickerField } from '@/components/ui/picker-field';
 import { isApiError } from '@/lib/api-client';
 import { withServerErrors } from '@/lib/form-errors';
 import { formatMoney, moneyForInput } from '@/lib/format';
 import { partSellPrice, vatRateLabel } from '@/lib/pricing-preview';
+import { supplierPickerSource, type SupplierOption } from '../api/catalogue-pickers';
 import { useSavePart } from '../api/save-part';
 
 const LABELS = {
@@ -27,7 +29,7 @@ type Mode = 'workshop' | 'markup' | 'fixed';
 type FormIn = z.input<typeof partCreateSchema>;
 type FormOut = z.output<typeof partCreateSchema>;
 
-export function PartForm({ part, suppliers, pricing, onDone }: { part: PartDto | null; suppliers: SupplierDto[]; pricing: WorkshopPricing; onDone: (saved: PartDto | null) => void }) {
+export function PartForm({ part, pricing, onDone }: { part: PartDto | null; pricing: WorkshopPricing; onDone: (saved: PartDto | null) => void }) {
   const save = useSavePart();
   const [summary, setSummary] = useState<string | null>(null);
   const [mode, setMode] = useState<Mode>(part?.unitPrice ? 'fixed' : part?.markupPercent ? 'markup' : 'workshop');
@@ -128,14 +130,15 @@ export function PartForm({ part, suppliers, pricing, onDone }: { part: PartDto |
         Sell price per unit:{' '}
         <strong data-testid="part-sell-price">{sell === null ? 'enter a valid cost' : formatMoney(sell, pricing.currency, { vat: 'excl' })}</strong>
       </p>
-      <SelectField label={LABELS.supplierId} error={e.supplierId?.message} {...register('supplierId', nullable)}>
-        <option value="">No supplier</option>
-        {suppliers.map((s) => (
-          <option key={s.id} value={s.id}>
-            {s.name}
-          </option>
-        ))}
-      </SelectField>
+      <PickerField<SupplierOption, FormIn>
+        control={control}
+        name="supplierId"
+        empty={null}
+        label={LABELS.supplierId}
+        source={supplierPickerSource}
+        selected={part?.supplierId ? { id: part.supplierId, name: part.supplierName ?? '' } : null}
+        placeholder="No supplier — type to search"
+      />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" busy={formState.isSubmitting}>
           {part ? 'Save part' : 'Add part'}

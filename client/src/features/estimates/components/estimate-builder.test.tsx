@@ -1,5 +1,5 @@
 import * as shared from '@wingstage/shared';
-import { estimateEngineInput, workshopPricingFrom, type EstimateDto, type EstimateLineDto, type WorkshopDto } from '@wingstage/shared';
+import { estimateEngineInput, workshopPricingFrom, type EstimateDto, type EstimateLineDto, type SupplierDto, type WorkshopDto } from '@wingstage/shared';
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { formatMoney } from '@/lib/format';
@@ -59,9 +59,9 @@ function estimateOf(lines: EstimateLineDto[], version = 3): EstimateDto {
   return { jobId: JOB, version, currency: 'GBP', lines, accessTasks: [], priced: real(estimateEngineInput(lines, []), pricing) };
 }
 
-function Harness({ estimate }: { estimate: EstimateDto }) {
+function Harness({ estimate, suppliers = [] }: { estimate: EstimateDto; suppliers?: SupplierDto[] }) {
   const draft = useEstimateDraft(JOB, estimate, pricing);
-  return <EstimateBuilder draft={draft} workshop={workshop} parts={[]} suppliers={[]} findings={[]} editable />;
+  return <EstimateBuilder draft={draft} workshop={workshop} suppliers={suppliers} findings={[]} editable />;
 }
 
 const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
@@ -143,5 +143,73 @@ describe('EstimateBuilder', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Show their version (drop my changes)' }));
     expect(screen.getByDisplayValue('Their new scope line')).toBeTruthy();
     expect(screen.getByRole('heading', { name: /Estimate/ }).textContent).toContain('version 4');
+  });
+
+  it("'+ Part…' searches the active catalogue on the server and adds the picked part as a priced line", async () => {
+    const plug = {
+      id: '9c9c9c9c-0000-4000-8000-000000000105',
+      partNumber: 'WS-1305',
+      description: 'Gasket set, rocker cover',
+      unitCost: '14.50',
+      unitPrice: null,
+      markupPercent: null,
+      sellPrice: '17.40',
+      vatRate: 'standard',
+      supplierId: null,
+      supplierName: null,
+      leadTimeDays: 0,
+      active: true,
+      version: 1,
+    };
+    fetchMock.mockImplementation(async (url) => {
+      const u = new URL(String(url), 'http://test.local');
+      const q = u.searchParams.get('q');
+      return json(q === 'rocker' ? { items: [plug], total: 1, page: 1, pageSize: 20 } : { items: [], total: 0, page: 1, pageSize: 20 });
+    });
+    renderWithApp(<Harness estimate={estimateOf([line({})])} />);
+    const scope = within(screen.getByRole('region', { name: 'Inspection scope' }));
+    const box = scope.getByRole('combobox', { name: 'Add a catalogue part to inspection scope' }) as HTMLInputElement;
+    fireEvent.change(box, { target: { value: 'rocker' } });
+    fireEvent.click(await scope.findByRole('option', { name: /WS-1305 — Gasket set, rocker cover/ }));
+
+    const partsUrl = fetchMock.mock.calls.map(([u]) => new URL(String(u), 'http://test.local')).find((u) => u.searchParams.get('q') === 'rocker')!;
+    expect(partsUrl.pathname).toBe('/api/parts');
+    expect(partsUrl.searchParams.get('active')).toBe('true');
+    expect(scope.getByDisplayValue('WS-1305 Gasket set, rocker cover')).toBeTruthy();
+    expect(scope.getByDisplayValue('14.50')).toBeTruthy();
+    // Ready for the next part, and the change waits to be saved.
+    expect(box.value).toBe('');
+    expect(screen.getByText('Unsaved changes')).toBeTruthy();
+  });
+
+  it('still adds a part that is not in the catalogue', () => {
+    renderWithApp(<Harness estimate={estimateOf([line({})])} />);
+    const scope = within(screen.getByRole('region', { name: 'Inspection scope' }));
+    const before = scope.getAllByLabelText('Description').length;
+    fireEvent.click(scope.getByRole('button', { name: '+ Part not in the catalogue' }));
+    expect(scope.getAllByLabelText('Description')).toHaveLength(before + 1);
+  });
+
+  it("a sub-contract line shows its supplier's name and changes to one found by searching the server", async () => {
+    const mk = (n: number, name: string): SupplierDto => ({ id: `3f3f3f3f-0000-4000-8000-${String(n).padStart(12, '0')}`, name, kind: 'propeller_shop', email: '', phone: '', notes: '', active: true, version: 1 });
+    const propShop = mk(1, 'Larkspur Propeller Works');
+    const farShop = mk(140, 'Tidewell Fabric Loft');
+    const sub = line({ kind: 'subcontract', description: 'Propeller overhaul', quantity: '1', labourRateCode: null, ratePerHour: null, amount: '300.00', supplierId: propShop.id });
+    fetchMock.mockImplementation(async (url, init) => {
+      if (init?.method === 'PUT') return json(estimateOf([{ ...sub, supplierId: farShop.id }], 4));
+      const q = new URL(String(url), 'http://test.local').searchParams.get('q');
+      return json(q === 'tidewell' ? { items: [farShop], total: 1, page: 1, pageSize: 20 } : { items: [], total: 0, page: 1, pageSize: 20 });
+    });
+    renderWithApp(<Harness estimate={estimateOf([sub])} suppliers={[propShop]} />);
+    const box = screen.getByRole('combobox', { name: 'Supplier' }) as HTMLInputElement;
+    expect(box.value).toBe('Larkspur Propeller Works');
+    fireEvent.change(box, { target: { value: 'tidewell' } });
+    fireEvent.click(await screen.findByRole('option', { name: /Tidewell Fabric Loft/ }));
+    expect(box.value).toBe('Tidewell Fabric Loft');
+    expect(screen.getByText('Unsaved changes')).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Save estimate' }));
+    await waitFor(() => expect(fetchMock.mock.calls.some(([, i]) => i?.method === 'PUT')).toBe(true));
+    const [, init] = fetchMock.mock.calls.find(([, i]) => i?.method === 'PUT')!;
+    expect(JSON.parse(String(init?.body)).lines[0]).toMatchObject({ kind: 'subcontract', supplierId: farShop.id });
   });
 });

@@ -15,6 +15,8 @@ import { Button } from '@/components/ui/button';
 import { CategoryBadge } from '@/components/ui/finding-badges';
 import { CrossIcon } from '@/components/ui/icons';
 import { Notice } from '@/components/ui/notice';
+import { SearchPicker } from '@/components/ui/search-picker';
+import { partPickerSource, supplierPickerSource, type SupplierOption } from '@/features/catalogue/api/catalogue-pickers';
 import { formatMoney, moneyForInput } from '@/lib/format';
 import { LINE_KIND_LABELS, STAGE_LABELS } from '@/lib/line-kinds';
 import { VAT_RATE_LABELS } from '@/lib/pricing-preview';
@@ -74,14 +76,14 @@ function partLine(stage: 'inspection' | 'discovered', part: PartDto): EstimateLi
 export function EstimateBuilder({
   draft: api,
   workshop,
-  parts,
   suppliers,
   findings,
   editable,
 }: {
   draft: EstimateDraftApi;
   workshop: WorkshopDto;
-  parts: PartDto[];
+  /** Unused: catalogue parts are searched on the server by the add-part picker. Kept so existing callers compile. */
+  parts?: PartDto[];
   suppliers: SupplierDto[];
   findings: FindingRef[];
   editable: boolean;
@@ -194,7 +196,7 @@ export function EstimateBuilder({
                     </li>
                   ))}
                 </ul>
-                {canEdit ? <AddLine stage={stage as 'inspection' | 'discovered'} api={api} workshop={workshop} parts={parts} /> : null}
+                {canEdit ? <AddLine stage={stage as 'inspection' | 'discovered'} api={api} workshop={workshop} /> : null}
               </section>
             );
           })}
@@ -335,18 +337,18 @@ function EditableLine({
         ) : null}
         {l.kind === 'subcontract' ? (
           <>
-            <Small label="Supplier" wide>
-              {(id) => (
-                <select id={id} className={inputClass} value={l.supplierId ?? ''} onChange={(e) => set({ supplierId: e.target.value || null })}>
-                  <option value="">Choose a supplier…</option>
-                  {suppliers.map((s) => (
-                    <option key={s.id} value={s.id}>
-                      {s.name}
-                    </option>
-                  ))}
-                </select>
-              )}
-            </Small>
+            <div className="min-w-56 flex-[2_1_14rem]">
+              {/* Searches every supplier on the server; the names passed in only label the one already chosen. */}
+              <SearchPicker<SupplierOption>
+                label="Supplier"
+                labelClassName="text-xs font-semibold text-slate-soft"
+                source={supplierPickerSource}
+                value={l.supplierId}
+                selected={suppliers.find((s) => s.id === l.supplierId) ?? null}
+                placeholder={l.supplierId && !suppliers.some((s) => s.id === l.supplierId) ? 'Chosen — type to change' : 'Type a supplier name'}
+                onChange={(id) => set({ supplierId: id })}
+              />
+            </div>
             <Small label="Supplier's cost">{(id) => <input id={id} inputMode="decimal" className={inputClass} value={l.amount ?? ''} onChange={(e) => set({ amount: e.target.value.trim() })} />}</Small>
             <Small label="Mark-up %">
               {(id) => <input id={id} inputMode="decimal" className={inputClass} placeholder={workshop.settings.subcontractMarkupPercent} value={l.markupPercent ?? ''} onChange={(e) => set({ markupPercent: opt(e.target.value) })} />}
@@ -392,37 +394,28 @@ function EditableLine({
   );
 }
 
-function AddLine({ stage, api, workshop, parts }: { stage: 'inspection' | 'discovered'; api: EstimateDraftApi; workshop: WorkshopDto; parts: PartDto[] }) {
-  const id = useId();
+function AddLine({ stage, api, workshop }: { stage: 'inspection' | 'discovered'; api: EstimateDraftApi; workshop: WorkshopDto }) {
   const add = (kind: LineKind) => api.addLines([emptyLine(stage, kind, workshop)]);
   return (
     <div className="flex flex-wrap items-end gap-2">
       <Button variant="secondary" onClick={() => add('labour')}>
         + Labour
       </Button>
-      <div className="flex flex-col gap-0.5">
-        <label htmlFor={id} className="sr-only">
-          Add a catalogue part to {STAGE_LABELS[stage].toLowerCase()}
-        </label>
-        <select
-          id={id}
-          className="min-h-10 max-w-64 rounded-control border border-seam-strong bg-cloth-raised px-2 text-sm font-semibold"
-          value=""
-          onChange={(e) => {
-            const p = parts.find((x) => x.id === e.target.value);
-            if (p) api.addLines([partLine(stage, p)]);
-            else if (e.target.value === 'other') add('part');
-          }}
-        >
-          <option value="">+ Part…</option>
-          {parts.map((p) => (
-            <option key={p.id} value={p.id}>
-              {p.partNumber} — {p.description}
-            </option>
-          ))}
-          <option value="other">A part not in the catalogue</option>
-        </select>
-      </div>
+      <SearchPicker<PartDto>
+        className="min-w-56 flex-[1_1_14rem] sm:max-w-96"
+        label={`Add a catalogue part to ${STAGE_LABELS[stage].toLowerCase()}`}
+        hideLabel
+        placeholder="+ Part… type to search"
+        source={partPickerSource}
+        value={null}
+        clearAfterPick
+        onChange={(_id, p) => {
+          if (p) api.addLines([partLine(stage, p)]);
+        }}
+      />
+      <Button variant="secondary" onClick={() => add('part')}>
+        + Part not in the catalogue
+      </Button>
       <Button variant="secondary" onClick={() => add('subcontract')}>
         + Sub-contract
       </Button>

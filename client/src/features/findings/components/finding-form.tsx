@@ -6,6 +6,8 @@ import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
+import { PickerField } from '@/components/ui/picker-field';
+import { partPickerSource } from '@/features/catalogue/api/catalogue-pickers';
 import { withServerErrors } from '@/lib/form-errors';
 import { CategoryChoice } from './category-choice';
 import { PhotoPicker } from './photo-picker';
@@ -26,14 +28,14 @@ export interface FindingPrefill {
 
 export function FindingForm({
   prefill,
-  parts,
   workshop,
   onSubmit,
   onCancel,
   sending,
 }: {
   prefill?: FindingPrefill;
-  parts: PartDto[];
+  /** Unused: remedy parts are searched on the server by the part picker. Kept so existing callers compile. */
+  parts?: PartDto[];
   workshop: Pick<WorkshopDto, 'labourRates'>;
   /** Receives the checked values and the photos chosen (kept here if it throws, so nothing is lost). */
   onSubmit: (v: FormOut, photos: File[]) => Promise<unknown>;
@@ -107,14 +109,14 @@ export function FindingForm({
           <p className="text-sm font-semibold">Parts</p>
           {remedyParts.fields.map((f, i) => (
             <div key={f.id} className="grid grid-cols-[1fr_5rem] items-end gap-2">
-              <SelectField label={`Part ${i + 1}`} error={e.remedy?.parts?.[i]?.partId?.message} {...register(`remedy.parts.${i}.partId`)}>
-                <option value="">Choose a part…</option>
-                {parts.map((p) => (
-                  <option key={p.id} value={p.id}>
-                    {p.partNumber} — {p.description}
-                  </option>
-                ))}
-              </SelectField>
+              <PickerField<PartDto, FormIn>
+                control={control}
+                name={`remedy.parts.${i}.partId`}
+                label={`Part ${i + 1}`}
+                source={partPickerSource}
+                placeholder="Type a part number or name"
+                error={e.remedy?.parts?.[i]?.partId ? 'Choose a part from the catalogue.' : undefined}
+              />
               <TextField label="Qty" inputMode="decimal" error={e.remedy?.parts?.[i]?.quantity?.message} {...register(`remedy.parts.${i}.quantity`)} />
               <Button variant="quiet" className="col-span-2 justify-self-end" onClick={() => remedyParts.remove(i)}>
                 Remove part {i + 1}
@@ -122,7 +124,7 @@ export function FindingForm({
             </div>
           ))}
           <div>
-            <Button variant="secondary" size="lg" onClick={() => remedyParts.append({ partId: '', quantity: '1' })} disabled={parts.length === 0}>
+            <Button variant="secondary" size="lg" onClick={() => remedyParts.append({ partId: '', quantity: '1' })}>
               + Part from the catalogue
             </Button>
           </div>

@@ -5,13 +5,15 @@ import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
+import { PickerField } from '@/components/ui/picker-field';
+import type { PickerSource } from '@/components/ui/search-picker';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { withServerErrors } from '@/lib/form-errors';
 import { todayIso } from '@/lib/format';
 
 const LABELS = { aircraftId: 'Aircraft', templateId: 'Start from a template', title: 'Title', type: 'Kind of work', bookedInOn: 'Booked in on', dueOn: 'Due back', notes: 'Notes' };
 
-export function BookInForm({
+export function BookInForm<A>({
   aircraft,
   defaultAircraftId,
   cancelTo,
@@ -19,7 +21,8 @@ export function BookInForm({
   templates = [],
 }: {
   templates?: TemplateSummaryDto[];
-  aircraft: { id: string; registration: string; customerName: string }[];
+  /** Searches the workshop's aircraft on the server; a fleet of any size can be picked from. */
+  aircraft: PickerSource<A>;
   defaultAircraftId?: string;
   cancelTo: string;
   onSubmit: (values: JobCreate) => Promise<unknown>;
@@ -28,7 +31,7 @@ export function BookInForm({
   const lastType = useRef<JobType>('annual_permit_inspection');
   // The title a template filled in, so a later template choice may replace it but never a typed one.
   const lastTemplateTitle = useRef<string | null>(null);
-  const { register, handleSubmit, setError, setValue, getValues, formState } = useForm<z.input<typeof jobCreateSchema>, unknown, z.output<typeof jobCreateSchema>>({
+  const { register, control, handleSubmit, setError, setValue, getValues, formState } = useForm<z.input<typeof jobCreateSchema>, unknown, z.output<typeof jobCreateSchema>>({
     resolver: zodResolver(jobCreateSchema),
     defaultValues: { aircraftId: defaultAircraftId ?? '', templateId: null, title: JOB_TYPE_LABELS.annual_permit_inspection, type: 'annual_permit_inspection', bookedInOn: todayIso(), dueOn: null, notes: '' },
   });
@@ -43,14 +46,15 @@ export function BookInForm({
   return (
     <form onSubmit={submit} noValidate className="flex max-w-2xl flex-col gap-4">
       <FormErrorSummary message={summary} errors={e} labels={LABELS} />
-      <SelectField label={LABELS.aircraftId} required error={e.aircraftId ? 'Choose the aircraft.' : undefined} {...register('aircraftId')}>
-        <option value="">Choose the aircraft…</option>
-        {aircraft.map((a) => (
-          <option key={a.id} value={a.id}>
-            {a.registration} — {a.customerName}
-          </option>
-        ))}
-      </SelectField>
+      <PickerField
+        control={control}
+        name="aircraftId"
+        label={LABELS.aircraftId}
+        required
+        source={aircraft}
+        placeholder="Type a registration, type or owner"
+        error="Choose the aircraft."
+      />
       {templates.length > 0 ? (
         <SelectField
           label={LABELS.templateId}
