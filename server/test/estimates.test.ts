@@ -444,6 +444,17 @@ describe('workshop boundary for the estimate routes', () => {
     expect((await Part.findByPk(bPart.id))!.description).toBe('B part');
     const aParts = await admin.get('/api/parts?pageSize=100');
     expect(aParts.body.items.map((p: { id: string }) => p.id)).not.toContain(bPart.id);
+    // Asking by id for another workshop's part or supplier finds nothing, beside one's own.
+    const own = aParts.body.items[0] as { id: string };
+    const byIds = await admin.get(`/api/parts?ids=${own.id},${bPart.id}`);
+    expect(byIds.status).toBe(200);
+    expect(byIds.body.items.map((p: { id: string }) => p.id)).toEqual([own.id]);
+    const badIds = await admin.get('/api/parts?ids=not-an-id');
+    expect(badIds.status).toBe(400);
+    expect(badIds.body.error.fields['ids.0']).toMatch(/valid id/);
+    const aSupplier = (await admin.get('/api/suppliers?pageSize=1')).body.items[0] as { id: string };
+    const suppliersById = await admin.get(`/api/suppliers?ids=${aSupplier.id},${randomUUID()}`);
+    expect(suppliersById.body.items.map((s: { id: string }) => s.id)).toEqual([aSupplier.id]);
     const aTemplates = await admin.get('/api/templates');
     expect(aTemplates.body.map((t: { id: string }) => t.id)).not.toContain(bTemplate.body.id);
   });

@@ -9,15 +9,16 @@ import { loadWorkshop, partSellPrice, pricingOf } from './pricing.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
 
 type ListQuery = z.output<typeof listQuerySchema>;
-export type PartListQuery = ListQuery & { supplierId?: string; active?: boolean };
+export type PartListQuery = ListQuery & { ids?: string[]; supplierId?: string; active?: boolean };
 
 function supplierDto(s: Supplier): SupplierDto {
   return { id: s.id, name: s.name, kind: s.kind, email: s.email, phone: s.phone, notes: s.notes, active: s.active, version: s.version };
 }
 
-export async function listSuppliers(scope: Scope, q: ListQuery): Promise<Page<SupplierDto>> {
+export async function listSuppliers(scope: Scope, q: ListQuery & { ids?: string[] }): Promise<Page<SupplierDto>> {
   requireStaff(scope);
   const where: Record<string | symbol, unknown> = {};
+  if (q.ids) where.id = { [Op.in]: q.ids };
   if (q.q) where[Op.or] = [{ name: { [Op.iLike]: likePattern(q.q) } }, { notes: { [Op.iLike]: likePattern(q.q) } }];
   const order = orderFrom(q, { name: 'lower("Supplier"."name")', kind: '"Supplier"."kind"' }, 'name');
   const { rows, count } = await Supplier.findAndCountAll({
@@ -104,6 +105,7 @@ const partInclude = [{ model: Supplier, as: 'supplier', required: false, attribu
 export async function listParts(scope: Scope, q: PartListQuery): Promise<Page<PartDto>> {
   requireStaff(scope);
   const where: Record<string | symbol, unknown> = {};
+  if (q.ids) where.id = { [Op.in]: q.ids };
   if (q.supplierId) where.supplierId = q.supplierId;
   if (q.active !== undefined) where.active = q.active;
   if (q.q) where[Op.or] = [{ partNumber: { [Op.iLike]: likePattern(q.q) } }, { description: { [Op.iLike]: likePattern(q.q) } }];

@@ -31,6 +31,12 @@ export const emailSchema = z
   .max(254, { message: 'E-mail must be at most 254 characters.' })
   .pipe(z.email({ message: 'Enter a valid e-mail address.' }));
 
+/** `ids=a,b,c` on a list: fetch these records (at most 100), e.g. the parts one finding names. */
+export const idListParam = z
+  .string()
+  .transform((v) => v.split(',').map((s) => s.trim()).filter(Boolean))
+  .pipe(z.array(idSchema, { message: 'ids is a comma-separated list of ids.' }).min(1).max(100, { message: 'Ask for at most 100 ids at once.' }));
+
 /** Shared list query for tables that search, sort and page on the server. */
 export const listQuerySchema = z.object({
   q: z.string().trim().max(100).optional().default(''),

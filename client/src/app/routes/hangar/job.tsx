@@ -1,4 +1,3 @@
-import { ALL_ACTIVE_PARTS, partsQueryOptions } from '@/features/catalogue/api/get-parts';
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
@@ -42,7 +41,6 @@ export function Component() {
   const { data: workshop } = useSuspenseQuery(workshopQueryOptions());
   const findings = useQuery(findingsQueryOptions(id));
   const time = useQuery(timeQueryOptions(id));
-  const parts = useQuery(partsQueryOptions(ALL_ACTIVE_PARTS));
   const [raising, setRaising] = useState<FindingPrefill | null>(null);
   const [raised, setRaised] = useState<ReturnType<typeof describeRaise> | null>(null);
   // Photos that did not go up with their new finding wait on its card for another try.
@@ -106,7 +104,6 @@ export function Component() {
                 <RaiseFinding
                   jobId={id}
                   prefill={raising}
-                  parts={parts.data?.items ?? []}
                   workshop={workshop}
                   onCancel={() => setRaising(null)}
                   onRaised={(outcome) => {

@@ -1,4 +1,4 @@
-import { JOB_TYPE_LABELS, workshopPricingFrom, type EstimateDto, type FindingDto, type JobDto, type Role, type WorkshopDto } from '@wingstage/shared';
+import { JOB_TYPE_LABELS, workshopPricingFrom, type EstimateDto, type FindingDto, type JobDto, type PartDto, type Role, type WorkshopDto } from '@wingstage/shared';
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { useMemo, useRef, useState } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
@@ -6,7 +6,7 @@ import { Button } from '@/components/ui/button';
 import { Caution, Loading, Notice } from '@/components/ui/notice';
 import { Card, Facts, PageHeader } from '@/components/ui/page';
 import { StateBadge } from '@/components/ui/state-badge';
-import { ALL_ACTIVE_PARTS, partsQueryOptions } from '@/features/catalogue/api/get-parts';
+import { partsQueryOptions } from '@/features/catalogue/api/get-parts';
 import { ALL_SUPPLIERS, suppliersQueryOptions } from '@/features/catalogue/api/get-suppliers';
 import { approvalRequestsQueryOptions } from '@/features/approvals/api/approval-requests';
 import { preAuthorisationQueryOptions } from '@/features/approvals/api/pre-authorisation';
@@ -140,7 +140,6 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
   const pricing = useMemo(() => workshopPricingFrom(workshop), [workshop]);
   const draft = useEstimateDraft(job.id, estimate, pricing);
   const editable = can.editEstimate(role) && !CLOSED_FOR_EDITS.has(job.state);
-  const parts = useQuery({ ...partsQueryOptions(ALL_ACTIVE_PARTS), enabled: editable });
   const suppliers = useQuery({ ...suppliersQueryOptions(ALL_SUPPLIERS), enabled: editable });
   const [priceNote, setPriceNote] = useState<string | null>(null);
   const [toSend, setToSend] = useState<Set<string>>(new Set());
@@ -154,8 +153,23 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
   // Each finding's own price, as the owner would be asked to approve it, from the live engine result.
   const pricedFindings = new Map(draft.live.priced?.findings.map((p) => [p.findingId, p]) ?? []);
 
-  const price = (f: FindingDto) => {
-    const { lines, tasks, missingParts } = linesFromFinding(f, { parts: parts.data?.items ?? [], workshop, accessTasks: draft.draft.accessTasks });
+  const [pricingFinding, setPricingFinding] = useState<string | null>(null);
+  const price = async (f: FindingDto) => {
+    // Only the parts this remedy names, fetched by id: a catalogue of any size prices correctly.
+    const ids = [...new Set(f.remedy.parts.map((p) => p.partId))];
+    let named: PartDto[] = [];
+    if (ids.length) {
+      setPricingFinding(f.id);
+      try {
+        named = (await queryClient.fetchQuery(partsQueryOptions({ ids: ids.join(','), pageSize: 100 }))).items;
+      } catch {
+        setPriceNote(`${f.number} could not be priced: its proposed parts could not be loaded. Try again.`);
+        return;
+      } finally {
+        setPricingFinding(null);
+      }
+    }
+    const { lines, tasks, missingParts } = linesFromFinding(f, { parts: named.filter((p) => p.active), workshop, accessTasks: draft.draft.accessTasks });
     draft.addLines(lines, tasks);
     setPriceNote(
       `${f.number} added to discovered work from the engineer's proposal${tasks.length ? '; set the hours of the new access task' : ''}${
@@ -183,7 +197,7 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
                   </span>
                 ) : null}
                 {editable && f.state === 'draft' && !hasLines.has(f.id) ? (
-                  <Button onClick={() => price(f)} disabled={!parts.data}>
+                  <Button onClick={() => void price(f)} busy={pricingFinding === f.id}>
                     Price finding
                   </Button>
                 ) : editable && hasLines.has(f.id) && (f.state === 'draft' || f.state === 'priced') ? (
@@ -253,7 +267,6 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
         <EstimateBuilder
           draft={draft}
           workshop={workshop}
-          parts={parts.data?.items ?? []}
           suppliers={(suppliers.data?.items ?? []).filter((s) => s.active)}
           findings={findings}
           editable={editable}

@@ -4,7 +4,7 @@ import { api } from '@/lib/api-client';
 import type { ListParams } from '@/lib/list-params';
 import { partKeys } from './keys';
 
-export type PartListParams = Partial<ListParams> & { supplierId?: string; active?: 'true' | 'false' };
+export type PartListParams = Partial<ListParams> & { supplierId?: string; active?: 'true' | 'false'; /** Comma-separated ids. */ ids?: string };
 
 export const getParts = (params: PartListParams, signal?: AbortSignal) => api.get<Page<PartDto>>('/parts', params, signal);
 

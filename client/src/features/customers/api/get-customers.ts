@@ -12,6 +12,3 @@ export const customersQueryOptions = (params: Partial<ListParams>) =>
 export function useCustomers(params: Partial<ListParams>) {
   return useQuery(customersQueryOptions(params));
 }
-
-/** Every owner for a picker: the list endpoint's page-size ceiling, far above a small workshop's book. */
-export const ALL_OWNERS = { pageSize: 100, sort: 'name', dir: 'asc' as const };

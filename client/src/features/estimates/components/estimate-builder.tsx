@@ -82,8 +82,6 @@ export function EstimateBuilder({
 }: {
   draft: EstimateDraftApi;
   workshop: WorkshopDto;
-  /** Unused: catalogue parts are searched on the server by the add-part picker. Kept so existing callers compile. */
-  parts?: PartDto[];
   suppliers: SupplierDto[];
   findings: FindingRef[];
   editable: boolean;

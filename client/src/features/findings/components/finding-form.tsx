@@ -34,8 +34,6 @@ export function FindingForm({
   sending,
 }: {
   prefill?: FindingPrefill;
-  /** Unused: remedy parts are searched on the server by the part picker. Kept so existing callers compile. */
-  parts?: PartDto[];
   workshop: Pick<WorkshopDto, 'labourRates'>;
   /** Receives the checked values and the photos chosen (kept here if it throws, so nothing is lost). */
   onSubmit: (v: FormOut, photos: File[]) => Promise<unknown>;

@@ -75,7 +75,7 @@ describe('raising a finding with photos', () => {
 
   function renderForm() {
     const onRaised = vi.fn<(o: RaiseOutcome) => void>();
-    const view = renderWithApp(<RaiseFinding jobId={JOB} parts={[]} workshop={workshop} onCancel={() => {}} onRaised={onRaised} />);
+    const view = renderWithApp(<RaiseFinding jobId={JOB} workshop={workshop} onCancel={() => {}} onRaised={onRaised} />);
     return { ...view, onRaised };
   }
 

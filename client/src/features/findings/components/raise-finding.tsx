@@ -1,4 +1,4 @@
-import type { FindingDto, PartDto, WorkshopDto } from '@wingstage/shared';
+import type { FindingDto, WorkshopDto } from '@wingstage/shared';
 import { isApiError } from '@/lib/api-client';
 import { useUploadFindingPhotos } from '../api/finding-photos';
 import { useRaiseFinding } from '../api/record-work';
@@ -28,14 +28,12 @@ export interface RaiseOutcome {
 export function RaiseFinding({
   jobId,
   prefill,
-  parts,
   workshop,
   onCancel,
   onRaised,
 }: {
   jobId: string;
   prefill?: FindingPrefill;
-  parts: PartDto[];
   workshop: Pick<WorkshopDto, 'labourRates'>;
   onCancel: () => void;
   onRaised: (outcome: RaiseOutcome) => void;
@@ -47,7 +45,6 @@ export function RaiseFinding({
     <FindingForm
       sending={progress ? <UploadProgress count={progress.count} fraction={progress.fraction} /> : null}
       prefill={prefill}
-      parts={parts}
       workshop={workshop}
       onCancel={onCancel}
       onSubmit={async (v, files) => {
