@@ -1,5 +1,6 @@
 import { fileURLToPath } from 'node:url';
-import { expect, test, type APIRequestContext, type Browser, type BrowserContext, type Locator, type Page, type TestInfo } from '@playwright/test';
+import { expect, test } from '@playwright/test';
+import { DESKTOP, PHONE, apiCall, context, decisionLink, expectLoaded, shot, signedIn } from './support/journey';
 
 /**
  * The approval journey. An engineer at phone width records a spark plug gap outside the template's
@@ -15,92 +16,12 @@ import { expect, test, type APIRequestContext, type Browser, type BrowserContext
  * permit template), so it never collides with the other journeys on the seeded demo jobs.
  */
 
-const MAILDEV = process.env.E2E_MAILDEV_URL ?? 'http://127.0.0.1:1081';
-const PASSWORD = 'wingstage-demo';
-const PHONE = { width: 375, height: 812 };
-const DESKTOP = { width: 1280, height: 900 };
 const OWNER_EMAIL = 'group@owners.example';
 const OWNER_NAME = 'Hazel Brambury';
 // Above the example wear limit of 0.9 mm in the demo template.
 const GAP = '0.98';
 // An invented drawing (a retaining spring with a crack marked), made once with sharp; about 26 kB.
 const PHOTO = fileURLToPath(new URL('../fixtures/finding-photo.jpg', import.meta.url));
-
-/** The picture really arrived: the browser decoded it from the server's reply (lazy ones load once in view). */
-async function expectLoaded(img: Locator) {
-  await expect(img).toBeVisible();
-  await img.scrollIntoViewIfNeeded();
-  await expect.poll(() => img.evaluate((el) => (el as HTMLImageElement).complete && (el as HTMLImageElement).naturalWidth)).toBeGreaterThan(0);
-}
-
-/** `fullPage: false` keeps what a phone actually shows, with the running total fixed at its foot. */
-async function shot(page: Page, testInfo: TestInfo, name: string, fullPage = true) {
-  const path = testInfo.outputPath(`${name}.png`);
-  await page.screenshot({ path, fullPage });
-  await testInfo.attach(name, { path, contentType: 'image/png' });
-}
-
-async function context(browser: Browser, baseURL: string | undefined, phone: boolean): Promise<BrowserContext> {
-  const size = phone ? PHONE : DESKTOP;
-  return browser.newContext({ baseURL, viewport: size, isMobile: phone, hasTouch: phone, locale: 'en-GB', timezoneId: 'Europe/London' });
-}
-
-async function signedIn(browser: Browser, baseURL: string | undefined, email: string, phone: boolean) {
-  const ctx = await context(browser, baseURL, phone);
-  const page = await ctx.newPage();
-  await page.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  // Password checks are deliberately slow (bcrypt); allow for a busy machine.
-  await expect(page).not.toHaveURL(/\/sign-in/, { timeout: 30_000 });
-  return { ctx, page };
-}
-
-/** Calls the API with the page's session and its CSRF cookie, as the client does. */
-async function apiCall<T>(page: Page, method: 'GET' | 'POST', path: string, data?: unknown): Promise<T> {
-  const cookies = await page.context().cookies();
-  const csrf = cookies.find((c) => c.name === 'ws_csrf')?.value ?? '';
-  const res = await page.request.fetch(path, { method, data, headers: { 'X-CSRF-Token': decodeURIComponent(csrf) } });
-  expect(res.ok(), `${method} ${path}: ${res.status()} ${await res.text()}`).toBeTruthy();
-  return (await res.json()) as T;
-}
-
-interface MaildevEmail {
-  subject: string;
-  /** When maildev received it (ISO, whole seconds). */
-  time: string;
-  text?: string;
-  html?: string;
-  to: { address: string }[];
-}
-
-/** Polls maildev for the newest mail to `recipient` after `since` that carries a decision link. */
-async function decisionLink(request: APIRequestContext, recipient: string, since: number, jobNumber: string): Promise<string> {
-  let link = '';
-  await expect
-    .poll(
-      async () => {
-        const res = await request.get(`${MAILDEV}/api/email`);
-        if (!res.ok()) return '';
-        const mails = (await res.json()) as MaildevEmail[];
-        const mine = mails.filter((m) => m.to.some((t) => t.address.toLowerCase() === recipient) && Date.parse(m.time) >= since - 2000);
-        for (const m of mine.reverse()) {
-          const body = `${m.text ?? ''} ${m.html ?? ''}`;
-          if (!body.includes(`job ${jobNumber})`)) continue;
-          const found = body.match(/https?:\/\/[^\s"'<>]+\/decide\/[A-Za-z0-9._~-]+/);
-          if (found) {
-            link = found[0];
-            return link;
-          }
-        }
-        return '';
-      },
-      { timeout: 60_000, message: `a decision link e-mailed to ${recipient}` },
-    )
-    .not.toBe('');
-  return link;
-}
 
 test('an engineer raises findings, the manager sends one request, the owner decides on a phone @approval', async ({ browser, baseURL, request }, testInfo) => {
   test.skip(testInfo.project.name !== 'desktop', 'Changes demo data: runs once, with its own phone and desktop windows.');

@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
-import { expect, test, type APIRequestContext, type Browser, type BrowserContext, type Page, type TestInfo } from '@playwright/test';
+import { expect, test, type Browser, type Page } from '@playwright/test';
+import { DESKTOP, PHONE, apiCall, context, csrfOf, decisionLink, shot, signedIn } from './support/journey';
 
 /**
  * What the owner's e-mailed link does as the manager acts on the request. The manager sends two
@@ -14,78 +15,8 @@ import { expect, test, type APIRequestContext, type Browser, type BrowserContext
  * the other journeys.
  */
 
-const MAILDEV = process.env.E2E_MAILDEV_URL ?? 'http://127.0.0.1:1081';
-const PASSWORD = 'wingstage-demo';
-const PHONE = { width: 375, height: 812 };
-const DESKTOP = { width: 1280, height: 900 };
 const OWNER_EMAIL = 'tomasz@owners.example';
 const OWNER_NAME = 'Tomasz Wrenfield';
-
-async function shot(page: Page, testInfo: TestInfo, name: string, fullPage = false) {
-  const path = testInfo.outputPath(`${name}.png`);
-  await page.screenshot({ path, fullPage });
-  await testInfo.attach(name, { path, contentType: 'image/png' });
-}
-
-async function context(browser: Browser, baseURL: string | undefined, phone: boolean): Promise<BrowserContext> {
-  const size = phone ? PHONE : DESKTOP;
-  return browser.newContext({ baseURL, viewport: size, isMobile: phone, hasTouch: phone, deviceScaleFactor: phone ? 2 : 1, locale: 'en-GB', timezoneId: 'Europe/London' });
-}
-
-async function signedIn(browser: Browser, baseURL: string | undefined, email: string) {
-  const ctx = await context(browser, baseURL, false);
-  const page = await ctx.newPage();
-  await page.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await expect(page).not.toHaveURL(/\/sign-in/, { timeout: 30_000 });
-  return { ctx, page };
-}
-
-async function csrfOf(page: Page): Promise<string> {
-  return decodeURIComponent((await page.context().cookies()).find((c) => c.name === 'ws_csrf')?.value ?? '');
-}
-
-async function apiCall<T>(page: Page, method: 'GET' | 'POST' | 'PUT', path: string, data?: unknown): Promise<T> {
-  const res = await page.request.fetch(path, { method, data, headers: { 'X-CSRF-Token': await csrfOf(page) } });
-  expect(res.ok(), `${method} ${path}: ${res.status()} ${await res.text()}`).toBeTruthy();
-  return (await res.json()) as T;
-}
-
-interface MaildevEmail {
-  time: string;
-  text?: string;
-  html?: string;
-  to: { address: string }[];
-}
-
-/** The newest decision link for this job e-mailed to the owner after `since` that is not one of `seen`. */
-async function decisionLink(request: APIRequestContext, since: number, jobNumber: string, seen: string[] = []): Promise<string> {
-  let link = '';
-  await expect
-    .poll(
-      async () => {
-        const res = await request.get(`${MAILDEV}/api/email`);
-        if (!res.ok()) return '';
-        const mails = (await res.json()) as MaildevEmail[];
-        const mine = mails.filter((m) => m.to.some((t) => t.address.toLowerCase() === OWNER_EMAIL) && Date.parse(m.time) >= since - 2000);
-        for (const m of mine.reverse()) {
-          const body = `${m.text ?? ''} ${m.html ?? ''}`;
-          if (!body.includes(`job ${jobNumber})`)) continue;
-          const found = body.match(/https?:\/\/[^\s"'<>]+\/decide\/[A-Za-z0-9._~-]+/)?.[0];
-          if (found && !seen.includes(new URL(found).pathname)) {
-            link = new URL(found).pathname;
-            return link;
-          }
-        }
-        return '';
-      },
-      { timeout: 60_000, message: 'a new decision link e-mailed to the owner' },
-    )
-    .not.toBe('');
-  return link;
-}
 
 /** An invented close-up (a cracked spring on a dark exhaust), drawn in the browser and saved as JPEG. */
 async function inventedPhoto(browser: Browser): Promise<Buffer> {
@@ -117,7 +48,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
   const since = Date.now();
 
   const manager = await signedIn(browser, baseURL, 'manager@brackenfold.example');
-  const owner = await context(browser, baseURL, true);
+  const owner = await context(browser, baseURL, true, { deviceScaleFactor: 2 });
   const phone = await owner.newPage();
   const bar = phone.getByTestId('running-total');
   const total = (which: string) => bar.locator(`[data-total="${which}"]`);
@@ -167,7 +98,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     requestId = sent.request.id;
   });
 
-  const first = await decisionLink(request, since, jobNumber);
+  const first = new URL(await decisionLink(request, OWNER_EMAIL, since, jobNumber)).pathname;
 
   await test.step('the owner opens the link on a phone: photo full screen, and part-way choices charge the cowling once', async () => {
     const scripts = new Set<string>();
@@ -184,11 +115,11 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     // Full column width at 375 px: the column is the screen less its 16 px margins.
     const opener = phone.getByRole('button', { name: /^Photo 1 of F-1/ });
     expect(Math.round((await opener.boundingBox())!.width)).toBe(PHONE.width - 32);
-    await shot(phone, testInfo, '01-owner-finding-with-photo-375');
+    await shot(phone, testInfo, '01-owner-finding-with-photo-375', false);
     await opener.click();
     const viewer = phone.getByRole('dialog', { name: `Photo 1 of F-1: ${springTitle}` });
     await expect(viewer).toBeVisible();
-    await shot(phone, testInfo, '02-owner-photo-full-screen-375');
+    await shot(phone, testInfo, '02-owner-photo-full-screen-375', false);
     await phone.keyboard.press('Escape');
     await expect(viewer).toHaveCount(0);
 
@@ -209,14 +140,14 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     // F-2 alone now carries the cowling: 62.00 + 18.40 + 93.00 = 173.40 net, 208.08.
     await expect(total('this-request')).toHaveText('£208.08');
     await expect(phone.getByText('cannot be released to fly while it is open')).toBeVisible();
-    await shot(phone, testInfo, '03-owner-declined-airworthiness-part-way-375');
+    await shot(phone, testInfo, '03-owner-declined-airworthiness-part-way-375', false);
     await shot(phone, testInfo, '03b-owner-declined-airworthiness-part-way-375-full', true);
     // The same letter on a desktop screen.
     const wide = await context(browser, baseURL, false);
     const widePage = await wide.newPage();
     await widePage.goto(first);
     await expect(widePage.getByRole('img', { name: `Photo 1 of F-1: ${springTitle}` })).toBeVisible();
-    await shot(widePage, testInfo, '04-owner-finding-with-photo-1280');
+    await shot(widePage, testInfo, '04-owner-finding-with-photo-1280', false);
     await widePage.getByRole('radio', { name: /^Decline/ }).check();
     await widePage.getByRole('button', { name: 'Next finding →' }).click();
     await widePage.getByRole('radio', { name: /^Approve/ }).check();
@@ -231,7 +162,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     const requests = page.getByRole('list', { name: 'Approval requests' });
     await requests.getByRole('button', { name: 'Revoke link' }).click();
     await expect(requests.locator('[data-request-state="revoked"]')).toHaveCount(1);
-    await shot(page, testInfo, '05-manager-revoked-1280');
+    await shot(page, testInfo, '05-manager-revoked-1280', false);
 
     await phone.reload();
     const closed = phone.getByTestId('decision-closed');
@@ -240,14 +171,14 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await expect(closed.locator('[data-request-state="revoked"]')).toHaveText('Link revoked');
     await expect(phone.getByRole('radio')).toHaveCount(0);
     await expect(phone.getByTestId('running-total')).toHaveCount(0);
-    await shot(phone, testInfo, '06-owner-revoked-375');
+    await shot(phone, testInfo, '06-owner-revoked-375', false);
   });
 
   let second = '';
   await test.step('the manager re-sends: the old link says a newer one was sent, the new one from the e-mail works', async () => {
     // The job screen offers Resend only while a request is open or expired; a revoked one is re-sent through the API.
     await apiCall(manager.page, 'POST', `/api/approval-requests/${requestId}/resend`);
-    second = await decisionLink(request, since, jobNumber, [first]);
+    second = new URL(await decisionLink(request, OWNER_EMAIL, since, jobNumber, [first])).pathname;
     expect(second).not.toBe(first);
     await phone.goto(first);
     const closed = phone.getByTestId('decision-closed');
@@ -258,12 +189,12 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await expect(phone.getByRole('radio')).toHaveCount(0);
     await expect(phone.getByTestId('running-total')).toHaveCount(0);
     await expect(phone.getByRole('img', { name: /^Photo / })).toHaveCount(0);
-    await shot(phone, testInfo, '07-owner-old-link-375');
+    await shot(phone, testInfo, '07-owner-old-link-375', false);
     const wide = await context(browser, baseURL, false);
     const widePage = await wide.newPage();
     await widePage.goto(first);
     await expect(widePage.getByTestId('decision-closed').getByText('A newer link was sent to you', { exact: true })).toBeVisible();
-    await shot(widePage, testInfo, '07b-owner-old-link-1280');
+    await shot(widePage, testInfo, '07b-owner-old-link-1280', false);
     await wide.close();
     // A link never issued still opens nothing.
     await phone.goto(`/decide/${'Q'.repeat(43)}`);
@@ -271,7 +202,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await phone.goto(second);
     await expect(phone.getByText('Finding 1 of 2')).toBeVisible();
     await expect(phone.getByRole('radio', { name: /^Approve/ })).not.toBeChecked();
-    await shot(phone, testInfo, '08-owner-new-link-375');
+    await shot(phone, testInfo, '08-owner-new-link-375', false);
   });
 
   let third = '';
@@ -282,7 +213,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await expect(requests.locator('[data-request-state="sent"]')).toHaveCount(1);
     await requests.getByRole('button', { name: 'Resend' }).click();
     await expect(requests.getByText('A new link is on its way to the owner')).toBeVisible();
-    third = await decisionLink(request, since, jobNumber, [first, second]);
+    third = new URL(await decisionLink(request, OWNER_EMAIL, since, jobNumber, [first, second])).pathname;
     await phone.goto(second);
     await expect(phone.getByTestId('decision-closed')).toHaveAttribute('data-superseded', 'true');
 
@@ -295,13 +226,13 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     // 148.80 + 208.08 − 245.28.
     await expect(phone.getByTestId('decide-shared-saving')).toContainText('£111.60 less than their prices added up');
     await phone.getByLabel('Type your full name to confirm').fill(OWNER_NAME);
-    await shot(phone, testInfo, '09-owner-review-375');
+    await shot(phone, testInfo, '09-owner-review-375', false);
     await phone.getByRole('button', { name: 'Confirm decisions' }).click();
     await expect(phone.getByTestId('decision-receipt').getByRole('heading', { name: 'Your decisions are recorded' })).toBeVisible();
   });
 
   await test.step('the decided request’s link shows the decided page, on any phone', async () => {
-    const later = await context(browser, baseURL, true);
+    const later = await context(browser, baseURL, true, { deviceScaleFactor: 2 });
     const again = await later.newPage();
     await again.goto(third);
     const receipt = again.getByTestId('decision-receipt');

@@ -1,18 +1,11 @@
 import { expect, test, type Browser, type Page, type TestInfo } from '@playwright/test';
+import { PASSWORD, shot } from './support/journey';
 
 /**
  * Two managers edit the same estimate at once. The second save is refused with a plain message,
  * their unsaved lines stay on screen, and they can choose to save over the newer version.
  * Runs once (desktop project) because it changes a demo job.
  */
-
-const PASSWORD = 'wingstage-demo';
-
-async function shot(page: Page, testInfo: TestInfo, name: string) {
-  const path = testInfo.outputPath(`${name}.png`);
-  await page.screenshot({ path, fullPage: true });
-  await testInfo.attach(name, { path, contentType: 'image/png' });
-}
 
 async function manager(browser: Browser, baseURL: string | undefined) {
   const ctx = await browser.newContext({ baseURL, viewport: { width: 1280, height: 900 }, locale: 'en-GB', timezoneId: 'Europe/London' });

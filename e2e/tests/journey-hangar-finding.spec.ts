@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { expect, test, type Browser, type Locator, type Page, type TestInfo } from '@playwright/test';
+import { expect, test, type Browser } from '@playwright/test';
+import { DESKTOP, PHONE, expectLoaded, shot, signIn } from './support/journey';
 
 /**
  * An engineer at phone width records a spark plug gap outside the template's example limit on the
@@ -13,38 +14,18 @@ import { expect, test, type Browser, type Locator, type Page, type TestInfo } fr
  * as docker-free-scripts/test.sh provides.
  */
 
-const PASSWORD = 'wingstage-demo';
-const PHONE = { width: 375, height: 812 };
-const DESKTOP = { width: 1280, height: 900 };
 // Above the example wear limit of 0.9 mm in the demo template.
 const GAP = '0.97';
 // An invented drawing made once with sharp (see journey-approval.spec.ts).
 const PHOTO = fileURLToPath(new URL('../fixtures/finding-photo.jpg', import.meta.url));
 
-async function expectLoaded(img: Locator) {
-  await expect(img).toBeVisible();
-  await img.scrollIntoViewIfNeeded();
-  await expect.poll(() => img.evaluate((el) => (el as HTMLImageElement).complete && (el as HTMLImageElement).naturalWidth)).toBeGreaterThan(0);
-}
-
 // A 1×1 PNG, to show a second kind of picture in the previews.
 const PNG_1PX = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkaPhfDwAE/wH+Yb5XbwAAAABJRU5ErkJggg==', 'base64');
-
-async function shot(page: Page, testInfo: TestInfo, name: string, fullPage = true) {
-  const path = testInfo.outputPath(`${name}.png`);
-  await page.screenshot({ path, fullPage });
-  await testInfo.attach(name, { path, contentType: 'image/png' });
-}
 
 async function signedIn(browser: Browser, baseURL: string | undefined, email: string, size: { width: number; height: number }, phone: boolean) {
   const ctx = await browser.newContext({ baseURL, viewport: size, isMobile: phone, hasTouch: phone, locale: 'en-GB', timezoneId: 'Europe/London' });
   const page = await ctx.newPage();
-  await page.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  // Password checks are deliberately slow (bcrypt); allow for a busy machine.
-  await expect(page).not.toHaveURL(/\/sign-in/, { timeout: 30_000 });
+  await signIn(page, email);
   return { ctx, page };
 }
 

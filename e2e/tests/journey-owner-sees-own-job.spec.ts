@@ -1,13 +1,10 @@
 import { expect, test, type APIRequestContext, type Page, type TestInfo } from '@playwright/test';
+import { MAILDEV, PASSWORD, PHONE, shot, signIn, type MaildevEmail } from './support/journey';
 
 /**
  * A manager adds a new owner, their aircraft and a job, and invites the owner. The owner accepts
  * the e-mailed invitation on a phone and sees exactly that job; another owner does not.
  */
-
-const MAILDEV = process.env.E2E_MAILDEV_URL ?? 'http://127.0.0.1:1081';
-const PASSWORD = 'wingstage-demo';
-const PHONE = { width: 375, height: 812 };
 
 function unique(testInfo: TestInfo) {
   const stamp = `${Date.now().toString(36)}${testInfo.project.name.slice(0, 1)}${testInfo.workerIndex}`;
@@ -18,28 +15,6 @@ function unique(testInfo: TestInfo) {
     registration: `Q-${letters}`,
     jobTitle: `Annual permit inspection ${stamp}`,
   };
-}
-
-async function shot(page: Page, testInfo: TestInfo, name: string) {
-  const path = testInfo.outputPath(`${name}.png`);
-  await page.screenshot({ path, fullPage: true });
-  await testInfo.attach(name, { path, contentType: 'image/png' });
-}
-
-async function signIn(page: Page, email: string, password = PASSWORD) {
-  await page.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  // Password checks are deliberately slow (bcrypt); allow for a busy machine.
-  await expect(page).not.toHaveURL(/\/sign-in/, { timeout: 30_000 });
-}
-
-interface MaildevEmail {
-  subject: string;
-  text?: string;
-  html?: string;
-  to: { address: string }[];
 }
 
 /** Polls maildev until the invitation for `recipient` arrives; returns the link inside it. */

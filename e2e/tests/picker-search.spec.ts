@@ -1,4 +1,5 @@
 import { expect, test, type Page, type TestInfo } from '@playwright/test';
+import { PASSWORD, csrfOf } from './support/journey';
 
 /**
  * A workshop with more owners than one list page holds (the API caps a page at 100 rows) can
@@ -8,7 +9,6 @@ import { expect, test, type Page, type TestInfo } from '@playwright/test';
  * catalogue part found by search. Screenshots show each picker open at this project's width.
  */
 
-const PASSWORD = 'wingstage-demo';
 const MANAGER = 'manager@brackenfold.example';
 const OWNERS = 105;
 
@@ -16,10 +16,6 @@ async function shot(page: Page, testInfo: TestInfo, name: string) {
   const path = testInfo.outputPath(`${testInfo.project.name}-${name}.png`);
   await page.screenshot({ path });
   await testInfo.attach(name, { path, contentType: 'image/png' });
-}
-
-async function csrfOf(page: Page): Promise<string> {
-  return decodeURIComponent((await page.context().cookies()).find((c) => c.name === 'ws_csrf')?.value ?? '');
 }
 
 test('the 105th owner, an aircraft and a catalogue part are each found by search and picked', async ({ page }, testInfo) => {
