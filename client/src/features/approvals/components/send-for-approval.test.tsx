@@ -1,30 +1,13 @@
 import type { FindingDto, SendForApprovalResultDto } from '@wingstage/shared';
 import { fireEvent, screen, waitFor } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { aFinding } from '@/testing/fixtures';
 import { renderWithApp } from '@/testing/render';
 import { SendForApproval } from './send-for-approval';
 
 const JOB = '5b0c1d7e-8f3a-4b61-9d2e-0a1b2c3d4e5f';
-const finding = (id: string, number: string, category: FindingDto['category'], state: FindingDto['state'] = 'priced'): FindingDto => ({
-  id,
-  jobId: JOB,
-  number,
-  title: `Finding ${number}`,
-  location: 'Engine',
-  category,
-  seen: 'Seen.',
-  checklistItemId: null,
-  measuredValue: null,
-  limit: null,
-  state,
-  remedy: { description: '', hours: '0.5', labourRateCode: 'standard', parts: [], accessTask: null },
-  raisedByName: 'Priya Tollervey',
-  raisedAt: '2026-11-30T10:00:00Z',
-  rectifiedAt: null,
-  rectifiedByName: null,
-  photos: [],
-  version: 1,
-});
+const finding = (id: string, number: string, category: FindingDto['category'], state: FindingDto['state'] = 'priced'): FindingDto =>
+  aFinding({ id, jobId: JOB, number, title: `Finding ${number}`, location: 'Engine', category, seen: 'Seen.', state, remedy: { description: '', hours: '0.5', labourRateCode: 'standard', parts: [], accessTask: null }, version: 1 });
 const A = finding('7c1e2a3b-4d5e-4f60-8a9b-0c1d2e3f4a5b', 'F-1', 'recommended');
 const B = finding('8d2f3b4c-5e6f-4a71-9bac-1d2e3f4a5b6c', 'F-2', 'airworthiness');
 const prices = new Map([

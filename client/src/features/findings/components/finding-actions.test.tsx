@@ -1,29 +1,11 @@
 import type { FindingDto } from '@wingstage/shared';
 import { fireEvent, screen, waitFor } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { aFinding } from '@/testing/fixtures';
 import { renderWithApp } from '@/testing/render';
 import { FindingActions } from './finding-actions';
 
-const finding: FindingDto = {
-  id: '7c1e2a3b-4d5e-4f60-8a9b-0c1d2e3f4a5b',
-  jobId: '5b0c1d7e-8f3a-4b61-9d2e-0a1b2c3d4e5f',
-  number: 'F-2',
-  title: 'Cracked exhaust spring',
-  location: 'Exhaust, rear cylinder',
-  category: 'airworthiness',
-  seen: 'Spring cracked through at the hook.',
-  checklistItemId: null,
-  measuredValue: null,
-  limit: null,
-  state: 'priced',
-  remedy: { description: 'Replace spring', hours: '0.5', labourRateCode: 'standard', parts: [], accessTask: null },
-  raisedByName: 'Priya Tollervey',
-  raisedAt: '2026-11-30T10:00:00Z',
-  rectifiedAt: null,
-  rectifiedByName: null,
-  photos: [],
-  version: 4,
-};
+const finding: FindingDto = aFinding();
 
 const names = () => screen.queryAllByRole('button').map((b) => b.textContent);
 

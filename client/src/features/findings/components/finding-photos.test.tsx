@@ -2,6 +2,7 @@ import type { FindingDto, FindingPhotoDto } from '@wingstage/shared';
 import { act, fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { jobKeysBase } from '@/lib/job-keys';
+import { aFinding } from '@/testing/fixtures';
 import { renderWithApp } from '@/testing/render';
 import { jobWorkKeys } from '../api/keys';
 import { FindingsList } from './findings-list';
@@ -21,26 +22,7 @@ const photo = (id: string, i: number): FindingPhotoDto => ({
   uploadedAt: '2026-11-30T10:05:00Z',
 });
 
-const finding: FindingDto = {
-  id: FID,
-  jobId: JOB,
-  number: 'F-2',
-  title: 'Cracked exhaust spring',
-  location: 'Exhaust, rear cylinder',
-  category: 'airworthiness',
-  seen: 'Spring cracked through at the hook.',
-  checklistItemId: null,
-  measuredValue: null,
-  limit: null,
-  state: 'priced',
-  remedy: { description: 'Replace spring', hours: '0.5', labourRateCode: 'standard', parts: [], accessTask: null },
-  raisedByName: 'Priya Tollervey',
-  raisedAt: '2026-11-30T10:00:00Z',
-  rectifiedAt: null,
-  rectifiedByName: null,
-  photos: [photo('ph-1', 1), photo('ph-2', 2)],
-  version: 4,
-};
+const finding: FindingDto = aFinding({ id: FID, jobId: JOB, photos: [photo('ph-1', 1), photo('ph-2', 2)] });
 
 const jpeg = (name: string) => new File([new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 0, 0x10])], name, { type: 'image/jpeg' });
 function json(status: number, body: unknown): Response {

@@ -1,32 +1,20 @@
 import { PHOTO_LIMITS, type FindingDto } from '@wingstage/shared';
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { aFinding } from '@/testing/fixtures';
 import { renderWithApp } from '@/testing/render';
 import { describeRaise, RaiseFinding, type RaiseOutcome } from './raise-finding';
 
 const JOB = '5b0c1d7e-8f3a-4b61-9d2e-0a1b2c3d4e5f';
 const workshop = { labourRates: [{ code: 'standard', name: 'Standard', ratePerHour: '60.00' }] };
 
-const created: FindingDto = {
-  id: '7c1e2a3b-4d5e-4f60-8a9b-0c1d2e3f4a5b',
+const created: FindingDto = aFinding({
   jobId: JOB,
   number: 'F-3',
-  title: 'Cracked exhaust spring',
-  location: 'Exhaust, rear cylinder',
-  category: 'airworthiness',
-  seen: 'Spring cracked through at the hook.',
-  checklistItemId: null,
-  measuredValue: null,
-  limit: null,
   state: 'draft',
   remedy: { description: '', hours: null, labourRateCode: 'standard', parts: [], accessTask: null },
-  raisedByName: 'Priya Tollervey',
-  raisedAt: '2026-11-30T10:00:00Z',
-  rectifiedAt: null,
-  rectifiedByName: null,
-  photos: [],
   version: 0,
-};
+});
 
 const JPEG = [0xff, 0xd8, 0xff, 0xe0, 0, 0x10, 0x4a, 0x46, 0x49, 0x46, 0, 1];
 const PNG = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 0x0d];

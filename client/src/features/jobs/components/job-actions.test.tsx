@@ -1,27 +1,11 @@
 import type { JobDto } from '@wingstage/shared';
 import { fireEvent, screen, waitFor } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { aJob } from '@/testing/fixtures';
 import { renderWithApp } from '@/testing/render';
 import { JobActions } from './job-actions';
 
-const job: JobDto = {
-  id: '5b0c1d7e-8f3a-4b61-9d2e-0a1b2c3d4e5f',
-  number: 'J-0042',
-  aircraftId: 'a',
-  registration: 'Q-TEST',
-  aircraftType: 'Two-seat flex-wing trike',
-  customerId: 'c',
-  customerName: 'Orla Fenwright',
-  title: 'Annual permit inspection',
-  type: 'annual_permit_inspection',
-  state: 'in_work',
-  bookedInOn: '2026-11-30',
-  dueOn: null,
-  notes: '',
-  version: 3,
-  createdAt: '2026-11-30T09:00:00Z',
-  updatedAt: '2026-11-30T09:00:00Z',
-};
+const job: JobDto = aJob();
 
 describe('JobActions', () => {
   const fetchMock = vi.fn<typeof fetch>();
