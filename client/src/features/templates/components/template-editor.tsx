@@ -282,7 +282,7 @@ function ScopeLineFields({
             label="Catalogue part"
             source={partPickerSource}
             selected={parts.find((p) => p.id === partId) ?? null}
-            placeholder="Not from the catalogue — type to search"
+            placeholder="None — type to search"
             error={errors?.partId?.message}
             onPick={(p) => {
               // A blank description takes the part's own; one already written is kept.
