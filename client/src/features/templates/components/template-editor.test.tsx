@@ -27,8 +27,8 @@ const part = (n: number, description: string): PartDto => ({
 // More active parts than one list page holds: the 101st can only be reached by searching.
 const PARTS = [...Array.from({ length: 100 }, (_, i) => part(i + 1, `Split pin, batch ${String(i + 1).padStart(3, '0')}`)), part(101, 'Carburettor float needle, Tolmere pattern')];
 const SUPPLIERS: SupplierDto[] = [
-  { id: '8d8d8d8d-0000-4000-8000-000000000001', name: 'Quillhaven Propeller Works', kind: 'subcontract', email: '', phone: '', notes: '', active: true, version: 1 } as SupplierDto,
-  { id: '8d8d8d8d-0000-4000-8000-000000000002', name: 'Orrin Vale Magneto Shop', kind: 'subcontract', email: '', phone: '', notes: '', active: true, version: 1 } as SupplierDto,
+  { id: '8d8d8d8d-0000-4000-8000-000000000001', name: 'Quillhaven Propeller Works', kind: 'propeller_shop', email: '', phone: '', notes: '', active: true, version: 1 },
+  { id: '8d8d8d8d-0000-4000-8000-000000000002', name: 'Orrin Vale Magneto Shop', kind: 'engine_shop', email: '', phone: '', notes: '', active: true, version: 1 },
 ];
 
 const labourLine = { kind: 'labour', description: 'Annual inspection', quantity: '6', labourRateCode: 'standard', partId: null, supplierId: null, amount: null, vatRate: 'standard' } as const;
