@@ -3,8 +3,6 @@ import { useState } from 'react';
 import { useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page';
-import { ALL_ACTIVE_PARTS, partsQueryOptions } from '@/features/catalogue/api/get-parts';
-import { ALL_SUPPLIERS, suppliersQueryOptions } from '@/features/catalogue/api/get-suppliers';
 import { templateKeys } from '@/features/templates/api/keys';
 import { templateQueryOptions } from '@/features/templates/api/get-templates';
 import { useSaveTemplate } from '@/features/templates/api/save-template';
@@ -31,8 +29,6 @@ export function Component() {
   const qc = useQueryClient();
   const { data: workshop } = useSuspenseQuery(workshopQueryOptions());
   const template = useQuery({ ...templateQueryOptions(id ?? ''), enabled: Boolean(id) });
-  const parts = useQuery(partsQueryOptions(ALL_ACTIVE_PARTS));
-  const suppliers = useQuery(suppliersQueryOptions(ALL_SUPPLIERS));
   const save = useSaveTemplate();
   const [saved, setSaved] = useState(false);
   const t = id ? (template.data ?? null) : null;
@@ -56,8 +52,6 @@ export function Component() {
           key={t ? `${t.id}:${t.version}` : 'new'}
           template={t}
           workshop={workshop}
-          parts={parts.data?.items ?? []}
-          suppliers={(suppliers.data?.items ?? []).filter((s) => s.active)}
           onReload={() => void qc.invalidateQueries({ queryKey: templateKeys.detail(id ?? '') })}
           onSave={async (v) => {
             setSaved(false);

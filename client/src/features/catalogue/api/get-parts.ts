@@ -10,6 +10,3 @@ export const getParts = (params: PartListParams, signal?: AbortSignal) => api.ge
 
 export const partsQueryOptions = (params: PartListParams) =>
   queryOptions({ queryKey: partKeys.list(params), queryFn: ({ signal }) => getParts(params, signal), placeholderData: keepPreviousData });
-
-/** Pickers (estimate lines, remedies) need the whole active catalogue; the list endpoint caps a page at 100. */
-export const ALL_ACTIVE_PARTS: PartListParams = { active: 'true', pageSize: 100, sort: 'partNumber', dir: 'asc' };

@@ -4,7 +4,7 @@ import { api } from '@/lib/api-client';
 import type { ListParams } from '@/lib/list-params';
 import { supplierKeys } from './keys';
 
-export type SupplierListParams = Partial<ListParams>;
+export type SupplierListParams = Partial<ListParams> & { /** Comma-separated ids. */ ids?: string };
 
 export const getSuppliers = (params: SupplierListParams, signal?: AbortSignal) => api.get<Page<SupplierDto>>('/suppliers', params, signal);
 

@@ -13,11 +13,14 @@ import {
   type WorkshopDto,
 } from '@wingstage/shared';
 import { useState } from 'react';
-import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister } from 'react-hook-form';
+import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormGetValues, type UseFormRegister, type UseFormSetValue } from 'react-hook-form';
 import type { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
+import { PickerField } from '@/components/ui/picker-field';
 import { FormErrorSummary, Notice } from '@/components/ui/notice';
+import { partPickerSource, supplierPickerSource, type SupplierOption } from '@/features/catalogue/api/catalogue-pickers';
+import { useTemplateLineRecords } from '@/features/templates/api/get-line-records';
 import { LINE_KIND_LABELS } from '@/lib/line-kinds';
 import { isApiError } from '@/lib/api-client';
 import { applyServerErrors } from '@/lib/form-errors';
@@ -33,22 +36,18 @@ export const EXAMPLE_LIMITS_CAUTION = "Limits in templates are examples: use the
 export function TemplateEditor({
   template,
   workshop,
-  parts,
-  suppliers,
   onSave,
   onReload,
 }: {
   template: TemplateDto | null;
   workshop: WorkshopDto;
-  parts: PartDto[];
-  suppliers: SupplierDto[];
   onSave: (values: FormOut) => Promise<unknown>;
   /** After a stale save: fetch the other person's version (the form is rebuilt from it). */
   onReload: () => void;
 }) {
   const [summary, setSummary] = useState<string | null>(null);
   const [stale, setStale] = useState(false);
-  const { register, handleSubmit, control, setError, setValue, formState } = useForm<FormIn, unknown, FormOut>({
+  const { register, handleSubmit, control, setError, setValue, getValues, formState } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(templateSaveSchema),
     defaultValues: {
       name: template?.name ?? '',
@@ -62,6 +61,8 @@ export function TemplateEditor({
   const lines = useFieldArray({ control, name: 'lines' });
   const checklist = useFieldArray({ control, name: 'checklist' });
   const e = formState.errors;
+  // Names for the parts and suppliers the saved lines already hold; the pickers search for the rest.
+  const named = useTemplateLineRecords(template?.lines ?? []);
 
   const submit = handleSubmit(async (v) => {
     setSummary(null);
@@ -113,7 +114,17 @@ export function TemplateEditor({
         <ol className="flex flex-col gap-3">
           {lines.fields.map((f, i) => (
             <li key={f.id} className="rounded-control border border-seam bg-cloth p-3">
-              <ScopeLineFields index={i} control={control} register={register} workshop={workshop} parts={parts} suppliers={suppliers} errors={e.lines?.[i]} />
+              <ScopeLineFields
+                index={i}
+                control={control}
+                register={register}
+                getValues={getValues}
+                setValue={setValue}
+                workshop={workshop}
+                parts={named.parts}
+                suppliers={named.suppliers}
+                errors={e.lines?.[i]}
+              />
               <RowTools
                 label={`scope line ${i + 1}`}
                 first={i === 0}
@@ -215,6 +226,8 @@ function ScopeLineFields({
   index: i,
   control,
   register,
+  getValues,
+  setValue,
   workshop,
   parts,
   suppliers,
@@ -223,12 +236,17 @@ function ScopeLineFields({
   index: number;
   control: Control<FormIn>;
   register: UseFormRegister<FormIn>;
+  getValues: UseFormGetValues<FormIn>;
+  setValue: UseFormSetValue<FormIn>;
   workshop: WorkshopDto;
+  /** The saved lines' parts and suppliers, only to label the values the form opens with. */
   parts: PartDto[];
   suppliers: SupplierDto[];
   errors: LineErrors;
 }) {
   const kind = useWatch({ control, name: `lines.${i}.kind` }) as LineKind;
+  const partId = useWatch({ control, name: `lines.${i}.partId` });
+  const supplierId = useWatch({ control, name: `lines.${i}.supplierId` });
   return (
     <div className="grid gap-3 sm:grid-cols-6">
       <SelectField label="Kind" className="sm:col-span-1" {...register(`lines.${i}.kind`)}>
@@ -257,26 +275,34 @@ function ScopeLineFields({
       ) : null}
       {kind === 'part' ? (
         <div className="sm:col-span-3">
-          <SelectField label="Catalogue part" {...register(`lines.${i}.partId`, nullable)}>
-            <option value="">Not from the catalogue (give the unit cost)</option>
-            {parts.map((p) => (
-              <option key={p.id} value={p.id}>
-                {p.partNumber} — {p.description}
-              </option>
-            ))}
-          </SelectField>
+          <PickerField<PartDto, FormIn>
+            control={control}
+            name={`lines.${i}.partId`}
+            empty={null}
+            label="Catalogue part"
+            source={partPickerSource}
+            selected={parts.find((p) => p.id === partId) ?? null}
+            placeholder="None — type to search"
+            error={errors?.partId?.message}
+            onPick={(p) => {
+              // A blank description takes the part's own; one already written is kept.
+              if (p && !String(getValues(`lines.${i}.description`) ?? '').trim()) setValue(`lines.${i}.description`, p.description, { shouldValidate: true });
+            }}
+          />
         </div>
       ) : null}
       {kind === 'subcontract' ? (
         <div className="sm:col-span-3">
-          <SelectField label="Supplier" {...register(`lines.${i}.supplierId`, nullable)}>
-            <option value="">Choose later</option>
-            {suppliers.map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.name}
-              </option>
-            ))}
-          </SelectField>
+          <PickerField<SupplierOption, FormIn>
+            control={control}
+            name={`lines.${i}.supplierId`}
+            empty={null}
+            label="Supplier"
+            source={supplierPickerSource}
+            selected={suppliers.find((s) => s.id === supplierId) ?? null}
+            placeholder="Choose later — type to search"
+            error={errors?.supplierId?.message}
+          />
         </div>
       ) : null}
       {kind !== 'labour' ? (
