@@ -1,4 +1,5 @@
 import { expect, test, type Page, type TestInfo } from '@playwright/test';
+import { PASSWORD, csrfOf } from './support/journey';
 
 /**
  * A catalogue bigger than one list page (the API caps a page at 100 rows) can still be used in a
@@ -8,17 +9,12 @@ import { expect, test, type Page, type TestInfo } from '@playwright/test';
  * Screenshots show the part picker open at this project's width.
  */
 
-const PASSWORD = 'wingstage-demo';
 const MANAGER = 'manager@brackenfold.example';
 
 async function shot(page: Page, testInfo: TestInfo, name: string) {
   const path = testInfo.outputPath(`${testInfo.project.name}-${name}.png`);
   await page.screenshot({ path });
   await testInfo.attach(name, { path, contentType: 'image/png' });
-}
-
-async function csrfOf(page: Page): Promise<string> {
-  return decodeURIComponent((await page.context().cookies()).find((c) => c.name === 'ws_csrf')?.value ?? '');
 }
 
 test('a template line picks a part that only a search reaches, and a supplier by search', async ({ page }, testInfo) => {
