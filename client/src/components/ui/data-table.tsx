@@ -6,7 +6,9 @@ import {
   type RowData,
   type SortingState,
 } from '@tanstack/react-table';
+import type { Page } from '@wingstage/shared';
 import { useEffect, useId, useState, type ReactNode } from 'react';
+import type { ListParams } from '@/lib/list-params';
 import { ArrowDownIcon, ArrowUpIcon, LensIcon } from './icons';
 import { Button } from './button';
 
@@ -44,6 +46,46 @@ export interface ServerTableProps<T> {
  * A table whose searching, sorting and paging happen on the server. On a desktop it is a real
  * table; below the `md` breakpoint each row becomes a card so nothing scrolls sideways on a phone.
  */
+/**
+ * A list page's table: one page of records from the server, with its sort and page kept in the
+ * list's parameters (the address bar). `onChange` receives the patch to those parameters.
+ */
+export function ListTable<T extends { id: string }>({
+  caption,
+  columns,
+  page,
+  params,
+  onChange,
+  empty,
+  busy,
+}: {
+  caption: string;
+  columns: ColumnDef<T, any>[];
+  page: Page<T>;
+  params: Pick<ListParams, 'sort' | 'dir'>;
+  onChange: (patch: Record<string, string | number | undefined>) => void;
+  empty?: ReactNode;
+  busy?: boolean;
+}) {
+  return (
+    <ServerTable
+      caption={caption}
+      columns={columns}
+      rows={page.items}
+      total={page.total}
+      page={page.page}
+      pageSize={page.pageSize}
+      sort={params.sort}
+      dir={params.dir}
+      onSort={(sort, dir) => onChange({ sort, dir })}
+      onPage={(p) => onChange({ page: p })}
+      getRowId={(r) => r.id}
+      empty={empty}
+      busy={busy}
+    />
+  );
+}
+
 export function ServerTable<T>({ caption, columns, rows, total, page, pageSize, sort, dir, onSort, onPage, getRowId, empty, busy }: ServerTableProps<T>) {
   const sorting: SortingState = sort ? [{ id: sort, desc: dir === 'desc' }] : [];
   const table = useReactTable({

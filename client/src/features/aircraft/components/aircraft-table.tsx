@@ -1,7 +1,7 @@
 import type { AircraftDto, Page } from '@wingstage/shared';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Link } from 'react-router-dom';
-import { ServerTable } from '@/components/ui/data-table';
+import { ListTable } from '@/components/ui/data-table';
 import { formatHours } from '@/lib/format';
 import type { ListParams } from '@/lib/list-params';
 
@@ -24,18 +24,12 @@ const columns = [
 
 export function AircraftTable({ page, params, onChange, busy }: { page: Page<AircraftDto>; params: ListParams; onChange: (p: Record<string, string | number | undefined>) => void; busy?: boolean }) {
   return (
-    <ServerTable
+    <ListTable
       caption="Aircraft"
       columns={columns}
-      rows={page.items}
-      total={page.total}
-      page={page.page}
-      pageSize={page.pageSize}
-      sort={params.sort}
-      dir={params.dir}
-      onSort={(sort, dir) => onChange({ sort, dir })}
-      onPage={(p) => onChange({ page: p })}
-      getRowId={(r) => r.id}
+      page={page}
+      params={params}
+      onChange={onChange}
       busy={busy}
       empty={params.q ? `No aircraft match “${params.q}”.` : 'No aircraft yet.'}
     />

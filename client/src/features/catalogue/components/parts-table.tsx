@@ -1,6 +1,6 @@
 import type { Page, PartDto } from '@wingstage/shared';
 import { createColumnHelper } from '@tanstack/react-table';
-import { ServerTable } from '@/components/ui/data-table';
+import { ListTable } from '@/components/ui/data-table';
 import { formatMoney } from '@/lib/format';
 import type { ListParams } from '@/lib/list-params';
 import { VAT_RATE_LABELS } from '@/lib/pricing-preview';
@@ -68,18 +68,12 @@ export function PartsTable({
     }),
   ];
   return (
-    <ServerTable
+    <ListTable
       caption="Parts"
       columns={columns}
-      rows={page.items}
-      total={page.total}
-      page={page.page}
-      pageSize={page.pageSize}
-      sort={params.sort}
-      dir={params.dir}
-      onSort={(sort, dir) => onChange({ sort, dir })}
-      onPage={(p) => onChange({ page: p })}
-      getRowId={(r) => r.id}
+      page={page}
+      params={params}
+      onChange={onChange}
       busy={busy}
       empty={params.q ? 'No parts match this search.' : 'No parts in the catalogue yet.'}
     />

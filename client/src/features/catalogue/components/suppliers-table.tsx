@@ -1,6 +1,6 @@
 import { SUPPLIER_KIND_LABELS, type Page, type SupplierDto } from '@wingstage/shared';
 import { createColumnHelper } from '@tanstack/react-table';
-import { ServerTable } from '@/components/ui/data-table';
+import { ListTable } from '@/components/ui/data-table';
 import type { ListParams } from '@/lib/list-params';
 
 const col = createColumnHelper<SupplierDto>();
@@ -38,18 +38,12 @@ export function SuppliersTable({
     col.accessor('active', { header: 'In use', enableSorting: false, cell: (c) => (c.getValue() ? 'Yes' : 'No (hidden from new lines)') }),
   ];
   return (
-    <ServerTable
+    <ListTable
       caption="Suppliers"
       columns={columns}
-      rows={page.items}
-      total={page.total}
-      page={page.page}
-      pageSize={page.pageSize}
-      sort={params.sort}
-      dir={params.dir}
-      onSort={(sort, dir) => onChange({ sort, dir })}
-      onPage={(p) => onChange({ page: p })}
-      getRowId={(r) => r.id}
+      page={page}
+      params={params}
+      onChange={onChange}
       busy={busy}
       empty={params.q ? 'No suppliers match this search.' : 'No suppliers yet.'}
     />

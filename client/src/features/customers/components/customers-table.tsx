@@ -1,7 +1,7 @@
 import { CUSTOMER_KIND_LABELS, type CustomerDto, type Page } from '@wingstage/shared';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Link } from 'react-router-dom';
-import { ServerTable } from '@/components/ui/data-table';
+import { ListTable } from '@/components/ui/data-table';
 import type { ListParams } from '@/lib/list-params';
 
 const col = createColumnHelper<CustomerDto>();
@@ -19,18 +19,12 @@ const columns = [
 
 export function CustomersTable({ page, params, onChange, busy }: { page: Page<CustomerDto>; params: ListParams; onChange: (p: Record<string, string | number | undefined>) => void; busy?: boolean }) {
   return (
-    <ServerTable
+    <ListTable
       caption="Owners"
       columns={columns}
-      rows={page.items}
-      total={page.total}
-      page={page.page}
-      pageSize={page.pageSize}
-      sort={params.sort}
-      dir={params.dir}
-      onSort={(sort, dir) => onChange({ sort, dir })}
-      onPage={(p) => onChange({ page: p })}
-      getRowId={(r) => r.id}
+      page={page}
+      params={params}
+      onChange={onChange}
       busy={busy}
       empty={params.q ? `No owners match “${params.q}”.` : 'No owners yet.'}
     />

@@ -1,7 +1,7 @@
 import { JOB_TYPE_LABELS, type JobDto, type Page } from '@wingstage/shared';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Link } from 'react-router-dom';
-import { ServerTable } from '@/components/ui/data-table';
+import { ListTable } from '@/components/ui/data-table';
 import { StateBadge } from '@/components/ui/state-badge';
 import { formatDate } from '@/lib/format';
 import type { ListParams } from '@/lib/list-params';
@@ -34,18 +34,12 @@ const columns = [
 
 export function JobsTable({ page, params, onChange, busy }: { page: Page<JobDto>; params: ListParams; onChange: (p: Record<string, string | number | undefined>) => void; busy?: boolean }) {
   return (
-    <ServerTable
+    <ListTable
       caption="Jobs"
       columns={columns}
-      rows={page.items}
-      total={page.total}
-      page={page.page}
-      pageSize={page.pageSize}
-      sort={params.sort}
-      dir={params.dir}
-      onSort={(sort, dir) => onChange({ sort, dir })}
-      onPage={(p) => onChange({ page: p })}
-      getRowId={(r) => r.id}
+      page={page}
+      params={params}
+      onChange={onChange}
       busy={busy}
       empty={params.q || params.state ? 'No jobs match these filters.' : 'No jobs yet.'}
     />

@@ -1,7 +1,7 @@
 import { ROLE_LABELS, STAFF_ROLES, type Page, type Role, type UserDto } from '@wingstage/shared';
 import { createColumnHelper } from '@tanstack/react-table';
 import { useId, useState } from 'react';
-import { ServerTable } from '@/components/ui/data-table';
+import { ListTable } from '@/components/ui/data-table';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
@@ -90,18 +90,12 @@ export function StaffTable({ page, params, onChange, selfId, busy }: { page: Pag
   return (
     <div className="flex flex-col gap-3">
       {problem ? <Notice>{problem}</Notice> : null}
-      <ServerTable
+      <ListTable
         caption="Staff and sign-ins"
         columns={columns}
-        rows={page.items}
-        total={page.total}
-        page={page.page}
-        pageSize={page.pageSize}
-        sort={params.sort}
-        dir={params.dir}
-        onSort={(sort, dir) => onChange({ sort, dir })}
-        onPage={(p) => onChange({ page: p })}
-        getRowId={(r) => r.id}
+        page={page}
+        params={params}
+        onChange={onChange}
         busy={busy}
       />
     </div>
