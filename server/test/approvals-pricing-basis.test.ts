@@ -1,11 +1,11 @@
-import { createHash, randomUUID } from 'node:crypto';
+import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { compareAmounts, sumAmounts, type DecisionPageDto, type EstimateDto, type EstimateLineInputForm, type SendForApprovalResultDto } from '@wingstage/shared';
 import { ApprovalRequest } from '../src/models/index.js';
 // The owner's page prices each choice in the browser; this is that very code.
 import { priceChoice, runningTotal } from '../../client/src/features/decide/components/running-total.js';
-import { makeFinding, makeJob, mailsTo, makeWorkshop, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
+import { decideTokenFromMail, makeFinding, makeJob, mailsTo, makeWorkshop, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
 let a: WorkshopFixture;
@@ -20,20 +20,8 @@ afterAll(async () => {
   await server?.close();
 });
 
-const hashOf = (t: string) => createHash('sha256').update(t).digest('hex');
 
-async function tokenOf(email: string, requestId: string): Promise<string> {
-  const until = Date.now() + 30_000;
-  while (Date.now() < until) {
-    const r = await ApprovalRequest.findByPk(requestId);
-    for (const m of await mailsTo(email)) {
-      const tok = /\/decide\/([A-Za-z0-9_-]+)/.exec(m.text)?.[1];
-      if (tok && hashOf(tok) === r!.tokenHash) return tok;
-    }
-    await new Promise((x) => setTimeout(x, 250));
-  }
-  throw new Error('the approval e-mail did not arrive');
-}
+const tokenOf = (email: string, requestId: string) => decideTokenFromMail(email, requestId, 30_000);
 
 /**
  * A job whose two findings share the cowling (an access task nothing committed pays for), one of

@@ -1,11 +1,11 @@
-import { createHash, randomBytes, randomUUID } from 'node:crypto';
+import { randomBytes, randomUUID } from 'node:crypto';
 import sharp from 'sharp';
 import request from 'supertest';
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { decidePhotoUrl, type DecisionPageDto, type EstimateDto, type EstimateLineInputForm, type FindingPhotoDto, type SendForApprovalResultDto } from '@wingstage/shared';
 import { ApprovalRequest, boundSequelize } from '../src/models/index.js';
-import { makeFinding, makeJob, mailsTo, makeWorkshop, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
+import { decideTokenFromMail, sha256Hex, makeFinding, makeJob, mailsTo, makeWorkshop, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
 let a: WorkshopFixture;
@@ -20,23 +20,11 @@ afterAll(async () => {
   await server?.close();
 });
 
-const hashOf = (t: string) => createHash('sha256').update(t).digest('hex');
+const hashOf = sha256Hex;
 const anon = () => request(server.app);
 const day = (iso: string) => new Date(iso).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', timeZone: 'UTC' });
 
-/** The link of the request's current token, read from the owner's e-mail. */
-async function currentToken(requestId: string): Promise<string> {
-  const until = Date.now() + 45_000;
-  while (Date.now() < until) {
-    const r = await ApprovalRequest.findByPk(requestId);
-    for (const m of await mailsTo(a.owners[0].customer.email)) {
-      const tok = /\/decide\/([A-Za-z0-9_-]+)/.exec(m.text)?.[1];
-      if (tok && hashOf(tok) === r!.tokenHash) return tok;
-    }
-    await new Promise((x) => setTimeout(x, 250));
-  }
-  throw new Error('the approval e-mail did not arrive');
-}
+const currentToken = (requestId: string) => decideTokenFromMail(a.owners[0].customer.email, requestId);
 
 /** A sent request for one priced finding with a photo; its first link. */
 async function sentRequest() {

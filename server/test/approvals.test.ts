@@ -6,7 +6,7 @@ import { createApp } from '../src/app.js';
 import { MailQueue } from '../src/mail/mail-queue.js';
 import { ApprovalRequest, AuditEvent, Finding, Job } from '../src/models/index.js';
 import { canonicalJson, chaseUndecided } from '../src/services/approvals.service.js';
-import { makeFinding, makeJob, mailsTo, makeWorkshop, signIn, startTestServer, testConfig, uniq, waitForMail, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
+import { decideTokenFromMail, sha256Hex, makeFinding, makeJob, mailsTo, makeWorkshop, signIn, startTestServer, testConfig, uniq, waitForMail, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
 let a: WorkshopFixture;
@@ -65,21 +65,9 @@ async function send(p: Priced, findingIds = p.findings.map((f) => f.id), c: Clie
   return c.post(`/api/jobs/${p.job.id}/approval-requests`, { findingIds, message: 'Found while inspecting.', estimateVersion: est.body.version });
 }
 
-const hashOf = (t: string) => createHash('sha256').update(t).digest('hex');
+const hashOf = sha256Hex;
 
-/** The token of the request's current link, read from the mail maildev received (several tests mail one owner). */
-async function tokenOf(email: string, requestId: string): Promise<string> {
-  const until = Date.now() + 15_000;
-  while (Date.now() < until) {
-    const r = await ApprovalRequest.findByPk(requestId);
-    for (const m of await mailsTo(email)) {
-      const tok = /\/decide\/([A-Za-z0-9_-]+)/.exec(m.text)?.[1];
-      if (tok && hashOf(tok) === r!.tokenHash) return tok;
-    }
-    await new Promise((x) => setTimeout(x, 250));
-  }
-  throw new Error('the approval e-mail did not arrive');
-}
+const tokenOf = (email: string, requestId: string) => decideTokenFromMail(email, requestId, 15_000);
 
 /** Sends and returns the request and the token read from the e-mail maildev received. */
 async function sendAndRead(p: Priced): Promise<{ request: ApprovalRequestDto; token: string }> {

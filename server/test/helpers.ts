@@ -1,4 +1,4 @@
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -9,7 +9,7 @@ import type { Role } from '@wingstage/shared';
 import { createApp, type AppParts } from '../src/app.js';
 import { loadConfig, type Config } from '../src/config/config.js';
 import { hashPassword } from '../src/lib/passwords.js';
-import { Aircraft, Customer, Finding, Job, User, Workshop } from '../src/models/index.js';
+import { Aircraft, ApprovalRequest, Customer, Finding, Job, User, Workshop } from '../src/models/index.js';
 import { startParts, stopParts } from '../src/runtime.js';
 
 export const PASSWORD = 'runway-heading-270';
@@ -208,4 +208,24 @@ export async function makeFinding(job: Job, over: Partial<{ state: Finding['stat
     remedy: { description: '', hours: null, labourRateCode: null, parts: [], accessTask: null },
     raisedBy: null,
   });
+}
+
+export const sha256Hex = (t: string) => createHash('sha256').update(t).digest('hex');
+
+/**
+ * The token of a request's current decision link, read from the mail maildev received for `email`
+ * (only the hash is stored, so the e-mail is the one place the token exists). Several tests mail one
+ * owner; the hash picks the right one.
+ */
+export async function decideTokenFromMail(email: string, requestId: string, timeoutMs = 45_000): Promise<string> {
+  const until = Date.now() + timeoutMs;
+  while (Date.now() < until) {
+    const r = await ApprovalRequest.findByPk(requestId);
+    for (const m of await mailsTo(email)) {
+      const tok = /\/decide\/([A-Za-z0-9_-]+)/.exec(m.text)?.[1];
+      if (tok && sha256Hex(tok) === r?.tokenHash) return tok;
+    }
+    await new Promise((x) => setTimeout(x, 250));
+  }
+  throw new Error('the approval e-mail did not arrive');
 }

@@ -1,4 +1,4 @@
-import { createHash, randomUUID } from 'node:crypto';
+import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import sharp from 'sharp';
@@ -8,7 +8,7 @@ import { PHOTO_LIMITS, decidePhotoUrl, photoUrl, type DecisionPageDto, type Esti
 import { createApp } from '../src/app.js';
 import { ApprovalRequest, AuditEvent, Finding, FindingPhoto, Job } from '../src/models/index.js';
 import type { PhotoStore } from '../src/storage/index.js';
-import { makeFinding, makeJob, makeWorkshop, mailsTo, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
+import { decideTokenFromMail, makeFinding, makeJob, makeWorkshop, mailsTo, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
 let a: WorkshopFixture;
@@ -407,7 +407,6 @@ describe('who may add, remove and see photos', () => {
 
 // ─── Removal and the owner's decision page ───────────────────────────────────
 
-const hashOf = (t: string) => createHash('sha256').update(t).digest('hex');
 
 /** An inspecting job of owner 1 with one finding priced through the estimate. */
 async function pricedThroughEstimate() {
@@ -424,16 +423,7 @@ async function sendAndReadToken(jobId: string, findingId: string): Promise<{ req
   const sent = await staff.manager.post(`/api/jobs/${jobId}/approval-requests`, { findingIds: [findingId], message: 'Photos attached.', estimateVersion: est.body.version });
   expect(sent.status).toBe(201);
   const requestId = sent.body.request.id as string;
-  const until = Date.now() + 30_000;
-  while (Date.now() < until) {
-    const r = await ApprovalRequest.findByPk(requestId);
-    for (const m of await mailsTo(a.owners[0].customer.email)) {
-      const tok = /\/decide\/([A-Za-z0-9_-]+)/.exec(m.text)?.[1];
-      if (tok && hashOf(tok) === r!.tokenHash) return { requestId, token: tok };
-    }
-    await new Promise((x) => setTimeout(x, 250));
-  }
-  throw new Error('the approval e-mail did not arrive');
+  return { requestId, token: await decideTokenFromMail(a.owners[0].customer.email, requestId, 30_000) };
 }
 
 describe('photos in approval requests', () => {
