@@ -1,5 +1,5 @@
 import { expect, test, type Page, type TestInfo } from '@playwright/test';
-import { PASSWORD, csrfOf } from './support/journey';
+import { PASSWORD, csrfOf, projectShot as shot } from './support/journey';
 
 /**
  * A workshop with more owners than one list page holds (the API caps a page at 100 rows) can
@@ -11,12 +11,6 @@ import { PASSWORD, csrfOf } from './support/journey';
 
 const MANAGER = 'manager@brackenfold.example';
 const OWNERS = 105;
-
-async function shot(page: Page, testInfo: TestInfo, name: string) {
-  const path = testInfo.outputPath(`${testInfo.project.name}-${name}.png`);
-  await page.screenshot({ path });
-  await testInfo.attach(name, { path, contentType: 'image/png' });
-}
 
 test('the 105th owner, an aircraft and a catalogue part are each found by search and picked', async ({ page }, testInfo) => {
   test.setTimeout(180_000);

@@ -1,5 +1,5 @@
 import { expect, test, type Page, type TestInfo } from '@playwright/test';
-import { PASSWORD, csrfOf } from './support/journey';
+import { PASSWORD, csrfOf, projectShot as shot } from './support/journey';
 
 /**
  * A catalogue bigger than one list page (the API caps a page at 100 rows) can still be used in a
@@ -10,12 +10,6 @@ import { PASSWORD, csrfOf } from './support/journey';
  */
 
 const MANAGER = 'manager@brackenfold.example';
-
-async function shot(page: Page, testInfo: TestInfo, name: string) {
-  const path = testInfo.outputPath(`${testInfo.project.name}-${name}.png`);
-  await page.screenshot({ path });
-  await testInfo.attach(name, { path, contentType: 'image/png' });
-}
 
 test('a template line picks a part that only a search reaches, and a supplier by search', async ({ page }, testInfo) => {
   test.setTimeout(180_000);

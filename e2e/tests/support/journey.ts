@@ -13,6 +13,11 @@ export async function shot(page: Page, testInfo: TestInfo, name: string, fullPag
   await testInfo.attach(name, { path, contentType: 'image/png' });
 }
 
+/** For a test both window sizes run: each screenshot is named by its project, as the window shows it. */
+export async function projectShot(page: Page, testInfo: TestInfo, name: string): Promise<void> {
+  await shot(page, testInfo, `${testInfo.project.name}-${name}`, false);
+}
+
 /** The picture really arrived: the browser decoded it from the server's reply (lazy ones load once in view). */
 export async function expectLoaded(img: Locator): Promise<void> {
   await expect(img).toBeVisible();
