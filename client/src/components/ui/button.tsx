@@ -1,8 +1,7 @@
 import type { ButtonHTMLAttributes, ReactNode } from 'react';
-import { Link, type LinkProps } from 'react-router-dom';
 
-type Variant = 'primary' | 'secondary' | 'quiet';
-type Size = 'md' | 'lg';
+export type Variant = 'primary' | 'secondary' | 'quiet';
+export type Size = 'md' | 'lg';
 
 const base =
   'inline-flex items-center justify-center gap-2 rounded-control font-semibold transition-colors disabled:cursor-not-allowed disabled:opacity-60 no-underline';
@@ -36,13 +35,4 @@ export function Button({
       {children}
     </button>
   );
-}
-
-export function ButtonLink({
-  variant = 'primary',
-  size = 'md',
-  className = '',
-  ...rest
-}: LinkProps & { variant?: Variant; size?: Size }) {
-  return <Link className={buttonClass(variant, size, className)} {...rest} />;
 }

@@ -1,6 +1,6 @@
 import { keepPreviousData, useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { ButtonLink } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button-link';
 import { Caution, Loading } from '@/components/ui/notice';
 import { Card, Facts, PageHeader } from '@/components/ui/page';
 import { aircraftQueryOptions } from '@/features/aircraft/api/get-aircraft';

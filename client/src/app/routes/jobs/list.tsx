@@ -1,7 +1,7 @@
 import { JOB_STATES, JOB_STATE_LABELS, type JobState } from '@wingstage/shared';
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
-import { ButtonLink } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button-link';
 import { SearchBox } from '@/components/ui/data-table';
 import { Loading } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page';

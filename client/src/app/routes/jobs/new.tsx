@@ -1,6 +1,6 @@
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { ButtonLink } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button-link';
 import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page';
 import { aircraftPickerSource } from '@/features/aircraft/api/aircraft-picker';

@@ -1,7 +1,7 @@
 import { CUSTOMER_KIND_LABELS } from '@wingstage/shared';
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { ButtonLink } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button-link';
 import { Loading } from '@/components/ui/notice';
 import { Card, Facts, PageHeader } from '@/components/ui/page';
 import { aircraftListQueryOptions } from '@/features/aircraft/api/get-aircraft-list';

@@ -1,7 +1,7 @@
 import { JOB_TYPE_LABELS } from '@wingstage/shared';
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { Link, type LoaderFunctionArgs } from 'react-router-dom';
-import { ButtonLink } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button-link';
 import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page';
 import { templatesQueryOptions } from '@/features/templates/api/get-templates';

@@ -3,7 +3,8 @@ import { aircraftCreateSchema, type AircraftCreate, type AircraftDto } from '@wi
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { Button, ButtonLink } from '@/components/ui/button';
+import { Button } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button-link';
 import { TextAreaField, TextField } from '@/components/ui/field';
 import { PickerField } from '@/components/ui/picker-field';
 import type { PickerSource } from '@/components/ui/search-picker';

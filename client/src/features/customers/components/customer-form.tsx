@@ -3,7 +3,8 @@ import { CUSTOMER_KINDS, CUSTOMER_KIND_LABELS, customerCreateSchema, type Custom
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { Button, ButtonLink } from '@/components/ui/button';
+import { Button } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button-link';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { withServerErrors } from '@/lib/form-errors';

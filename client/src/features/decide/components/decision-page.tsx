@@ -7,7 +7,7 @@ import {
   type Decision,
   type DecisionPageDto,
 } from '@wingstage/shared';
-import { useId, useRef, useState, type ReactNode } from 'react';
+import { useId, useRef, useState, type ComponentProps, type ReactNode } from 'react';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { CategoryBadge } from '@/components/ui/finding-badges';
 import { CheckIcon, CrossIcon } from '@/components/ui/icons';
@@ -15,8 +15,11 @@ import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
 import { formatDateTime, trimDecimal, formatMoney } from '@/lib/format';
 import { FindingPhotos } from './finding-photos';
-import { OwnerButton as Button } from './owner-button';
+import { Button as BaseButton } from '@/components/ui/button';
 import { accessSavingWords, addsWithChoices, declinedAirworthinessWords, runningTotal, type Choices, type RunningTotal } from './running-total';
+
+/** The owner's pages use the 44 px size throughout. */
+const Button = (props: ComponentProps<typeof BaseButton>) => <BaseButton size="lg" {...props} />;
 
 type SnapshotFinding = ApprovalSnapshot['findings'][number];
 

@@ -3,7 +3,8 @@ import { JOB_TYPES, JOB_TYPE_LABELS, jobCreateSchema, type JobCreate, type JobTy
 import { useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { Button, ButtonLink } from '@/components/ui/button';
+import { Button } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button-link';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { PickerField } from '@/components/ui/picker-field';
 import type { PickerSource } from '@/components/ui/search-picker';
