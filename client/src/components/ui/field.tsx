@@ -12,24 +12,40 @@ interface FieldShellProps {
   children: ReactNode;
 }
 
+/**
+ * A label's words with "(required)" shown after them. Screen readers hear "required" from
+ * aria-required on the control, so the label's name stays plain.
+ */
+export function LabelText({ label, required }: { label: string; required?: boolean }) {
+  return (
+    <>
+      {label}
+      {required ? (
+        <span aria-hidden="true" className="font-normal text-slate-soft">
+          {' '}
+          (required)
+        </span>
+      ) : null}
+    </>
+  );
+}
+
+/** The hint under a label, referenced by the control's aria-describedby as `${id}-hint`. */
+export function FieldHint({ id, hint }: { id: string; hint?: ReactNode }) {
+  return hint ? (
+    <p id={`${id}-hint`} className="text-xs text-slate-soft">
+      {hint}
+    </p>
+  ) : null;
+}
+
 function FieldShell({ id, label, hint, error, required, children }: FieldShellProps) {
   return (
     <div className="flex flex-col gap-1">
       <label htmlFor={id} className="text-sm font-semibold text-slate">
-        {label}
-        {/* Screen readers hear "required" from aria-required on the control, so the label's name stays plain. */}
-        {required ? (
-          <span aria-hidden="true" className="font-normal text-slate-soft">
-            {' '}
-            (required)
-          </span>
-        ) : null}
+        <LabelText label={label} required={required} />
       </label>
-      {hint ? (
-        <p id={`${id}-hint`} className="text-xs text-slate-soft">
-          {hint}
-        </p>
-      ) : null}
+      <FieldHint id={id} hint={hint} />
       {children}
       {error ? (
         <p id={`${id}-error`} className="flex items-start gap-1 text-sm font-semibold text-ember" role="alert">

@@ -2,6 +2,7 @@ import type { Page } from '@wingstage/shared';
 import { useQuery, type QueryFunctionContext, type QueryKey } from '@tanstack/react-query';
 import { useCombobox } from 'downshift';
 import { useEffect, useId, useRef, useState, type ReactNode, type Ref } from 'react';
+import { FieldHint, LabelText } from './field';
 
 /** How many rows one search asks for: enough to scan, few enough to load fast on a phone. */
 export const PICKER_PAGE_SIZE = 20;
@@ -176,19 +177,9 @@ export function SearchPicker<T>({
   return (
     <div className={`relative flex flex-col gap-1 ${className}`}>
       <label {...getLabelProps()} className={hideLabel ? 'sr-only' : labelClassName}>
-        {label}
-        {required ? (
-          <span aria-hidden="true" className="font-normal text-slate-soft">
-            {' '}
-            (required)
-          </span>
-        ) : null}
+        <LabelText label={label} required={required} />
       </label>
-      {hint ? (
-        <p id={`${id}-hint`} className="text-xs text-slate-soft">
-          {hint}
-        </p>
-      ) : null}
+      <FieldHint id={id} hint={hint} />
       <div className="relative">
         <input
           {...getInputProps({

@@ -363,25 +363,13 @@ function Review({
       </h2>
       <ul className="flex flex-col gap-3">
         {s.findings.map((f, i) => (
-          <li key={f.findingId} data-review={f.number} className="flex flex-col gap-1 rounded-card border border-seam bg-cloth-raised p-3">
-            <div className="flex flex-wrap items-baseline justify-between gap-2">
-              <span className="font-semibold">
-                <span className="tabular-nums">{f.number}</span> · {f.title}
-              </span>
-              <span className="tabular-nums">{formatMoney(f.price.gross, s.currency, { vat: 'incl' })}</span>
-            </div>
-            <div className="flex flex-wrap items-center gap-2">
-              <CategoryBadge category={f.category} />
-              <ChoiceWord decision={choices[f.findingId]} />
-            </div>
-            {notes[f.findingId]?.trim() ? <p className="text-sm">Your note: {notes[f.findingId]}</p> : null}
-            {choices[f.findingId] === 'decline' && f.category === 'airworthiness' ? <p className="text-sm font-semibold">{declinedAirworthinessWords(s.registration)}</p> : null}
+          <DecidedRow key={f.findingId} finding={f} snapshot={s} decision={choices[f.findingId]} note={notes[f.findingId]} data-review={f.number}>
             <div>
               <Button variant="quiet" onClick={() => onEdit(i)}>
                 Change {f.number}
               </Button>
             </div>
-          </li>
+          </DecidedRow>
         ))}
       </ul>
       <SharedSaving totals={totals} currency={s.currency} />
@@ -520,20 +508,7 @@ function Receipt({ page }: { page: DecisionPageDto }) {
         {s.findings.map((f) => {
           const d = byId.get(f.findingId);
           return (
-            <li key={f.findingId} data-receipt={f.number} className="flex flex-col gap-1 rounded-card border border-seam bg-cloth-raised p-3">
-              <div className="flex flex-wrap items-baseline justify-between gap-2">
-                <span className="font-semibold">
-                  <span className="tabular-nums">{f.number}</span> · {f.title}
-                </span>
-                <span className="tabular-nums">{formatMoney(f.price.gross, s.currency, { vat: 'incl' })}</span>
-              </div>
-              <div className="flex flex-wrap items-center gap-2">
-                <CategoryBadge category={f.category} />
-                <ChoiceWord decision={d?.decision} />
-              </div>
-              {d?.note ? <p className="text-sm">Your note: {d.note}</p> : null}
-              {d?.decision === 'decline' && f.category === 'airworthiness' ? <p className="text-sm font-semibold">{declinedAirworthinessWords(s.registration)}</p> : null}
-            </li>
+            <DecidedRow key={f.findingId} finding={f} snapshot={s} decision={d?.decision} note={d?.note} data-receipt={f.number} />
           );
         })}
       </ul>
@@ -595,5 +570,41 @@ export function UnknownLink() {
       <p>The link may have been cut short or changed by your e-mail program. Open it again from the e-mail, taking care to use the whole link.</p>
       <p>If it still does not open, ask the workshop to send the request again.</p>
     </article>
+  );
+}
+
+/** One finding with the owner's choice, as the review before confirming and the receipt after it list them. */
+function DecidedRow({
+  finding: f,
+  snapshot: s,
+  decision,
+  note,
+  children,
+  ...data
+}: {
+  finding: ApprovalSnapshot['findings'][number];
+  snapshot: ApprovalSnapshot;
+  decision: Decision | undefined;
+  note: string | undefined;
+  children?: ReactNode;
+  'data-review'?: string;
+  'data-receipt'?: string;
+}) {
+  return (
+    <li {...data} className="flex flex-col gap-1 rounded-card border border-seam bg-cloth-raised p-3">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <span className="font-semibold">
+          <span className="tabular-nums">{f.number}</span> · {f.title}
+        </span>
+        <span className="tabular-nums">{formatMoney(f.price.gross, s.currency, { vat: 'incl' })}</span>
+      </div>
+      <div className="flex flex-wrap items-center gap-2">
+        <CategoryBadge category={f.category} />
+        <ChoiceWord decision={decision} />
+      </div>
+      {note?.trim() ? <p className="text-sm">Your note: {note}</p> : null}
+      {decision === 'decline' && f.category === 'airworthiness' ? <p className="text-sm font-semibold">{declinedAirworthinessWords(s.registration)}</p> : null}
+      {children}
+    </li>
   );
 }
