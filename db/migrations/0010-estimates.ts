@@ -1,13 +1,9 @@
 import type { QueryInterface } from 'sequelize';
-import { FINDING_STATES } from '../../shared/src/states.js';
-import { JOB_TYPES } from '../../shared/src/schemas/jobs.js';
-import { SUPPLIER_KINDS } from '../../shared/src/schemas/catalogue.js';
-import { FINDING_CATEGORIES, CHECKLIST_RESULTS } from '../../shared/src/schemas/findings.js';
-import { ESTIMATE_STAGES, LINE_KINDS, VAT_RATE_CODES } from '../../shared/src/pricing/types.js';
 
 type Ctx = { context: QueryInterface };
 
-const list = (values: readonly string[]) => values.map((v) => `'${v}'`).join(', ');
+// Allowed values are written out, never imported from the code: this migration must create the
+// same schema forever, whatever the code's lists say later (a later change is a new migration).
 
 /*
  * Column widths follow the shared decimalString: up to 12 whole digits, with 2 decimals for money
@@ -23,7 +19,7 @@ export async function up({ context }: Ctx): Promise<void> {
       id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
       workshop_id uuid NOT NULL REFERENCES workshops(id) ON DELETE CASCADE,
       name text NOT NULL,
-      kind text NOT NULL CHECK (kind IN (${list(SUPPLIER_KINDS)})),
+      kind text NOT NULL CHECK (kind IN ('parts', 'sail_loft', 'propeller_shop', 'engine_shop', 'other')),
       email text NOT NULL DEFAULT '',
       phone text NOT NULL DEFAULT '',
       notes text NOT NULL DEFAULT '',
@@ -42,7 +38,7 @@ export async function up({ context }: Ctx): Promise<void> {
       unit_cost numeric(16,4) NOT NULL CHECK (unit_cost >= 0),
       unit_price numeric(14,2) CHECK (unit_price >= 0),
       markup_percent numeric(14,2) CHECK (markup_percent >= 0),
-      vat_rate text NOT NULL DEFAULT 'standard' CHECK (vat_rate IN (${list(VAT_RATE_CODES)})),
+      vat_rate text NOT NULL DEFAULT 'standard' CHECK (vat_rate IN ('standard', 'reduced', 'zero', 'exempt', 'outside')),
       supplier_id uuid,
       lead_time_days integer NOT NULL DEFAULT 0 CHECK (lead_time_days BETWEEN 0 AND 365),
       active boolean NOT NULL DEFAULT true,
@@ -59,7 +55,7 @@ export async function up({ context }: Ctx): Promise<void> {
       id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
       workshop_id uuid NOT NULL REFERENCES workshops(id) ON DELETE CASCADE,
       name text NOT NULL,
-      job_type text NOT NULL CHECK (job_type IN (${list(JOB_TYPES)})),
+      job_type text NOT NULL CHECK (job_type IN ('annual_permit_inspection', 'engine_service_100h', 'engine_service_200h', 'wing_strip_recover', 'gearbox_inspection', 'repair', 'other')),
       description text NOT NULL DEFAULT '',
       -- Ordered arrays validated by the shared schemas; a template is always read and saved whole.
       lines jsonb NOT NULL DEFAULT '[]'::jsonb CHECK (jsonb_typeof(lines) = 'array'),
@@ -90,7 +86,7 @@ export async function up({ context }: Ctx): Promise<void> {
       section text NOT NULL DEFAULT '',
       text text NOT NULL,
       "limit" jsonb,
-      result text CHECK (result IN (${list(CHECKLIST_RESULTS)})),
+      result text CHECK (result IN ('pass', 'fail', 'na', 'measured')),
       measured_value numeric(12,4),
       note text NOT NULL DEFAULT '',
       recorded_by uuid REFERENCES users(id) ON DELETE SET NULL,
@@ -111,12 +107,12 @@ export async function up({ context }: Ctx): Promise<void> {
       seq integer NOT NULL CHECK (seq > 0),
       title text NOT NULL,
       location text NOT NULL,
-      category text NOT NULL CHECK (category IN (${list(FINDING_CATEGORIES)})),
+      category text NOT NULL CHECK (category IN ('airworthiness', 'recommended', 'advisory')),
       seen text NOT NULL,
       checklist_item_id uuid,
       measured_value numeric(12,4),
       "limit" jsonb,
-      state text NOT NULL DEFAULT 'draft' CHECK (state IN (${list(FINDING_STATES)})),
+      state text NOT NULL DEFAULT 'draft' CHECK (state IN ('draft', 'priced', 'sent', 'approved', 'approved_within_limit', 'declined', 'withdrawn')),
       remedy jsonb NOT NULL DEFAULT '{}'::jsonb,
       raised_by uuid REFERENCES users(id) ON DELETE SET NULL,
       raised_at timestamptz NOT NULL DEFAULT now(),
@@ -140,7 +136,7 @@ export async function up({ context }: Ctx): Promise<void> {
       hours numeric(14,2) NOT NULL CHECK (hours >= 0),
       labour_rate_code text,
       rate_per_hour numeric(14,2) NOT NULL CHECK (rate_per_hour >= 0),
-      vat_rate text NOT NULL DEFAULT 'standard' CHECK (vat_rate IN (${list(VAT_RATE_CODES)})),
+      vat_rate text NOT NULL DEFAULT 'standard' CHECK (vat_rate IN ('standard', 'reduced', 'zero', 'exempt', 'outside')),
       sort_order integer NOT NULL DEFAULT 0,
       PRIMARY KEY (job_id, id),
       FOREIGN KEY (workshop_id, job_id) REFERENCES jobs (workshop_id, id) ON DELETE CASCADE
@@ -150,8 +146,8 @@ export async function up({ context }: Ctx): Promise<void> {
       job_id uuid NOT NULL,
       id uuid NOT NULL,
       workshop_id uuid NOT NULL,
-      stage text NOT NULL CHECK (stage IN (${list(ESTIMATE_STAGES)})),
-      kind text NOT NULL CHECK (kind IN (${list(LINE_KINDS)})),
+      stage text NOT NULL CHECK (stage IN ('inspection', 'discovered', 'approved', 'declined')),
+      kind text NOT NULL CHECK (kind IN ('labour', 'part', 'subcontract', 'fee')),
       description text NOT NULL,
       quantity numeric(14,2) NOT NULL DEFAULT 1 CHECK (quantity >= 0),
       labour_rate_code text,
@@ -162,7 +158,7 @@ export async function up({ context }: Ctx): Promise<void> {
       unit_price numeric(14,2) CHECK (unit_price >= 0),
       markup_percent numeric(14,2) CHECK (markup_percent >= 0),
       amount numeric(14,2) CHECK (amount >= 0),
-      vat_rate text NOT NULL DEFAULT 'standard' CHECK (vat_rate IN (${list(VAT_RATE_CODES)})),
+      vat_rate text NOT NULL DEFAULT 'standard' CHECK (vat_rate IN ('standard', 'reduced', 'zero', 'exempt', 'outside')),
       finding_id uuid,
       access_task_id uuid,
       discount_percent numeric(5,2) CHECK (discount_percent BETWEEN 0 AND 100),

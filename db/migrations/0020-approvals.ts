@@ -1,10 +1,9 @@
 import type { QueryInterface } from 'sequelize';
-import { APPROVAL_REQUEST_STATES } from '../../shared/src/states.js';
-import { DECISIONS } from '../../shared/src/schemas/approvals.js';
 
 type Ctx = { context: QueryInterface };
 
-const list = (values: readonly string[]) => values.map((v) => `'${v}'`).join(', ');
+// Allowed values are written out, never imported from the code: this migration must create the
+// same schema forever, whatever the code's lists say later (a later change is a new migration).
 
 /*
  * A request belongs to one job; its findings and decisions reference (job_id, request id) and
@@ -23,7 +22,7 @@ export async function up({ context }: Ctx): Promise<void> {
       id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
       workshop_id uuid NOT NULL,
       job_id uuid NOT NULL,
-      state text NOT NULL DEFAULT 'sent' CHECK (state IN (${list(APPROVAL_REQUEST_STATES)})),
+      state text NOT NULL DEFAULT 'sent' CHECK (state IN ('sent', 'decided', 'expired', 'revoked', 'replaced')),
       snapshot jsonb NOT NULL,
       snapshot_hash text NOT NULL CHECK (snapshot_hash ~ '^[0-9a-f]{64}$'),
       -- The link token is an HMAC of this nonce under the server's secret, so a reminder can repeat
@@ -66,7 +65,7 @@ export async function up({ context }: Ctx): Promise<void> {
       job_id uuid NOT NULL,
       request_id uuid NOT NULL,
       finding_id uuid NOT NULL,
-      decision text NOT NULL CHECK (decision IN (${list(DECISIONS)})),
+      decision text NOT NULL CHECK (decision IN ('approve', 'decline')),
       note text NOT NULL DEFAULT '',
       created_at timestamptz NOT NULL DEFAULT now(),
       PRIMARY KEY (request_id, finding_id),
