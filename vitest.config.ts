@@ -1,9 +1,8 @@
-/// <reference types="vitest/config" />
 import { defineConfig } from 'vitest/config';
 
 // Each workspace keeps its own vitest config; `npm test` runs them all through this list.
 export default defineConfig({
   test: {
-    projects: ['shared', 'server', 'client'],
+    projects: ['shared', 'server', 'client', 'lint'],
   },
 });

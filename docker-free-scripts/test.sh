@@ -5,7 +5,7 @@
 # exits non-zero if any did.
 #
 #   npm test                      everything
-#   npm test -- --only types      tsc --noEmit only
+#   npm test -- --only types      tsc --noEmit and ESLint only
 #   npm test -- --only unit       vitest only (extra arguments go to vitest)
 #   npm test -- --only e2e smoke  Playwright only (extra arguments go to playwright test)
 #   WS_KEEP_SERVICES=1 npm test   leave PostgreSQL and maildev running afterwards (faster reruns)
@@ -79,6 +79,10 @@ run_types() {
   say "type-checking every workspace (tsc --noEmit)"
   if npm run --silent typecheck; then record "typecheck" passed $(( $(date +%s) - t ))
   else record "typecheck" failed $(( $(date +%s) - t )); fi
+  t=$(date +%s)
+  say "linting the repository (ESLint, import boundaries)"
+  if npm run --silent lint; then record "lint" passed $(( $(date +%s) - t ))
+  else record "lint" failed $(( $(date +%s) - t )); fi
 }
 
 run_unit() {

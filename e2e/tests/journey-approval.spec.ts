@@ -1,6 +1,6 @@
 import { fileURLToPath } from 'node:url';
 import { expect, test } from '@playwright/test';
-import { DESKTOP, PHONE, apiCall, context, decisionLink, expectLoaded, shot, signedIn } from './support/journey';
+import { apiCall, context, decisionLink, expectLoaded, shot, signedIn } from './support/journey';
 
 /**
  * The approval journey. An engineer at phone width records a spark plug gap outside the template's

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
-import { expect, test, type Browser, type Page } from '@playwright/test';
-import { DESKTOP, PHONE, apiCall, context, csrfOf, decisionLink, shot, signedIn } from './support/journey';
+import { expect, test, type Browser } from '@playwright/test';
+import { PHONE, apiCall, context, csrfOf, decisionLink, shot, signedIn } from './support/journey';
 
 /**
  * What the owner's e-mailed link does as the manager acts on the request. The manager sends two

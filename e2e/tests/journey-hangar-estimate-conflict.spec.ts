@@ -1,4 +1,4 @@
-import { expect, test, type Browser, type Page, type TestInfo } from '@playwright/test';
+import { expect, test, type Browser, type Page } from '@playwright/test';
 import { PASSWORD, shot } from './support/journey';
 
 /**

@@ -1,5 +1,5 @@
-import { expect, test, type APIRequestContext, type Page, type TestInfo } from '@playwright/test';
-import { MAILDEV, PASSWORD, PHONE, shot, signIn, type MaildevEmail } from './support/journey';
+import { expect, test, type APIRequestContext, type TestInfo } from '@playwright/test';
+import { MAILDEV, PHONE, shot, signIn, type MaildevEmail } from './support/journey';
 
 /**
  * A manager adds a new owner, their aircraft and a job, and invites the owner. The owner accepts

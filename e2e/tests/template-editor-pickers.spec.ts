@@ -1,4 +1,4 @@
-import { expect, test, type Page, type TestInfo } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import { PASSWORD, csrfOf, projectShot as shot } from './support/journey';
 
 /**

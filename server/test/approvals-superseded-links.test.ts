@@ -5,7 +5,7 @@ import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { decidePhotoUrl, type DecisionPageDto, type EstimateDto, type EstimateLineInputForm, type FindingPhotoDto, type SendForApprovalResultDto } from '@wingstage/shared';
 import { ApprovalRequest, boundSequelize } from '../src/models/index.js';
-import { decideTokenFromMail, sha256Hex, makeFinding, makeJob, mailsTo, makeWorkshop, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
+import { decideTokenFromMail, sha256Hex, makeFinding, makeJob, makeWorkshop, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
 let a: WorkshopFixture;

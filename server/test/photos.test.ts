@@ -8,7 +8,7 @@ import { PHOTO_LIMITS, decidePhotoUrl, photoUrl, type DecisionPageDto, type Esti
 import { createApp } from '../src/app.js';
 import { ApprovalRequest, AuditEvent, Finding, FindingPhoto, Job } from '../src/models/index.js';
 import type { PhotoStore } from '../src/storage/index.js';
-import { decideTokenFromMail, makeFinding, makeJob, makeWorkshop, mailsTo, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
+import { decideTokenFromMail, makeFinding, makeJob, makeWorkshop, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
 let a: WorkshopFixture;

@@ -1,4 +1,4 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 import type { EstimateStage, LineKind, VatRateCode } from '@wingstage/shared';
 
 /** Keyed by (job, id): the client makes line ids, and a line can only point within its own job. */

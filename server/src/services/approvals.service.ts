@@ -107,10 +107,6 @@ async function findingIdsOf(requestIds: string[], t?: Transaction): Promise<Map<
   return map;
 }
 
-async function dtoOf(r: ApprovalRequest, t?: Transaction): Promise<ApprovalRequestDto> {
-  return requestDto(r, (await findingIdsOf([r.id], t)).get(r.id) ?? []);
-}
-
 async function ownerContact(job: JobRow, t: Transaction): Promise<{ name: string; email: string }> {
   const c = await Customer.findOne({ where: { id: job.aircraft.customerId, workshopId: job.workshopId }, transaction: t });
   if (!c) throw notFound('The owner');

@@ -1,4 +1,4 @@
-import { Op, type Includeable, type Transaction, type WhereOptions } from 'sequelize';
+import { Op, type Transaction, type WhereOptions } from 'sequelize';
 import {
   JOB_STATE_LABELS,
   canTransition,
@@ -10,8 +10,8 @@ import {
 } from '@wingstage/shared';
 import type { z } from 'zod';
 import type { jobListQuerySchema, jobTransitionSchema, jobUpdateSchema } from '@wingstage/shared';
-import { AppError, forbidden, notFound, staleVersion } from '../errors/app-error.js';
-import { Aircraft, AuditEvent, Customer, Job, User, boundSequelize } from '../models/index.js';
+import { AppError, forbidden, staleVersion } from '../errors/app-error.js';
+import { Aircraft, AuditEvent, Job, User, boundSequelize } from '../models/index.js';
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';

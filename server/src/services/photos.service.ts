@@ -20,6 +20,7 @@ export interface UploadedFile {
 /** What the client sees of a file's name in a message: no paths, no control characters, not endless. */
 export function fileLabel(name: string | undefined): string {
   const base = (name ?? '').split(/[\\/]/).pop() ?? '';
+  // eslint-disable-next-line no-control-regex -- removing control characters is the point
   const clean = base.replace(/[\u0000-\u001f\u007f]/g, '').trim();
   if (!clean) return 'The file';
   return `“${clean.length > 80 ? `${clean.slice(0, 77)}…` : clean}”`;

@@ -36,12 +36,6 @@ export async function listUsers(scope: Scope, q: UserListQuery): Promise<Page<Us
   return { items: rows.map(toUserDto), total: count, page: q.page, pageSize: q.pageSize };
 }
 
-async function findManagedUser(scope: Scope, id: string): Promise<User> {
-  const user = await User.findOne({ where: visibleUsers(scope, { id }) });
-  if (!user) throw notFound('That user');
-  return user;
-}
-
 async function sendInvitation(deps: Deps, scope: Scope, user: User, t: import('sequelize').Transaction): Promise<void> {
   // Re-sending ends the earlier link: only the newest invitation works.
   await OneTimeToken.update({ usedAt: new Date() }, { where: { userId: user.id, purpose: 'invite', usedAt: null }, transaction: t });

@@ -28,6 +28,7 @@ declare module '@tanstack/react-table' {
 
 export interface ServerTableProps<T> {
   caption: string;
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any -- each column's value type differs; TanStack's own column arrays are typed this way
   columns: ColumnDef<T, any>[];
   rows: T[];
   total: number;
@@ -60,6 +61,7 @@ export function ListTable<T extends { id: string }>({
   busy,
 }: {
   caption: string;
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any -- each column's value type differs; TanStack's own column arrays are typed this way
   columns: ColumnDef<T, any>[];
   page: Page<T>;
   params: Pick<ListParams, 'sort' | 'dir'>;

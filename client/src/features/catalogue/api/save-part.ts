@@ -1,7 +1,7 @@
 import type { PartCreateInput, PartDto, PartUpdateInput } from '@wingstage/shared';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, isApiError } from '@/lib/api-client';
-import { partKeys } from './keys';
+import { partKeys } from '@/lib/catalogue-keys';
 
 export const createPart = (body: PartCreateInput) => api.post<PartDto>('/parts', body);
 export const updatePart = (id: string, body: PartUpdateInput) => api.patch<PartDto>(`/parts/${id}`, body);

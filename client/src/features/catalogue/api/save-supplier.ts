@@ -1,7 +1,7 @@
 import type { SupplierCreateInput, SupplierDto, SupplierUpdateInput } from '@wingstage/shared';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, isApiError } from '@/lib/api-client';
-import { supplierKeys } from './keys';
+import { supplierKeys } from '@/lib/catalogue-keys';
 
 export const createSupplier = (body: SupplierCreateInput) => api.post<SupplierDto>('/suppliers', body);
 export const updateSupplier = (id: string, body: SupplierUpdateInput) => api.patch<SupplierDto>(`/suppliers/${id}`, body);

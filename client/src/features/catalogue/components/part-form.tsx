@@ -11,7 +11,7 @@ import { isApiError } from '@/lib/api-client';
 import { withServerErrors } from '@/lib/form-errors';
 import { formatMoney, moneyForInput } from '@/lib/format';
 import { partSellPrice, vatRateLabel } from '@/lib/pricing-preview';
-import { supplierPickerSource, type SupplierOption } from '../api/catalogue-pickers';
+import { supplierPickerSource, type SupplierOption } from '@/lib/catalogue-pickers';
 import { useSavePart } from '../api/save-part';
 
 const LABELS = {

@@ -16,7 +16,7 @@ import { CategoryBadge } from '@/components/ui/finding-badges';
 import { CrossIcon } from '@/components/ui/icons';
 import { Notice } from '@/components/ui/notice';
 import { SearchPicker } from '@/components/ui/search-picker';
-import { partPickerSource, supplierPickerSource, type SupplierOption } from '@/features/catalogue/api/catalogue-pickers';
+import { partPickerSource, supplierPickerSource, type SupplierOption } from '@/lib/catalogue-pickers';
 import { formatMoney, moneyForInput } from '@/lib/format';
 import { LINE_KIND_LABELS, STAGE_LABELS } from '@/lib/line-kinds';
 import { VAT_RATE_LABELS } from '@/lib/pricing-preview';

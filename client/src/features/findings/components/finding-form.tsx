@@ -7,7 +7,7 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormErrorSummary } from '@/components/ui/notice';
 import { PickerField } from '@/components/ui/picker-field';
-import { partPickerSource } from '@/features/catalogue/api/catalogue-pickers';
+import { partPickerSource } from '@/lib/catalogue-pickers';
 import { withServerErrors } from '@/lib/form-errors';
 import { CategoryChoice } from './category-choice';
 import { PhotoPicker } from './photo-picker';

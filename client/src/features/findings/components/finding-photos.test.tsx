@@ -135,6 +135,7 @@ describe('photos on a finding card', () => {
       url = '';
       withCredentials = false;
       constructor() {
+        // eslint-disable-next-line @typescript-eslint/no-this-alias -- the test holds the request the component made
         xhr = this;
       }
       open(_m: string, url: string) {

@@ -1,7 +1,9 @@
-import type { AircraftDto } from '@wingstage/shared';
+import type { AircraftDto, Page } from '@wingstage/shared';
+import { queryOptions } from '@tanstack/react-query';
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { aircraftPickerSource } from '@/features/aircraft/api/aircraft-picker';
+import type { PickerSource } from '@/components/ui/search-picker';
+import { api } from '@/lib/api-client';
 import { renderWithApp } from '@/testing/render';
 import { BookInForm } from './job-form';
 
@@ -21,7 +23,13 @@ const base: AircraftDto = {
   createdAt: '2026-01-01T00:00:00.000Z',
 };
 const other: AircraftDto = { ...base, id: '2c3d4e5f-6a7b-4c8d-9e0f-1a2b3c4d5e6f', registration: 'Q-WREN', customerName: 'Bram Kettleworth' };
-const aircraft = aircraftPickerSource;
+// The form takes its aircraft source from the route; this one asks the same endpoints.
+const aircraft: PickerSource<AircraftDto> = {
+  search: (q) => queryOptions({ queryKey: ['aircraft', 'search', q], queryFn: () => api.get<Page<AircraftDto>>('/aircraft', { q: q || undefined, pageSize: 20 }) }),
+  byId: (id) => queryOptions({ queryKey: ['aircraft', 'one', id], queryFn: () => api.get<AircraftDto>(`/aircraft/${id}`) }),
+  id: (a) => a.id,
+  label: (a) => `${a.registration} — ${a.customerName}`,
+};
 const FLEET = [base, other];
 const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 

@@ -1,7 +1,7 @@
 import type { PartDto, SupplierDto, TemplateLineDto } from '@wingstage/shared';
 import { useQueries } from '@tanstack/react-query';
-import { partsQueryOptions } from '@/features/catalogue/api/get-parts';
-import { suppliersQueryOptions } from '@/features/catalogue/api/get-suppliers';
+import { partsQueryOptions } from '@/lib/catalogue-parts';
+import { suppliersQueryOptions } from '@/lib/catalogue-suppliers';
 
 /** The list endpoints answer `ids=` for at most this many records at once. */
 const IDS_PER_REQUEST = 100;

@@ -19,7 +19,7 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { PickerField } from '@/components/ui/picker-field';
 import { FormErrorSummary, Notice } from '@/components/ui/notice';
-import { partPickerSource, supplierPickerSource, type SupplierOption } from '@/features/catalogue/api/catalogue-pickers';
+import { partPickerSource, supplierPickerSource, type SupplierOption } from '@/lib/catalogue-pickers';
 import { useTemplateLineRecords } from '@/features/templates/api/get-line-records';
 import { LINE_KIND_LABELS } from '@/lib/line-kinds';
 import { isApiError } from '@/lib/api-client';

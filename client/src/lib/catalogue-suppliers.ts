@@ -2,7 +2,7 @@ import type { Page, SupplierDto } from '@wingstage/shared';
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { ListParams } from '@/lib/list-params';
-import { supplierKeys } from './keys';
+import { supplierKeys } from './catalogue-keys';
 
 export type SupplierListParams = Partial<ListParams> & { /** Comma-separated ids. */ ids?: string };
 

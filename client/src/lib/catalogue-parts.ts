@@ -2,7 +2,7 @@ import type { Page, PartDto } from '@wingstage/shared';
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { ListParams } from '@/lib/list-params';
-import { partKeys } from './keys';
+import { partKeys } from './catalogue-keys';
 
 export type PartListParams = Partial<ListParams> & { supplierId?: string; active?: 'true' | 'false'; /** Comma-separated ids. */ ids?: string };
 

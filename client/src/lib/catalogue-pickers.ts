@@ -1,7 +1,7 @@
 import type { PartDto, SupplierDto } from '@wingstage/shared';
 import { PICKER_PAGE_SIZE, type PickerSource } from '@/components/ui/search-picker';
-import { partsQueryOptions } from './get-parts';
-import { suppliersQueryOptions } from './get-suppliers';
+import { partsQueryOptions } from './catalogue-parts';
+import { suppliersQueryOptions } from './catalogue-suppliers';
 
 export type SupplierOption = Pick<SupplierDto, 'id' | 'name'> & Partial<Pick<SupplierDto, 'kind' | 'active'>>;
 
