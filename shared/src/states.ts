@@ -140,3 +140,62 @@ export const APPROVAL_REQUEST_TRANSITIONS: Record<ApprovalRequestState, readonly
   revoked: [],
   replaced: [],
 };
+
+/**
+ * Card payments (vocabulary.md, "payment"): one record per attempt to take money for a deposit or a
+ * balance. pending while the payer is on the payment page; failed when the card was declined (the
+ * payer may try again, so failed can go back to pending, or straight to succeeded when the webhooks
+ * arrive out of order); cancelled when the page expired or was closed unpaid; succeeded once the
+ * money is taken; refunds move it on. The processor's own states stay in its ids and events.
+ */
+export const PAYMENT_STATES = ['pending', 'succeeded', 'failed', 'cancelled', 'partially_refunded', 'refunded'] as const;
+export type PaymentState = (typeof PAYMENT_STATES)[number];
+
+export const PAYMENT_STATE_LABELS: Record<PaymentState, string> = {
+  pending: 'Waiting for payment',
+  succeeded: 'Paid',
+  failed: 'Card declined',
+  cancelled: 'Cancelled',
+  partially_refunded: 'Partly refunded',
+  refunded: 'Refunded',
+};
+
+export const PAYMENT_TRANSITIONS: Record<PaymentState, readonly PaymentState[]> = {
+  pending: ['succeeded', 'failed', 'cancelled'],
+  failed: ['pending', 'succeeded', 'cancelled'],
+  succeeded: ['partially_refunded', 'refunded'],
+  partially_refunded: ['refunded'],
+  cancelled: [],
+  refunded: [],
+};
+
+export function canMovePayment(from: PaymentState, to: PaymentState): TransitionCheck {
+  if (PAYMENT_TRANSITIONS[from].includes(to)) return { ok: true };
+  if (from === to) return { ok: false, reason: `The payment is already ${PAYMENT_STATE_LABELS[to].toLowerCase()}.` };
+  return {
+    ok: false,
+    reason: `A payment that is ${PAYMENT_STATE_LABELS[from].toLowerCase()} cannot become ${PAYMENT_STATE_LABELS[to].toLowerCase()}.`,
+  };
+}
+
+/** Thrown by assertPaymentMove; the server maps it to a 409 with the reason. */
+export class PaymentTransitionError extends Error {
+  constructor(
+    readonly from: PaymentState,
+    readonly to: PaymentState,
+    reason: string,
+  ) {
+    super(reason);
+    this.name = 'PaymentTransitionError';
+  }
+}
+
+/** For services: move or throw, so no write can skip the table above. */
+export function assertPaymentMove(from: PaymentState, to: PaymentState): void {
+  const check = canMovePayment(from, to);
+  if (!check.ok) throw new PaymentTransitionError(from, to, check.reason);
+}
+
+export function isTerminalPaymentState(state: PaymentState): boolean {
+  return PAYMENT_TRANSITIONS[state].length === 0;
+}
