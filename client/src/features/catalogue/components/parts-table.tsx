@@ -45,7 +45,7 @@ export function PartsTable({
         </span>
       ),
     }),
-    col.accessor('unitCost', { header: 'Cost', meta: { numeric: true, sortWords: ['lowest first', 'highest first'] }, cell: (c) => formatMoney(c.getValue(), currency) }),
+    col.accessor('unitCost', { header: 'Cost', meta: { numeric: true, sortWords: ['lowest first', 'highest first'] }, cell: (c) => formatMoney(c.getValue(), currency, { exact: true }) }),
     col.accessor('sellPrice', {
       header: 'Sell price excl. VAT',
       enableSorting: false,
