@@ -1,6 +1,6 @@
 import { randomBytes, randomUUID } from 'node:crypto';
 import type { Transaction } from 'sequelize';
-import { estimateEngineInput, priceEstimate } from '../../shared/src/index.js';
+import { estimateEngineInput, formatMoney, priceEstimate } from '../../shared/src/index.js';
 import { ApprovalRequest, AuditEvent, Customer, Finding, User, Workshop } from '../../server/src/models/index.js';
 import { buildSnapshot, sha256, snapshotHashOf } from '../../server/src/services/approvals.service.js';
 import { loadLines } from '../../server/src/services/estimates.service.js';
@@ -49,7 +49,7 @@ export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<s
     await AuditEvent.create(
       {
         workshopId: w.id, jobId: job.id, actorUserId: manager.id, action: 'approval.sent', at: sentAt, detail: { requestId: id },
-        summary: `Sent ${findings.map((f) => `F-${f.seq}`).join(', ')} to ${owner!.name} for approval: £${r.gross} incl. VAT`,
+        summary: `Sent ${findings.map((f) => `F-${f.seq}`).join(', ')} to ${owner!.name} for approval: ${formatMoney(r.gross, w.currency)} incl. VAT`,
       },
       { transaction: t },
     );

@@ -17,4 +17,5 @@ export * from './schemas/photos.js';
 export * from './checklist.js';
 // pricing engine (money.ts, pricing/) — exported below
 export * from './money.js';
+export * from './money-format.js';
 export * from './pricing/index.js';

@@ -1,21 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatDate, formatMoney, moneyForInput, todayIso } from './format';
-
-describe('formatMoney', () => {
-  it('shows the currency, thousands separators, pence and the VAT basis', () => {
-    expect(formatMoney('1234.5', 'GBP', { vat: 'incl' })).toBe('£1,234.50 incl. VAT');
-    expect(formatMoney('62.00', 'GBP', { vat: 'excl' })).toBe('£62.00 excl. VAT');
-  });
-
-  it('keeps every digit of a large amount that a float would round', () => {
-    expect(formatMoney('90071992547409.93')).toBe('£90,071,992,547,409.93');
-  });
-
-  it('shows a negative amount with a minus sign and leaves malformed input as it came', () => {
-    expect(formatMoney('-5')).toBe('−£5.00');
-    expect(formatMoney('about ten')).toBe('about ten');
-  });
-});
+import { formatDate, moneyForInput, todayIso } from './format';
 
 describe('dates', () => {
   it('reads a calendar date without shifting it across a time zone', () => {

@@ -1,17 +1,9 @@
 /**
- * Display-time formatting only. Money arrives as a decimal string and is never turned into a
- * JavaScript number: the string is split and grouped by hand so no float rounding can creep in.
+ * Money is formatted by shared's one formatter (decimal strings, `Intl.NumberFormat`, half-up at the
+ * currency's minor unit), the same one the e-mails and history use; re-exported so pages keep one
+ * import for display helpers.
  */
-export function formatMoney(amount: string, currency = 'GBP', opts: { vat?: 'incl' | 'excl' } = {}): string {
-  const m = /^(-)?(\d+)(?:\.(\d+))?$/.exec(amount.trim());
-  if (!m) return amount;
-  const [, neg, whole = '0', frac = ''] = m;
-  const pence = (frac + '00').slice(0, 2);
-  const grouped = whole.replace(/^0+(?=\d)/, '').replace(/\B(?=(\d{3})+(?!\d))/g, ',');
-  const symbol = currency === 'GBP' ? '£' : currency === 'EUR' ? '€' : `${currency} `;
-  const vat = opts.vat === 'incl' ? ' incl. VAT' : opts.vat === 'excl' ? ' excl. VAT' : '';
-  return `${neg ? '−' : ''}${symbol}${grouped}.${pence}${vat}`;
-}
+export { formatMoney, type MoneyFormatOptions } from '@wingstage/shared';
 
 const dateFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
 const dateTimeFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });

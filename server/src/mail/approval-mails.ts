@@ -1,8 +1,7 @@
-import type { ApprovalSnapshot, Decision } from '@wingstage/shared';
+import { formatMoney, type ApprovalSnapshot, type Decision } from '@wingstage/shared';
 import type { MailMessage } from './mail-queue.js';
 
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
-const money = (currency: string, amount: string) => (currency === 'GBP' ? `£${amount}` : `${amount} ${currency}`);
 const when = (d: Date) => d.toLocaleString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', hour: '2-digit', minute: '2-digit', timeZone: 'Europe/London' });
 
 function build(to: string, subject: string, paragraphs: string[], link: { href: string; label: string } | null): MailMessage {
@@ -29,7 +28,7 @@ export function approvalRequestMail(p: { to: string; ownerName: string; snapshot
     p.replacement
       ? `${s.workshopName} changed a price on work they asked you about for ${aircraftLine(s)}. This new request replaces the earlier one; the earlier link no longer works.`
       : `${s.workshopName} found work on ${aircraftLine(s)} that was not in the original quote and would like your decision.`,
-    `${count(s.findings.length)}, ${money(s.currency, s.totals.thisRequest.gross)} incl. VAT if you approve all of it. You can approve or decline each one on its own.`,
+    `${count(s.findings.length)}, ${formatMoney(s.totals.thisRequest.gross, s.currency)} incl. VAT if you approve all of it. You can approve or decline each one on its own.`,
     ...(s.message ? [`Message from the workshop: ${s.message}`] : []),
     `The link works until ${when(expires)}. It is for you alone: please do not forward this e-mail.`,
   ];
@@ -40,7 +39,7 @@ export function approvalReminderMail(p: { to: string; ownerName: string; snapsho
   const s = p.snapshot;
   const lines = [
     `Hello ${p.ownerName},`,
-    `A reminder from ${s.workshopName}: ${count(s.findings.length)} on ${aircraftLine(s)} (${money(s.currency, s.totals.thisRequest.gross)} incl. VAT in all) still wait for your decision. The work on them cannot start until you decide.`,
+    `A reminder from ${s.workshopName}: ${count(s.findings.length)} on ${aircraftLine(s)} (${formatMoney(s.totals.thisRequest.gross, s.currency)} incl. VAT in all) still wait for your decision. The work on them cannot start until you decide.`,
     `The link works until ${when(p.expiresAt)}.`,
   ];
   return build(p.to, `Reminder: ${s.registration} findings wait for your decision`, lines, { href: p.link, label: 'See the findings and decide' });
@@ -60,7 +59,7 @@ export function approvalReceiptMail(p: {
     `Hello ${p.typedName},`,
     `This is your record of the decisions you confirmed for ${aircraftLine(s)} at ${s.workshopName} on ${when(p.decidedAt)}.`,
     ...p.decisions.map(
-      (d) => `${d.finding.number} ${d.finding.title}: ${d.decision === 'approve' ? 'approved' : 'declined'}, ${money(s.currency, d.finding.price.gross)} incl. VAT${d.note ? ` (your note: ${d.note})` : ''}`,
+      (d) => `${d.finding.number} ${d.finding.title}: ${d.decision === 'approve' ? 'approved' : 'declined'}, ${formatMoney(d.finding.price.gross, s.currency)} incl. VAT${d.note ? ` (your note: ${d.note})` : ''}`,
     ),
     ...(p.declinedAirworthiness.length
       ? [
@@ -86,8 +85,8 @@ export function withinLimitReportMail(p: {
   const lines = [
     `Hello ${p.ownerName},`,
     `${p.workshopName} approved the following work on ${p.registration} (${p.jobTitle}) on your behalf, because it falls inside the limit you agreed with them in advance:`,
-    ...p.findings.map((f) => `${f.number} ${f.title} (${f.category}): ${money(p.currency, f.gross)} incl. VAT`),
-    ...(p.headroom !== null ? [`What is left of your limit for this job: ${money(p.currency, p.headroom)} incl. VAT.`] : []),
+    ...p.findings.map((f) => `${f.number} ${f.title} (${f.category}): ${formatMoney(f.gross, p.currency)} incl. VAT`),
+    ...(p.headroom !== null ? [`What is left of your limit for this job: ${formatMoney(p.headroom, p.currency)} incl. VAT.`] : []),
     'If anything here surprises you, contact the workshop before the work starts.',
   ];
   return build(p.to, `${p.registration}: work approved within your limit`, lines, { href: p.link, label: 'See the job' });

@@ -2,6 +2,7 @@ import { createHash, createHmac, randomBytes, randomUUID, timingSafeEqual } from
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { z } from 'zod';
 import {
+  formatMoney,
   Dec,
   FINDING_CATEGORY_LABELS,
   FINDING_STATE_LABELS,
@@ -75,7 +76,6 @@ function linkOf(deps: Deps, r: ApprovalRequest): string {
 
 // ─── Shared helpers ──────────────────────────────────────────────────────────
 
-const money = (currency: string, amount: string) => (currency === 'GBP' ? `£${amount}` : `${amount} ${currency}`);
 const num = (seq: number) => `F-${seq}`;
 
 export function requestDto(r: ApprovalRequest, findingIds: string[]): ApprovalRequestDto {
@@ -171,7 +171,7 @@ export async function putPreAuthorisation(scope: Scope, jobId: string, input: Pr
     const w = await loadWorkshop(scope, t);
     const fmt = (v: string | null) => (v === null ? null : formatAmount(new Dec(v), minorUnits(w.currency)));
     await job.update({ preAuthPerFinding: fmt(input.perFinding), preAuthPerJob: fmt(input.perJob), preAuthAgreedHow: input.agreedHow }, { transaction: t });
-    const describe = (v: string | null) => (v === null ? 'none' : money(w.currency, v));
+    const describe = (v: string | null) => (v === null ? 'none' : formatMoney(v, w.currency));
     await recordAudit(scope, t, {
       jobId: job.id,
       action: 'job.pre_authorisation_set',
@@ -321,7 +321,7 @@ async function createRequest(
   await recordAudit(scope, t, {
     jobId: job.id,
     action: kind === 'new' ? 'approval.sent' : 'approval.replacement_sent',
-    summary: `${kind === 'new' ? 'Sent' : 'Sent a replacement request for'} ${list} to ${owner.name} for approval: ${money(w.currency, r.gross)} incl. VAT; the link works until ${expiresAt.toISOString().slice(0, 10)}`,
+    summary: `${kind === 'new' ? 'Sent' : 'Sent a replacement request for'} ${list} to ${owner.name} for approval: ${formatMoney(r.gross, w.currency)} incl. VAT; the link works until ${expiresAt.toISOString().slice(0, 10)}`,
     detail: { requestId: id, findingIds: findings.map((f) => f.id), gross: r.gross, snapshotHash: r.snapshotHash },
   });
   await deps.mail.enqueue(
@@ -385,7 +385,7 @@ export async function sendForApproval(deps: Deps, scope: Scope, jobId: string, i
       await recordAudit(scope, t, {
         jobId: job.id,
         action: 'finding.approved_within_limit',
-        summary: `Approved within the owner's pre-authorised limit: ${approvedWithinLimit.map((a) => `${a.number} ${money(w.currency, a.gross)}`).join(', ')} incl. VAT`,
+        summary: `Approved within the owner's pre-authorised limit: ${approvedWithinLimit.map((a) => `${a.number} ${formatMoney(a.gross, w.currency)}`).join(', ')} incl. VAT`,
         detail: { findings: approvedWithinLimit, headroom: limit.headroom },
       });
       const owner = await ownerContact(job, t);

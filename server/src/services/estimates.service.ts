@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { z } from 'zod';
 import {
+  formatMoney,
   ESTIMATE_STAGES,
   FINDING_STATE_LABELS,
   estimateEngineInput,
@@ -112,7 +113,6 @@ export async function getEstimate(scope: Scope, jobId: string): Promise<Estimate
   return scope.role === 'owner' ? forOwner(dto) : dto;
 }
 
-const money = (currency: string, amount: string) => (currency === 'GBP' ? `£${amount}` : `${amount} ${currency}`);
 
 const SAME_FIELDS: (keyof EstimateLineDto)[] = [
   'stage', 'kind', 'description', 'quantity', 'labourRateCode', 'ratePerHour', 'partId', 'supplierId', 'unitCost',
@@ -232,8 +232,8 @@ export async function saveEstimate(
 
     const after = await estimateDto(scope, job.id, t);
     const changed = countChanged(editableBefore, input.lines as EstimateLineDto[]);
-    const from = money(w.currency, before.ifAllApproved.gross);
-    const to = money(w.currency, after.priced.ifAllApproved.gross);
+    const from = formatMoney(before.ifAllApproved.gross, w.currency);
+    const to = formatMoney(after.priced.ifAllApproved.gross, w.currency);
     await recordAudit(scope, t, {
       jobId: job.id,
       action: 'estimate.saved',

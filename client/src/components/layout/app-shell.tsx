@@ -10,6 +10,21 @@ const navLinkClass = ({ isActive }: { isActive: boolean }) =>
     isActive ? 'bg-harbour text-on-harbour' : 'text-slate hover:bg-cloth-sunk'
   }`;
 
+/** The main places for this role: the same links in the wide bar and in the phone menu. */
+function NavList({ items, className }: { items: ReturnType<typeof navFor>; className: string }) {
+  return (
+    <ul className={className}>
+      {items.map((it) => (
+        <li key={it.to}>
+          <NavLink to={it.to} className={navLinkClass}>
+            {it.label}
+          </NavLink>
+        </li>
+      ))}
+    </ul>
+  );
+}
+
 export function AppShell({ session, onSignOut, signingOut, children }: { session: SessionDto; onSignOut: () => void; signingOut?: boolean; children: ReactNode }) {
   const [open, setOpen] = useState(false);
   const location = useLocation();
@@ -49,15 +64,7 @@ export function AppShell({ session, onSignOut, signingOut, children }: { session
           </Link>
           <span className="hidden border-l border-seam pl-4 text-sm text-slate-soft 2xl:inline">{session.workshop.name}</span>
           <nav aria-label="Main" className="ml-auto hidden lg:block">
-            <ul className="flex items-center gap-1">
-              {items.map((it) => (
-                <li key={it.to}>
-                  <NavLink to={it.to} className={navLinkClass}>
-                    {it.label}
-                  </NavLink>
-                </li>
-              ))}
-            </ul>
+            <NavList items={items} className="flex items-center gap-1" />
           </nav>
           <div className="hidden items-center gap-3 lg:flex">
             <span className="text-right text-sm leading-tight whitespace-nowrap">
@@ -86,15 +93,7 @@ export function AppShell({ session, onSignOut, signingOut, children }: { session
               <span className="block text-slate-soft">{session.workshop.name}</span>
             </p>
             <nav aria-label="Main">
-              <ul className="flex flex-col gap-1">
-                {items.map((it) => (
-                  <li key={it.to}>
-                    <NavLink to={it.to} className={navLinkClass}>
-                      {it.label}
-                    </NavLink>
-                  </li>
-                ))}
-              </ul>
+              <NavList items={items} className="flex flex-col gap-1" />
             </nav>
             <div className="mt-3">{signOutButton}</div>
           </div>

@@ -214,6 +214,21 @@ export function ServerTable<T>({ caption, columns, rows, total, page, pageSize, 
 }
 
 /** A search box that waits for a pause in typing before asking the server. */
+/**
+ * A row's name, as a button that opens the row for editing when the person may edit, else as text.
+ * Screen readers hear "(edit)" after the name, so the button says what it does.
+ */
+export function EditableName({ name, onEdit }: { name: ReactNode; onEdit?: () => void }) {
+  return onEdit ? (
+    <button type="button" className="min-h-8 text-left font-semibold text-harbour-deep underline underline-offset-2" onClick={onEdit}>
+      {name}
+      <span className="sr-only"> (edit)</span>
+    </button>
+  ) : (
+    <span className="font-semibold">{name}</span>
+  );
+}
+
 export function SearchBox({ value, onChange, label }: { value: string; onChange: (q: string) => void; label: string }) {
   const [draft, setDraft] = useState(value);
   const id = useId();

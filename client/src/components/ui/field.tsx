@@ -62,6 +62,11 @@ function describedBy(id: string, hint?: ReactNode, error?: string): string | und
   return ids || undefined;
 }
 
+/** What every control carries: its id, whether it is in error, and the hint and error that describe it. */
+function controlAria(id: string, hint: ReactNode, error: string | undefined, required: boolean | undefined) {
+  return { id, 'aria-invalid': error ? true : undefined, 'aria-describedby': describedBy(id, hint, error), 'aria-required': required || undefined };
+}
+
 type Common = { label: string; hint?: ReactNode; error?: string };
 
 export const TextField = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLInputElement> & Common>(function TextField(
@@ -74,10 +79,7 @@ export const TextField = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLIn
     <FieldShell id={id} label={label} hint={hint} error={error} required={required}>
       <input
         ref={ref}
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(id, hint, error)}
-        aria-required={required || undefined}
+        {...controlAria(id, hint, error, required)}
         className={`${control} ${className}`}
         {...rest}
       />
@@ -95,10 +97,7 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HT
     <FieldShell id={id} label={label} hint={hint} error={error} required={required}>
       <select
         ref={ref}
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(id, hint, error)}
-        aria-required={required || undefined}
+        {...controlAria(id, hint, error, required)}
         className={`${control} ${className}`}
         {...rest}
       >
@@ -118,10 +117,8 @@ export const TextAreaField = forwardRef<HTMLTextAreaElement, TextareaHTMLAttribu
     <FieldShell id={id} label={label} hint={hint} error={error} required={required}>
       <textarea
         ref={ref}
-        id={id}
         rows={4}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(id, hint, error)}
+        {...controlAria(id, hint, error, required)}
         className={`${control} ${className}`}
         {...rest}
       />

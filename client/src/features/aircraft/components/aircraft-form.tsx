@@ -54,11 +54,7 @@ export function AircraftForm<O>({
   });
   const e = formState.errors;
 
-  const submit = handleSubmit(
-    withServerErrors(setError, setSummary, Object.keys(AIRCRAFT_LABELS), async (values) => {
-      await onSubmit(values);
-    }),
-  );
+  const submit = handleSubmit(withServerErrors(setError, setSummary, Object.keys(AIRCRAFT_LABELS), onSubmit));
 
   return (
     <form onSubmit={submit} noValidate className="flex max-w-2xl flex-col gap-4">

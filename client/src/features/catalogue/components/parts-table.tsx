@@ -1,6 +1,6 @@
 import type { Page, PartDto } from '@wingstage/shared';
 import { createColumnHelper } from '@tanstack/react-table';
-import { ListTable } from '@/components/ui/data-table';
+import { EditableName, ListTable } from '@/components/ui/data-table';
 import { formatMoney } from '@/lib/format';
 import type { ListParams } from '@/lib/list-params';
 import { VAT_RATE_LABELS } from '@/lib/pricing-preview';
@@ -26,15 +26,7 @@ export function PartsTable({
     col.accessor('partNumber', {
       header: 'Part number',
       meta: { primary: true },
-      cell: (c) =>
-        onEdit ? (
-          <button type="button" className="min-h-8 text-left font-semibold text-harbour-deep underline underline-offset-2" onClick={() => onEdit(c.row.original)}>
-            {c.getValue()}
-            <span className="sr-only"> (edit)</span>
-          </button>
-        ) : (
-          <span className="font-semibold">{c.getValue()}</span>
-        ),
+      cell: (c) => <EditableName name={c.getValue()} onEdit={onEdit ? () => onEdit(c.row.original) : undefined} />,
     }),
     col.accessor('description', {
       header: 'Description',
@@ -45,7 +37,7 @@ export function PartsTable({
         </span>
       ),
     }),
-    col.accessor('unitCost', { header: 'Cost', meta: { numeric: true, sortWords: ['lowest first', 'highest first'] }, cell: (c) => formatMoney(c.getValue(), currency) }),
+    col.accessor('unitCost', { header: 'Cost', meta: { numeric: true, sortWords: ['lowest first', 'highest first'] }, cell: (c) => formatMoney(c.getValue(), currency, { exact: true }) }),
     col.accessor('sellPrice', {
       header: 'Sell price excl. VAT',
       enableSorting: false,

@@ -1,6 +1,6 @@
 import { SUPPLIER_KIND_LABELS, type Page, type SupplierDto } from '@wingstage/shared';
 import { createColumnHelper } from '@tanstack/react-table';
-import { ListTable } from '@/components/ui/data-table';
+import { EditableName, ListTable } from '@/components/ui/data-table';
 import type { ListParams } from '@/lib/list-params';
 
 const col = createColumnHelper<SupplierDto>();
@@ -22,15 +22,7 @@ export function SuppliersTable({
     col.accessor('name', {
       header: 'Name',
       meta: { primary: true },
-      cell: (c) =>
-        onEdit ? (
-          <button type="button" className="min-h-8 text-left font-semibold text-harbour-deep underline underline-offset-2" onClick={() => onEdit(c.row.original)}>
-            {c.getValue()}
-            <span className="sr-only"> (edit)</span>
-          </button>
-        ) : (
-          <span className="font-semibold">{c.getValue()}</span>
-        ),
+      cell: (c) => <EditableName name={c.getValue()} onEdit={onEdit ? () => onEdit(c.row.original) : undefined} />,
     }),
     col.accessor('kind', { header: 'What they do', cell: (c) => SUPPLIER_KIND_LABELS[c.getValue()] }),
     col.accessor('email', { header: 'E-mail', enableSorting: false, cell: (c) => c.getValue() || '—' }),

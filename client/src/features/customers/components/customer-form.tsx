@@ -37,11 +37,7 @@ export function CustomerForm({
   });
   const e = formState.errors;
 
-  const submit = handleSubmit(
-    withServerErrors(setError, setSummary, Object.keys(CUSTOMER_LABELS), async (values) => {
-      await onSubmit(values);
-    }),
-  );
+  const submit = handleSubmit(withServerErrors(setError, setSummary, Object.keys(CUSTOMER_LABELS), onSubmit));
 
   return (
     <form onSubmit={submit} noValidate className="flex max-w-2xl flex-col gap-4">

@@ -235,6 +235,20 @@ function ReadLine({ line, net, currency, finding, declined }: { line: EstimateLi
   );
 }
 
+/** The workshop's labour rates as a select's options; "Own rate" only while the line has one. */
+function LabourRateOptions({ rates, ownRate, currency }: { rates: WorkshopDto['labourRates']; ownRate: boolean; currency: string }) {
+  return (
+    <>
+      {ownRate ? <option value="">Own rate</option> : null}
+      {rates.map((r) => (
+        <option key={r.code} value={r.code}>
+          {r.name} · {formatMoney(r.ratePerHour, currency)}/h
+        </option>
+      ))}
+    </>
+  );
+}
+
 function Small({ label, children, wide, full }: { label: string; children: (id: string) => ReactNode; wide?: boolean; full?: boolean }) {
   const id = useId();
   return (
@@ -300,12 +314,7 @@ function EditableLine({
                     set({ labourRateCode: r?.code ?? null, ratePerHour: r?.ratePerHour ?? l.ratePerHour });
                   }}
                 >
-                  {l.labourRateCode === null ? <option value="">Own rate</option> : null}
-                  {workshop.labourRates.map((r) => (
-                    <option key={r.code} value={r.code}>
-                      {r.name} · {formatMoney(r.ratePerHour, currency)}/h
-                    </option>
-                  ))}
+                  <LabourRateOptions rates={workshop.labourRates} ownRate={l.labourRateCode === null} currency={currency} />
                 </select>
               )}
             </Small>
@@ -456,12 +465,7 @@ function AccessTasks({ api, workshop, editable, currency }: { api: EstimateDraft
                           if (r) api.updateTask(t.id, { labourRateCode: r.code, ratePerHour: r.ratePerHour });
                         }}
                       >
-                        {t.labourRateCode === null ? <option value="">Own rate</option> : null}
-                        {workshop.labourRates.map((r) => (
-                          <option key={r.code} value={r.code}>
-                            {r.name} · {formatMoney(r.ratePerHour, currency)}/h
-                          </option>
-                        ))}
+                        <LabourRateOptions rates={workshop.labourRates} ownRate={t.labourRateCode === null} currency={currency} />
                       </select>
                     )}
                   </Small>

@@ -38,11 +38,7 @@ export function BookInForm<A>({
   });
   const e = formState.errors;
 
-  const submit = handleSubmit(
-    withServerErrors(setError, setSummary, Object.keys(LABELS), async (values) => {
-      await onSubmit(values);
-    }),
-  );
+  const submit = handleSubmit(withServerErrors(setError, setSummary, Object.keys(LABELS), onSubmit));
 
   return (
     <form onSubmit={submit} noValidate className="flex max-w-2xl flex-col gap-4">
