@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { PAYMENT_STATES, PAYMENT_STATE_LABELS, PaymentTransitionError, assertPaymentMove, canMovePayment, isTerminalPaymentState, type PaymentState } from '../src/states.js';
+import { PAYMENT_STATES, PAYMENT_STATE_LABELS, StateMoveError, assertPaymentMove, canMovePayment, isTerminalPaymentState, type PaymentState } from '../src/states.js';
 
 describe('payment state machine', () => {
   it('when a card payment is taken and then refunded in two parts, then every step is allowed', () => {
@@ -41,7 +41,7 @@ describe('payment state machine', () => {
         return e;
       }
     })();
-    expect(err).toBeInstanceOf(PaymentTransitionError);
+    expect(err).toBeInstanceOf(StateMoveError);
     expect(err).toMatchObject({ from: 'refunded', to: 'succeeded', message: 'A payment that is refunded cannot become paid.' });
   });
 });

@@ -1,18 +1,54 @@
-import type { ApprovalSnapshot, DecisionPageDto, Totals } from '@wingstage/shared';
+import {
+  QUOTE_ITEM_ID,
+  choiceBasisFrom,
+  priceChoice,
+  priceEstimate,
+  type ApprovalSnapshot,
+  type Choice,
+  type DecisionPageDto,
+  type EstimateLineInput,
+  type VatRounding,
+} from '@wingstage/shared';
 import { act, fireEvent, render, screen, within } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
 import { ApiError } from '@/lib/api-client';
+import { formatMoney } from '@/lib/format';
 import { DecisionPage } from './decision-page';
 import { runningTotal } from './running-total';
-
-const totals = (net: string, vat: string, gross: string): Totals => ({ net, vat, gross, byRate: [{ code: 'standard', rate: '20', net, vat }] });
 
 const PLUG = '2f0e7a1c-3b4d-4e5f-8a6b-7c8d9e0f1a2b';
 const SPRING = '8a9b0c1d-2e3f-4a5b-9c6d-7e8f9a0b1c2d';
 const HOSE = 'c3d4e5f6-a7b8-4c9d-8e0f-1a2b3c4d5e6f';
+const COWL = '5e6f7a8b-9c0d-4e1f-8a2b-3c4d5e6f7a8b';
 
-function snapshot(over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot {
+const FINDINGS: Record<string, Omit<ApprovalSnapshot['findings'][number], 'findingId' | 'photos' | 'lines' | 'gross'>> = {
+  [PLUG]: {
+    number: 'F-1',
+    title: 'Spark plug gap over the wear limit',
+    category: 'recommended' as const,
+    location: 'Engine, cylinder 1',
+    seen: 'Gap measured wide.',
+    measuredValue: '0.9800',
+    limit: { min: null, max: '0.9', unit: 'mm' as const, source: 'Example for the demo' },
+  },
+  [SPRING]: { number: 'F-2', title: 'Exhaust spring cracked', category: 'airworthiness' as const, location: 'Exhaust, rear cylinder', seen: 'Cracked at the hook.', measuredValue: null, limit: null },
+  [HOSE]: { number: 'F-3', title: 'Fuel hose hardened', category: 'advisory' as const, location: 'Fuel line, left', seen: 'Hose stiff.', measuredValue: null, limit: null },
+};
+
+/**
+ * A version-3 snapshot built the way the server builds one: the engine prices the estimate, the
+ * basis comes from its result, and every stored figure is priceChoice with everything approved.
+ */
+function snapshotOf(p: { rounding?: VatRounding; committed: EstimateLineInput[]; findings: { id: string; lines: EstimateLineInput[] }[]; cowl?: boolean }): ApprovalSnapshot {
+  const rounding = p.rounding ?? 'line-nearest';
+  const pricing = { currency: 'GBP', vatRounding: rounding, vatRates: { standard: '20', reduced: '5', zero: '0' }, partsMarkupPercent: '20', subcontractMarkupPercent: '10' };
+  const lines = [...p.committed, ...p.findings.flatMap((f) => f.lines)];
+  const priced = priceEstimate({ lines, accessTasks: p.cowl ? [{ id: COWL, hours: '0.25', ratePerHour: '62.00', vatRate: 'standard' }] : [] }, pricing);
+  const basis = choiceBasisFrom(priced, { quote: false, findingIds: p.findings.map((f) => f.id) }, pricing.vatRates, () => 'Cowling off');
+  const all = priceChoice(basis, Object.fromEntries(basis.items.map((i) => [i.id, 'approve' as const])));
+  const net = new Map(priced.lines.map((l) => [l.id, l.net]));
   return {
+    version: 3,
     requestId: '0b1c2d3e-4f5a-4b6c-8d7e-9f0a1b2c3d4e',
     jobId: '1c2d3e4f-5a6b-4c7d-8e9f-0a1b2c3d4e5f',
     jobNumber: 'J-0042',
@@ -22,64 +58,45 @@ function snapshot(over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot {
     ownerName: 'Hazel Brambury',
     workshopName: 'Brackenfold Light Aircraft Engineering',
     currency: 'GBP',
-    rounding: 'line-nearest',
+    rounding,
     message: 'Two things turned up.',
     sentAt: '2026-12-01T10:00:00Z',
     expiresAt: '2026-12-08T10:00:00Z',
-    findings: [
-      {
-        findingId: PLUG,
-        number: 'F-1',
-        title: 'Spark plug gap over the wear limit',
-        category: 'recommended',
-        location: 'Engine, cylinder 1',
-        seen: 'Gap measured wide.',
-        measuredValue: '0.9800',
-        limit: { min: null, max: '0.9', unit: 'mm', source: 'Example for the demo' },
-        photos: [],
-        lines: [{ description: 'Fit new plugs', kind: 'labour', quantity: '0.5', net: '31.00' }],
-        price: totals('63.64', '12.73', '76.37'),
-        accessCovered: ['Cowling off'],
-        accessSavingGross: '18.60',
-      },
-      {
-        findingId: SPRING,
-        number: 'F-2',
-        title: 'Exhaust spring cracked',
-        category: 'airworthiness',
-        location: 'Exhaust, rear cylinder',
-        seen: 'Cracked at the hook.',
-        measuredValue: null,
-        limit: null,
-        photos: [],
-        lines: [{ description: 'Replace spring', kind: 'labour', quantity: '0.5', net: '31.00' }],
-        price: totals('31.00', '6.20', '37.20'),
-        accessCovered: [],
-        accessSavingGross: '0.00',
-      },
-      {
-        findingId: HOSE,
-        number: 'F-3',
-        title: 'Fuel hose hardened',
-        category: 'advisory',
-        location: 'Fuel line, left',
-        seen: 'Hose stiff.',
-        measuredValue: null,
-        limit: null,
-        photos: [],
-        lines: [],
-        price: totals('10.01', '2.00', '12.01'),
-        accessCovered: [],
-        accessSavingGross: '0.00',
-      },
-    ],
+    basis,
+    quote: null,
+    findings: p.findings.map((f) => ({
+      findingId: f.id,
+      ...FINDINGS[f.id]!,
+      photos: [],
+      lines: f.lines.map((l) => ({ description: `Work on ${FINDINGS[f.id]!.number}`, kind: l.kind, quantity: '1', net: net.get(l.id)!, vatRate: l.vatRate, accessTaskId: l.accessTaskId ?? null })),
+      gross: all.items.find((i) => i.id === f.id)!.allApprovedGross,
+    })),
     totals: {
-      quoted: totals('463.44', '92.69', '556.13'),
-      approvedSoFar: totals('463.44', '92.69', '556.13'),
-      // Less than the three prices added up: shared opening-up is charged once across the request.
-      thisRequest: totals('100.00', '20.00', '120.00'),
-      undecidedElsewhere: totals('5.00', '1.00', '6.00'),
+      quoted: priced.quoted,
+      agreedSoFar: all.agreedSoFar,
+      ifAllApproved: all.ifAllApproved,
+      approvingNow: all.approvingNow,
+      openingUp: all.openingUp.map((o) => ({ id: o.id, name: o.name, gross: o.allApprovedGross, neededBy: o.neededBy })),
     },
+  };
+}
+
+const inspection: EstimateLineInput = { id: 'i1', stage: 'inspection', agreed: true, kind: 'labour', hours: '7.5', ratePerHour: '61.79', vatRate: 'standard' };
+const fee = (id: string, findingId: string, amount: string, access = false): EstimateLineInput => ({
+  id, stage: 'discovered', findingId, kind: 'fee', amount, vatRate: 'standard', accessTaskId: access ? COWL : null,
+});
+
+function snapshot(over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot {
+  return {
+    ...snapshotOf({
+      committed: [inspection],
+      findings: [
+        { id: PLUG, lines: [fee('p', PLUG, '31.00', true)] },
+        { id: SPRING, lines: [fee('s', SPRING, '31.00', true)] },
+        { id: HOSE, lines: [fee('h', HOSE, '10.01')] },
+      ],
+      cowl: true,
+    }),
     ...over,
   };
 }
@@ -98,32 +115,26 @@ const page = (over: Partial<DecisionPageDto> = {}): DecisionPageDto => ({
   ...over,
 });
 
-// These snapshots predate the pricing basis: the page adds up the findings' own prices.
-describe('runningTotal for a snapshot without a pricing basis', () => {
-  it('when nothing is chosen yet, then this request counts nothing and every price is undecided, plus the work awaiting a decision elsewhere', () => {
-    const t = runningTotal(snapshot(), {});
-    // The whole request undecided is the engine's request total (120.00, shared opening-up once) plus 6.00 elsewhere.
-    expect(t).toMatchObject({ quoted: '556.13', approvedSoFar: '556.13', thisRequestAsChosen: '0.00', undecided: '126.00', newTotal: '556.13', sharesOpeningUp: true, exact: false, chosen: 0, of: 3 });
-  });
+const gbp = (a: string) => formatMoney(a, 'GBP');
 
-  it('when some findings are approved and one declined, then the sums are exact to the penny from the snapshot figures', () => {
-    const t = runningTotal(snapshot(), { [PLUG]: 'approve', [SPRING]: 'decline' });
-    // 76.37 approved; 12.01 still open + 6.00 elsewhere; 556.13 + 76.37.
-    expect(t).toMatchObject({ thisRequestAsChosen: '76.37', undecided: '18.01', newTotal: '632.50', chosen: 2 });
-  });
-
-  it("when every finding is approved, then the engine's own request total is used, so shared opening-up is not counted twice", () => {
-    const t = runningTotal(snapshot(), { [PLUG]: 'approve', [SPRING]: 'approve', [HOSE]: 'approve' });
-    expect(t.thisRequestAsChosen).toBe('120.00');
-    expect(t.newTotal).toBe('676.13');
-    expect(t.undecided).toBe('6.00');
-  });
-
-  it('when figures would drift as floats (0.1 + 0.2), then the decimal sum stays exact', () => {
+describe('runningTotal reads priceChoice', () => {
+  it('when nothing is chosen yet, then nothing is approved now and the whole request is still to decide', () => {
     const s = snapshot();
-    s.findings[0]!.price = totals('0.10', '0.00', '0.10');
-    s.findings[1]!.price = totals('0.20', '0.00', '0.20');
-    expect(runningTotal(s, { [PLUG]: 'approve', [SPRING]: 'approve' }).thisRequestAsChosen).toBe('0.30');
+    const t = runningTotal(s, {});
+    expect(t).toMatchObject({ approvedSoFar: s.totals.agreedSoFar.gross, thisRequestAsChosen: '0.00', newTotal: s.totals.agreedSoFar.gross, undecided: s.totals.approvingNow.gross, chosen: 0, of: 3 });
+  });
+
+  it('when some items are chosen, then every figure is priceChoice’s, and what is approved adds up to the new total', () => {
+    const s = snapshot();
+    const choice: Choice = { [PLUG]: 'approve', [SPRING]: 'decline' };
+    const t = runningTotal(s, choice);
+    const p = priceChoice(s.basis, choice);
+    expect(t).toMatchObject({ thisRequestAsChosen: p.approvingNow.gross, newTotal: p.newTotal.gross, undecided: p.undecidedGross, chosen: 2 });
+    expect(t.addsToTotal).toBe(t.thisRequestAsChosen);
+  });
+
+  it('when a kept choice names an item the request does not hold (the quote here), then it is ignored rather than refused', () => {
+    expect(runningTotal(snapshot(), { [QUOTE_ITEM_ID]: 'approve' }).chosen).toBe(0);
   });
 });
 
@@ -132,16 +143,16 @@ function choose(name: 'Approve' | 'Decline') {
 }
 
 describe('DecisionPage', () => {
-  it('shows one finding at a time with its category, measurement, price incl. VAT and the access saving in words', () => {
+  it('shows one finding at a time with its category, measurement and its fixed price incl. VAT', () => {
+    const s = snapshot();
     render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
     expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
     expect(screen.getAllByTestId('decide-finding')).toHaveLength(1);
     expect(screen.getByText('Recommended')).toBeTruthy();
     expect(screen.getByText('0.98 mm; the example limit is at most 0.9 mm')).toBeTruthy();
-    expect(within(screen.getByTestId('decide-price')).getByText('£76.37 incl. VAT')).toBeTruthy();
-    expect(within(screen.getByTestId('decide-price')).getByText('£63.64 excl. VAT')).toBeTruthy();
-    expect(screen.getByText(/“Cowling off”.*saves you £18\.60 incl\. VAT/)).toBeTruthy();
-    expect(within(screen.getByTestId('running-total')).getByText('£556.13', { selector: '[data-total="quoted"]' })).toBeTruthy();
+    expect(within(screen.getByTestId('decide-price')).getByText(`${gbp(s.findings[0]!.gross)} incl. VAT`)).toBeTruthy();
+    // Inspection 7.5 h × £61.79 = £463.43 (463.425 rounded half up), VAT £92.69 → £556.12.
+    expect(within(screen.getByTestId('running-total')).getByText('£556.12', { selector: '[data-total="quoted"]' })).toBeTruthy();
   });
 
   it('when an airworthiness finding is declined, then the page says plainly that the aircraft cannot be released with it open and that the inspector decides', () => {
@@ -159,7 +170,7 @@ describe('DecisionPage', () => {
     expect(screen.queryByText(/cannot be released/)).toBeNull();
   });
 
-  it('when the owner reviews and confirms, then the hash, every decision with its note and the typed name are sent', async () => {
+  it('when the owner reviews and confirms, then the hash, every decision by item with its note and the typed name are sent', async () => {
     const onSubmit = vi.fn().mockResolvedValue(undefined);
     render(<DecisionPage token={TOKEN} page={page()} onSubmit={onSubmit} />);
     choose('Approve');
@@ -187,9 +198,9 @@ describe('DecisionPage', () => {
       snapshotHash: HASH,
       typedName: 'Hazel Brambury',
       decisions: [
-        { findingId: PLUG, decision: 'approve', note: '' },
-        { findingId: SPRING, decision: 'decline', note: 'Spring from our stores.' },
-        { findingId: HOSE, decision: 'approve', note: '' },
+        { itemId: PLUG, decision: 'approve', note: '' },
+        { itemId: SPRING, decision: 'decline', note: 'Spring from our stores.' },
+        { itemId: HOSE, decision: 'approve', note: '' },
       ],
     });
   });
@@ -197,7 +208,8 @@ describe('DecisionPage', () => {
   it('when the server refuses because the workshop changed something, then the reason is shown with a way to reload', async () => {
     const onSubmit = vi.fn().mockRejectedValue(new ApiError({ code: 'conflict', status: 409, message: 'The workshop changed something on this request: reload the page to see the latest.' }));
     const onReload = vi.fn();
-    render(<DecisionPage token={TOKEN} page={page({ snapshot: snapshot({ findings: snapshot().findings.slice(0, 1) }) })} onSubmit={onSubmit} onReload={onReload} />);
+    const one = snapshotOf({ committed: [inspection], findings: [{ id: PLUG, lines: [fee('p', PLUG, '31.00')] }] });
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: one })} onSubmit={onSubmit} onReload={onReload} />);
     choose('Approve');
     fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
     fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
@@ -215,7 +227,8 @@ describe('DecisionPage', () => {
     expect(screen.queryByRole('radio')).toBeNull();
   });
 
-  it('when the request is decided, then a receipt lists each decision, who made it and when', () => {
+  it('when the request is decided, then a receipt lists each decision, who made it and when, with the new total priceChoice gives', () => {
+    const s = snapshot();
     render(
       <DecisionPage
         token={TOKEN}
@@ -223,9 +236,9 @@ describe('DecisionPage', () => {
           state: 'decided',
           closedReason: 'You decided this request on 1 Dec 2026.',
           decisions: [
-            { findingId: PLUG, decision: 'approve', note: '' },
-            { findingId: SPRING, decision: 'decline', note: 'Later.' },
-            { findingId: HOSE, decision: 'decline', note: '' },
+            { itemId: PLUG, decision: 'approve', note: '' },
+            { itemId: SPRING, decision: 'decline', note: 'Later.' },
+            { itemId: HOSE, decision: 'decline', note: '' },
           ],
           decidedByName: 'Hazel Brambury',
           decidedAt: '2026-12-01T12:30:00Z',
@@ -237,7 +250,8 @@ describe('DecisionPage', () => {
     expect(receipt.textContent).toContain('Thank you, Hazel Brambury.');
     expect(receipt.textContent).toContain('Your note: Later.');
     expect(receipt.textContent).toContain('Q-SALT cannot be released to fly while it is open');
-    expect(within(receipt).getByText('£632.50', { selector: '[data-total="new-total"]' })).toBeTruthy();
+    const newTotal = priceChoice(s.basis, { [PLUG]: 'approve', [SPRING]: 'decline', [HOSE]: 'decline' }).newTotal.gross;
+    expect(within(receipt).getByText(gbp(newTotal), { selector: '[data-total="new-total"]' })).toBeTruthy();
   });
 });
 
@@ -309,41 +323,23 @@ describe('DecisionPage photos', () => {
   });
 });
 
-describe('DecisionPage running total with a pricing basis', () => {
-  it('when one of two findings sharing opening-up is approved, then the bar shows the engine figure and no "may come out lower" note', () => {
-    const COWL = '5e6f7a8b-9c0d-4e1f-8a2b-3c4d5e6f7a8b';
-    const base = snapshot();
-    const s: ApprovalSnapshot = {
-      ...base,
-      findings: [
-        { ...base.findings[0]!, lines: [{ description: 'Fit new plugs', kind: 'labour', quantity: '0.5', net: '31.00', vatRate: 'standard', accessTaskId: COWL }], price: totals('46.50', '9.30', '55.80') },
-        { ...base.findings[1]!, lines: [{ description: 'Replace spring', kind: 'labour', quantity: '0.5', net: '31.00', vatRate: 'standard', accessTaskId: COWL }], price: totals('46.50', '9.30', '55.80') },
-      ],
-      pricingBasis: { vatRates: { standard: '20', reduced: '5', zero: '0' }, accessTasks: [{ id: COWL, name: 'Cowling off', net: '15.50', vatRate: 'standard' }], accessPaid: [] },
-      // 31.00 + 31.00 + 15.50 = 77.50; VAT 15.50; 93.00.
-      totals: { ...base.totals, thisRequest: totals('77.50', '15.50', '93.00') },
-    };
+describe('DecisionPage running total with shared opening-up', () => {
+  it('when one of two findings sharing opening-up is approved, then the bar shows priceChoice’s figures and no footnote', () => {
+    const s = snapshot();
     render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
     choose('Approve');
     const bar = screen.getByTestId('running-total');
-    // F-1 with the cowling: 55.80. Still open: F-2 without it, 31.00 + 6.20 = 37.20, plus 6.00 elsewhere.
+    const p = priceChoice(s.basis, { [PLUG]: 'approve' });
+    // F-1 £31.00 with the cowling £15.50 (0.25 h × £62.00): £46.50 net, £55.80 incl. VAT at 20%.
+    expect(p.approvingNow.gross).toBe('55.80');
     expect(within(bar).getByText('£55.80', { selector: '[data-total="this-request"]' })).toBeTruthy();
-    expect(within(bar).getByText('£43.20', { selector: '[data-total="undecided"]' })).toBeTruthy();
-    expect(within(bar).getByText('£611.93', { selector: '[data-total="new-total"]' })).toBeTruthy();
+    expect(within(bar).getByText(gbp(p.undecidedGross), { selector: '[data-total="undecided"]' })).toBeTruthy();
+    expect(within(bar).getByText(gbp(p.newTotal.gross), { selector: '[data-total="new-total"]' })).toBeTruthy();
     expect(bar.textContent).not.toContain('may come out lower');
-    // F-2 with F-1 approved adds only its own work, and says why.
+    // F-2's price is its own work (£31.00 + £6.20): opening-up is its own line, so nothing needs explaining.
     fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
-    expect(screen.getByTestId('decide-adds').textContent).toContain('this adds £37.20 incl. VAT');
-    choose('Approve');
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
-    // 55.80 + 55.80 − 93.00.
-    expect(screen.getByTestId('decide-shared-saving').textContent).toMatch(/together they come to £93\.00 incl\. VAT, which is £18\.60 less/);
-  });
-
-  it('when an older snapshot is decided part-way with shared opening-up, then the note says the figures may come out lower', () => {
-    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
-    choose('Approve');
-    expect(screen.getByTestId('running-total').textContent).toContain('may come out lower');
+    expect(within(screen.getByTestId('decide-price')).getByText('£37.20 incl. VAT')).toBeTruthy();
+    expect(screen.queryByTestId('decide-adds')).toBeNull();
   });
 });
 
@@ -374,30 +370,20 @@ describe('DecisionPage opened with an older link of a re-sent request', () => {
 });
 
 describe('DecisionPage new total with the committed work in the snapshot', () => {
-  it('when VAT is rounded down on the invoice total, then the bar adds up to the whole-bill figure and says why approving adds a penny more', () => {
-    const base = snapshot();
+  it('when VAT is rounded down on the invoice total, then the bar adds up to the whole-bill figure with no footnote', () => {
     // Inspection £10.03 (VAT 2.006 → 2.00), F-1 £20.03 (4.006 → 4.00); the whole bill £30.06 (6.012 → 6.01) = £36.07 [derived from VAT Notice 700 §17.5].
-    const s: ApprovalSnapshot = {
-      ...base,
+    const s = snapshotOf({
       rounding: 'invoice-down',
-      findings: [{ ...base.findings[0]!, lines: [{ description: 'Fit new plugs', kind: 'fee', quantity: '1', net: '20.03', vatRate: 'standard', accessTaskId: null }], price: totals('20.03', '4.00', '24.03') }],
-      pricingBasis: {
-        vatRates: { standard: '20', reduced: '5', zero: '0' },
-        accessTasks: [],
-        accessPaid: [],
-        committed: { lines: [{ stage: 'inspection', kind: 'labour', net: '10.03', vatRate: 'standard', accessTaskId: null }], accessTasks: [] },
-      },
-      totals: { quoted: totals('10.03', '2.00', '12.03'), approvedSoFar: totals('10.03', '2.00', '12.03'), thisRequest: totals('20.03', '4.00', '24.03'), undecidedElsewhere: totals('0.00', '0.00', '0.00') },
-    };
+      committed: [{ id: 'i', stage: 'inspection', agreed: true, kind: 'fee', amount: '10.03', vatRate: 'standard' }],
+      findings: [{ id: PLUG, lines: [fee('p', PLUG, '20.03')] }],
+    });
     render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
     const bar = screen.getByTestId('running-total');
-    expect(screen.queryByTestId('decide-vat-whole-bill')).toBeNull();
     choose('Approve');
     expect(within(bar).getByText('£12.03', { selector: '[data-total="approved-so-far"]' })).toBeTruthy();
     expect(within(bar).getByText('£24.04', { selector: '[data-total="this-request"]' })).toBeTruthy();
     expect(within(bar).getByText('£36.07', { selector: '[data-total="new-total"]' })).toBeTruthy();
-    expect(screen.getByTestId('decide-vat-whole-bill').textContent).toBe(
-      'VAT is worked out on the whole bill, so what you are approving adds £24.04 to it, not the £24.03 it comes to on its own.',
-    );
+    // The item's price is its share of what is approved, so the figures add up and need no note.
+    expect(screen.queryByTestId('decide-vat-whole-bill')).toBeNull();
   });
 });

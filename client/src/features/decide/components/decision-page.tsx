@@ -1,6 +1,7 @@
 import {
   compareAmounts,
   decisionSubmitSchema,
+  sumAmounts,
   describeLimit,
   FINDING_CATEGORY_MEANINGS,
   type ApprovalSnapshot,
@@ -16,7 +17,7 @@ import { isApiError } from '@/lib/api-client';
 import { formatDateTime, trimDecimal, formatMoney } from '@/lib/format';
 import { FindingPhotos } from './finding-photos';
 import { Button as BaseButton } from '@/components/ui/button';
-import { accessSavingWords, addsWithChoices, declinedAirworthinessWords, runningTotal, type Choices, type RunningTotal } from './running-total';
+import { addsWithChoices, declinedAirworthinessWords, runningTotal, type Choices, type RunningTotal } from './running-total';
 
 /** The owner's pages use the 44 px size throughout. */
 const Button = (props: ComponentProps<typeof BaseButton>) => <BaseButton size="lg" {...props} />;
@@ -28,7 +29,7 @@ export interface DecisionPageProps {
   /** The link's token: the page's photos are fetched through it. */
   token: string;
   /** Sends the owner's decisions; resolves with the page as the server now holds it. */
-  onSubmit: (body: { snapshotHash: string; decisions: { findingId: string; decision: Decision; note: string }[]; typedName: string }) => Promise<unknown>;
+  onSubmit: (body: { snapshotHash: string; decisions: { itemId: string; decision: Decision; note: string }[]; typedName: string }) => Promise<unknown>;
   submitting?: boolean;
   onReload?: () => void;
 }
@@ -85,7 +86,7 @@ function Deciding({ page, token, onSubmit, submitting, onReload }: Required<Pick
     setProblem(null);
     const body = {
       snapshotHash: page.snapshotHash,
-      decisions: s.findings.map((f) => ({ findingId: f.findingId, decision: choices[f.findingId]!, note: notes[f.findingId]?.trim() ?? '' })),
+      decisions: s.basis.items.map((i) => ({ itemId: i.id, decision: choices[i.id]!, note: notes[i.id]?.trim() ?? '' })),
       typedName,
     };
     const parsed = decisionSubmitSchema.safeParse(body);
@@ -189,7 +190,6 @@ function FindingStep({
   last: boolean;
 }) {
   const noteId = useId();
-  const saving = accessSavingWords(f, formatMoney(f.accessSavingGross, s.currency, { vat: 'incl' }));
   return (
     <section aria-labelledby={`f-${f.findingId}`} className="flex flex-col gap-4" data-testid="decide-finding">
       <p className="text-sm font-semibold text-slate-soft" aria-live="polite">
@@ -240,10 +240,9 @@ function FindingStep({
       </dl>
       <div className="rounded-card border border-seam-strong bg-cloth-raised p-4" data-testid="decide-price">
         <p className="text-sm text-slate-soft">The price for this</p>
-        <p className="text-2xl font-bold tabular-nums">{formatMoney(f.price.gross, s.currency, { vat: 'incl' })}</p>
-        <p className="text-sm tabular-nums text-slate-soft">{formatMoney(f.price.net, s.currency, { vat: 'excl' })}</p>
-        {saving ? <p className="mt-2 text-sm">{saving}</p> : null}
-        {adds !== null && compareAmounts(adds, f.price.gross) < 0 ? (
+        <p className="text-2xl font-bold tabular-nums">{formatMoney(f.gross, s.currency, { vat: 'incl' })}</p>
+        <p className="text-sm tabular-nums text-slate-soft">{formatMoney(sumAmounts(f.lines.map((l) => l.net), s.currency), s.currency, { vat: 'excl' })}</p>
+        {adds !== null && compareAmounts(adds, f.gross) < 0 ? (
           <p className="mt-2 text-sm" data-testid="decide-adds">
             With the work you have approved, this adds <span className="font-semibold tabular-nums">{formatMoney(adds, s.currency, { vat: 'incl' })}</span>: the opening-up it needs is
             already being done, and is charged once.
@@ -492,8 +491,8 @@ function RunningTotalBar({ currency, totals: t }: { currency: string; totals: Ru
 
 function Receipt({ page }: { page: DecisionPageDto }) {
   const s = page.snapshot;
-  const byId = new Map((page.decisions ?? []).map((d) => [d.findingId, d]));
-  const chosen: Choices = Object.fromEntries((page.decisions ?? []).map((d) => [d.findingId, d.decision]));
+  const byId = new Map((page.decisions ?? []).map((d) => [d.itemId, d]));
+  const chosen: Choices = Object.fromEntries((page.decisions ?? []).map((d) => [d.itemId, d.decision]));
   const t = runningTotal(s, chosen);
   return (
     <article className="flex flex-col gap-5" data-testid="decision-receipt">
@@ -596,7 +595,7 @@ function DecidedRow({
         <span className="font-semibold">
           <span className="tabular-nums">{f.number}</span> · {f.title}
         </span>
-        <span className="tabular-nums">{formatMoney(f.price.gross, s.currency, { vat: 'incl' })}</span>
+        <span className="tabular-nums">{formatMoney(f.gross, s.currency, { vat: 'incl' })}</span>
       </div>
       <div className="flex flex-wrap items-center gap-2">
         <CategoryBadge category={f.category} />

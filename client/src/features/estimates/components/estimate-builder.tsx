@@ -57,6 +57,8 @@ function emptyLine(stage: 'inspection' | 'discovered', kind: LineKind, workshop:
     findingId: null,
     accessTaskId: null,
     discountPercent: null,
+    agreedAt: null,
+    agreedHow: null,
   };
 }
 
