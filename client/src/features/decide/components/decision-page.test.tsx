@@ -1,6 +1,6 @@
 import type { ApprovalSnapshot, DecisionPageDto, Totals } from '@wingstage/shared';
 import { act, fireEvent, render, screen, within } from '@testing-library/react';
-import { describe, expect, it, vi } from 'vitest';
+import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { ApiError } from '@/lib/api-client';
 import { DecisionPage } from './decision-page';
 import { runningTotal } from './running-total';
@@ -83,6 +83,9 @@ function snapshot(over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot {
     ...over,
   };
 }
+
+// Each test starts with nothing kept on the device (jsdom's localStorage lives for the whole file).
+beforeEach(() => localStorage.clear());
 
 const HASH = 'a'.repeat(64);
 const TOKEN = 'tok_en-123';
@@ -172,7 +175,8 @@ describe('DecisionPage', () => {
     expect((screen.getByRole('button', { name: 'Confirm decisions' }) as HTMLButtonElement).disabled).toBe(true);
     fireEvent.click(screen.getByRole('button', { name: 'Go to F-3' }));
     choose('Approve');
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    // Reached from the review, the finding's one button goes straight back to it.
+    fireEvent.click(screen.getByRole('button', { name: 'Back to your choices' }));
     expect(screen.getAllByText('Approved')).toHaveLength(2);
     expect(screen.getAllByText('Declined')).toHaveLength(1);
 
@@ -399,5 +403,124 @@ describe('DecisionPage new total with the committed work in the snapshot', () =>
     expect(screen.getByTestId('decide-vat-whole-bill').textContent).toBe(
       'VAT is worked out on the whole bill, so what you are approving adds £24.04 to it, not the £24.03 it comes to on its own.',
     );
+  });
+});
+
+describe('DecisionPage keeps the owner’s choices on the device until they confirm', () => {
+  const DRAFT_KEY = `wingstage.decision-draft.${snapshot().requestId}`;
+
+  it('when the page is reloaded half-way through, then the choices, the note and the place come back, and nothing is sent by itself', () => {
+    const onSubmit = vi.fn();
+    const first = render(<DecisionPage token={TOKEN} page={page()} onSubmit={onSubmit} />);
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    choose('Decline');
+    fireEvent.change(screen.getByLabelText('A note for the workshop (optional)'), { target: { value: 'Please ring me.' } });
+    first.unmount();
+
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={onSubmit} />);
+    expect(screen.getByText('Finding 2 of 3')).toBeTruthy();
+    expect(screen.getByTestId('draft-restored').textContent).toContain('Nothing is sent until you confirm');
+    expect((screen.getByRole('radio', { name: /^Decline/ }) as HTMLInputElement).checked).toBe(true);
+    expect((screen.getByLabelText('A note for the workshop (optional)') as HTMLTextAreaElement).value).toBe('Please ring me.');
+    fireEvent.click(screen.getByRole('button', { name: '← Back' }));
+    expect((screen.getByRole('radio', { name: /^Approve/ }) as HTMLInputElement).checked).toBe(true);
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+
+  it('when the owner confirms, then the kept choices are cleared from the device', async () => {
+    const onSubmit = vi.fn().mockResolvedValue(undefined);
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: snapshot({ findings: snapshot().findings.slice(0, 1) }) })} onSubmit={onSubmit} />);
+    choose('Approve');
+    expect(localStorage.getItem(DRAFT_KEY)).not.toBeNull();
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
+    await vi.waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    await vi.waitFor(() => expect(localStorage.getItem(DRAFT_KEY)).toBeNull());
+  });
+
+  it('when the confirmation is refused, then the kept choices stay on the device', async () => {
+    const onSubmit = vi.fn().mockRejectedValue(new ApiError({ code: 'conflict', status: 409, message: 'The workshop changed something on this request: reload the page to see the latest.' }));
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: snapshot({ findings: snapshot().findings.slice(0, 1) }) })} onSubmit={onSubmit} />);
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
+    expect(await screen.findByText(/The workshop changed something/)).toBeTruthy();
+    expect(localStorage.getItem(DRAFT_KEY)).not.toBeNull();
+  });
+
+  it('when the request now has a different hash, then the kept choices are cleared with a plain message and the page starts afresh', () => {
+    const first = render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Approve');
+    first.unmount();
+    render(<DecisionPage token={TOKEN} page={page({ snapshotHash: 'b'.repeat(64) })} onSubmit={vi.fn()} />);
+    expect(screen.getByTestId('draft-discarded').textContent).toContain('The workshop changed this request after you started');
+    expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
+    expect((screen.getByRole('radio', { name: /^Approve/ }) as HTMLInputElement).checked).toBe(false);
+    expect(screen.queryByTestId('draft-restored')).toBeNull();
+    expect(localStorage.getItem(DRAFT_KEY)).toBeNull();
+  });
+
+  it('when the request was replaced meanwhile, then the closed page says the unconfirmed choices were cleared and nothing was sent', () => {
+    const first = render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Decline');
+    first.unmount();
+    render(<DecisionPage token={TOKEN} page={page({ state: 'replaced', closedReason: 'A newer request replaced this one.' })} onSubmit={vi.fn()} />);
+    expect(within(screen.getByTestId('decision-closed')).getByTestId('draft-discarded').textContent).toContain('Nothing was sent');
+    expect(localStorage.getItem(DRAFT_KEY)).toBeNull();
+  });
+
+  it('when the request was decided on another device, then the receipt shows what was recorded and says the draft here was cleared', () => {
+    const first = render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Decline');
+    first.unmount();
+    render(
+      <DecisionPage
+        token={TOKEN}
+        page={page({
+          state: 'decided',
+          closedReason: 'You decided this request on 1 Dec 2026.',
+          decisions: snapshot().findings.map((f) => ({ findingId: f.findingId, decision: 'approve' as const, note: '' })),
+          decidedByName: 'Hazel Brambury',
+          decidedAt: '2026-12-01T12:30:00Z',
+        })}
+        onSubmit={vi.fn()}
+      />,
+    );
+    expect(within(screen.getByTestId('decision-receipt')).getByTestId('draft-discarded').textContent).toContain('These decisions were already recorded');
+    expect(localStorage.getItem(DRAFT_KEY)).toBeNull();
+  });
+
+  it('when the kept draft names a finding this request does not hold, then it is cleared and never used', () => {
+    localStorage.setItem(
+      DRAFT_KEY,
+      JSON.stringify({ v: 1, snapshotHash: HASH, choices: { 'd4e5f6a7-b8c9-4d0e-8f1a-2b3c4d5e6f7a': 'approve' }, notes: {}, step: 1, savedAt: new Date().toISOString() }),
+    );
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    expect(screen.getByTestId('draft-discarded').textContent).toContain('did not match this request');
+    expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
+  });
+
+  it('when "Change" is used on the review, then the one finding opens and its button goes straight back to the review', () => {
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Change F-1' }));
+    expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
+    expect(screen.queryByRole('button', { name: '← Back' })).toBeNull();
+    choose('Decline');
+    fireEvent.click(screen.getByRole('button', { name: 'Back to your choices' }));
+    expect(screen.getByRole('heading', { name: 'Check your choices' })).toBeTruthy();
+    expect(within(screen.getByText('F-1', { selector: '[data-review] span' }).closest('li')!).getByText('Declined')).toBeTruthy();
+    // Walking on normally afterwards still goes finding by finding.
+    fireEvent.click(screen.getByRole('button', { name: 'Change F-2' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Back to your choices' }));
+    expect(screen.getByRole('heading', { name: 'Check your choices' })).toBeTruthy();
   });
 });

@@ -7,7 +7,7 @@ import {
   type Decision,
   type DecisionPageDto,
 } from '@wingstage/shared';
-import { useId, useRef, useState, type ComponentProps, type ReactNode } from 'react';
+import { useEffect, useId, useMemo, useRef, useState, type ComponentProps, type ReactNode } from 'react';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { CategoryBadge } from '@/components/ui/finding-badges';
 import { CheckIcon, CrossIcon } from '@/components/ui/icons';
@@ -16,6 +16,7 @@ import { isApiError } from '@/lib/api-client';
 import { formatDateTime, trimDecimal, formatMoney } from '@/lib/format';
 import { FindingPhotos } from './finding-photos';
 import { Button as BaseButton } from '@/components/ui/button';
+import { clearDraft, deviceStorage, DRAFT_DISCARD_WORDS, readDraft, saveDraft, type DecisionDraft, type DraftDiscard } from '../draft';
 import { accessSavingWords, addsWithChoices, declinedAirworthinessWords, runningTotal, type Choices, type RunningTotal } from './running-total';
 
 /** The owner's pages use the 44 px size throughout. */
@@ -31,7 +32,12 @@ export interface DecisionPageProps {
   onSubmit: (body: { snapshotHash: string; decisions: { findingId: string; decision: Decision; note: string }[]; typedName: string }) => Promise<unknown>;
   submitting?: boolean;
   onReload?: () => void;
+  /** Where the owner's unconfirmed choices are kept on the device (localStorage unless a test gives one). */
+  storage?: Storage | null;
 }
+
+/** The choices made so far, without the items still open. */
+const definite = (c: Choices): Record<string, Decision> => Object.fromEntries(Object.entries(c).filter((e): e is [string, Decision] => e[1] !== undefined));
 
 // Small counts read as words in a letter.
 const WORDS = ['no', 'one', 'two', 'three', 'four', 'five', 'six', 'seven', 'eight', 'nine', 'ten'];
@@ -41,12 +47,54 @@ const things = (n: number) => `${WORDS[n] ?? String(n)} ${n === 1 ? 'thing' : 't
  * The owner's decision page: a letter from the workshop, one finding at a time, with the running
  * total always in view, then a review of every choice and a typed-name confirmation.
  */
-export function DecisionPage({ page, token, onSubmit, submitting = false, onReload }: DecisionPageProps) {
+export function DecisionPage({ page, token, onSubmit, submitting = false, onReload, storage: given }: DecisionPageProps) {
   const s = page.snapshot;
-  if (page.state !== 'sent' || page.closedReason || page.newerLinkSentAt) {
-    return page.decisions && page.decidedAt && !page.newerLinkSentAt ? <Receipt page={page} /> : <Closed page={page} />;
+  const storage = given === undefined ? deviceStorage() : given;
+  const superseded = page.newerLinkSentAt !== null && page.newerLinkSentAt !== undefined;
+  const itemKey = s.findings.map((f) => f.findingId).join(',');
+  const stored = useMemo(
+    () =>
+      readDraft(storage, {
+        requestId: s.requestId,
+        snapshotHash: page.snapshotHash,
+        state: page.state,
+        closedReason: page.closedReason,
+        superseded,
+        itemIds: itemKey ? itemKey.split(',') : [],
+      }),
+    [storage, s.requestId, page.snapshotHash, page.state, page.closedReason, superseded, itemKey],
+  );
+  // A draft that does not match the request as it now stands is removed at once, never submitted.
+  useEffect(() => {
+    if (stored.discarded) clearDraft(storage, s.requestId);
+  }, [stored, storage, s.requestId]);
+
+  if (page.state !== 'sent' || page.closedReason || superseded) {
+    return page.decisions && page.decidedAt && !superseded ? <Receipt page={page} discarded={stored.discarded} /> : <Closed page={page} discarded={stored.discarded} />;
   }
-  return <Deciding page={page} token={token} onSubmit={onSubmit} submitting={submitting} onReload={onReload} key={page.snapshotHash + s.requestId} />;
+  return (
+    <Deciding
+      page={page}
+      token={token}
+      onSubmit={onSubmit}
+      submitting={submitting}
+      onReload={onReload}
+      storage={storage}
+      draft={stored.draft}
+      discarded={stored.discarded}
+      key={page.snapshotHash + s.requestId}
+    />
+  );
+}
+
+/** Says the owner's unconfirmed choices were cleared, and why. */
+function DraftDropped({ discarded }: { discarded: DraftDiscard | null }) {
+  if (!discarded) return null;
+  return (
+    <div data-testid="draft-discarded">
+      <Notice title="Your earlier choices were cleared">{DRAFT_DISCARD_WORDS[discarded]}</Notice>
+    </div>
+  );
 }
 
 function Letterhead({ s, children }: { s: ApprovalSnapshot; children?: ReactNode }) {
@@ -64,11 +112,24 @@ function Letterhead({ s, children }: { s: ApprovalSnapshot; children?: ReactNode
   );
 }
 
-function Deciding({ page, token, onSubmit, submitting, onReload }: Required<Pick<DecisionPageProps, 'page' | 'token' | 'onSubmit'>> & Pick<DecisionPageProps, 'submitting' | 'onReload'>) {
+function Deciding({
+  page,
+  token,
+  onSubmit,
+  submitting,
+  onReload,
+  storage,
+  draft,
+  discarded,
+}: Required<Pick<DecisionPageProps, 'page' | 'token' | 'onSubmit'>> &
+  Pick<DecisionPageProps, 'submitting' | 'onReload'> & { storage: Storage | null; draft: DecisionDraft | null; discarded: DraftDiscard | null }) {
   const s = page.snapshot;
-  const [step, setStep] = useState(0);
-  const [choices, setChoices] = useState<Choices>({});
-  const [notes, setNotes] = useState<Record<string, string>>({});
+  const [step, setStep] = useState(draft?.step ?? 0);
+  const [choices, setChoices] = useState<Choices>(draft?.choices ?? {});
+  const [notes, setNotes] = useState<Record<string, string>>(draft?.notes ?? {});
+  // Set while the owner changes one item from the review: the next step goes straight back to it.
+  const [returnToReview, setReturnToReview] = useState(false);
+  const [restored] = useState(() => draft !== null && (Object.keys(draft.choices).length > 0 || Object.keys(draft.notes).length > 0));
   const [typedName, setTypedName] = useState('');
   const [nameError, setNameError] = useState<string | null>(null);
   const [problem, setProblem] = useState<{ message: string; reload: boolean } | null>(null);
@@ -76,8 +137,14 @@ function Deciding({ page, token, onSubmit, submitting, onReload }: Required<Pick
   const reviewing = step === s.findings.length;
   const totals = runningTotal(s, choices);
 
-  const go = (to: number) => {
+  // Every change is kept on the device at once, so a reload (or the phone dropping the tab) loses nothing.
+  useEffect(() => {
+    saveDraft(storage, s.requestId, { snapshotHash: page.snapshotHash, choices: definite(choices), notes, step });
+  }, [storage, s.requestId, page.snapshotHash, choices, notes, step]);
+
+  const go = (to: number, fromReview = false) => {
     setStep(to);
+    setReturnToReview(fromReview);
     topRef.current?.scrollIntoView?.({ block: 'start' });
   };
 
@@ -98,6 +165,7 @@ function Deciding({ page, token, onSubmit, submitting, onReload }: Required<Pick
     setNameError(null);
     try {
       await onSubmit(parsed.data);
+      clearDraft(storage, s.requestId);
     } catch (e) {
       if (isApiError(e) && e.status === 409) setProblem({ message: e.message, reload: true });
       else if (isApiError(e) && e.fields.snapshotHash) setProblem({ message: e.fields.snapshotHash, reload: true });
@@ -121,13 +189,20 @@ function Deciding({ page, token, onSubmit, submitting, onReload }: Required<Pick
         ) : null}
       </Letterhead>
 
+      <DraftDropped discarded={discarded} />
+      {restored ? (
+        <p className="text-sm" data-testid="draft-restored">
+          The choices you made earlier on this device are back. Nothing is sent until you confirm.
+        </p>
+      ) : null}
+
       {reviewing ? (
         <Review
           s={s}
           totals={totals}
           choices={choices}
           notes={notes}
-          onEdit={(i) => go(i)}
+          onEdit={(i) => go(i, true)}
           typedName={typedName}
           setTypedName={setTypedName}
           nameError={nameError}
@@ -149,9 +224,10 @@ function Deciding({ page, token, onSubmit, submitting, onReload }: Required<Pick
           note={notes[s.findings[step]!.findingId] ?? ''}
           onChoose={(d) => setChoices((c) => ({ ...c, [s.findings[step]!.findingId]: d }))}
           onNote={(n) => setNotes((x) => ({ ...x, [s.findings[step]!.findingId]: n }))}
-          onBack={step > 0 ? () => go(step - 1) : undefined}
-          onNext={() => go(step + 1)}
+          onBack={step > 0 && !returnToReview ? () => go(step - 1) : undefined}
+          onNext={() => go(returnToReview ? s.findings.length : step + 1)}
           last={step === s.findings.length - 1}
+          returnToReview={returnToReview}
         />
       )}
 
@@ -173,6 +249,7 @@ function FindingStep({
   onBack,
   onNext,
   last,
+  returnToReview,
 }: {
   s: ApprovalSnapshot;
   token: string;
@@ -187,6 +264,8 @@ function FindingStep({
   onBack?: () => void;
   onNext: () => void;
   last: boolean;
+  /** Reached by "Change" from the review: the one button goes straight back to it. */
+  returnToReview: boolean;
 }) {
   const noteId = useId();
   const saving = accessSavingWords(f, formatMoney(f.accessSavingGross, s.currency, { vat: 'incl' }));
@@ -281,7 +360,7 @@ function FindingStep({
           </Button>
         ) : null}
         <Button className="flex-1" onClick={onNext}>
-          {last ? 'Review your choices' : 'Next finding →'}
+          {returnToReview ? 'Back to your choices' : last ? 'Review your choices' : 'Next finding →'}
         </Button>
       </nav>
     </section>
@@ -490,7 +569,7 @@ function RunningTotalBar({ currency, totals: t }: { currency: string; totals: Ru
   );
 }
 
-function Receipt({ page }: { page: DecisionPageDto }) {
+function Receipt({ page, discarded }: { page: DecisionPageDto; discarded: DraftDiscard | null }) {
   const s = page.snapshot;
   const byId = new Map((page.decisions ?? []).map((d) => [d.findingId, d]));
   const chosen: Choices = Object.fromEntries((page.decisions ?? []).map((d) => [d.findingId, d.decision]));
@@ -498,6 +577,7 @@ function Receipt({ page }: { page: DecisionPageDto }) {
   return (
     <article className="flex flex-col gap-5" data-testid="decision-receipt">
       <Letterhead s={s} />
+      <DraftDropped discarded={discarded} />
       <div className="flex flex-col gap-2">
         <h2 className="text-xl font-bold">Your decisions are recorded</h2>
         <p>
@@ -540,7 +620,7 @@ const CLOSED_TITLE: Record<DecisionPageDto['state'], string> = {
   replaced: 'A newer request replaced this one',
 };
 
-function Closed({ page }: { page: DecisionPageDto }) {
+function Closed({ page, discarded }: { page: DecisionPageDto; discarded: DraftDiscard | null }) {
   const s = page.snapshot;
   const superseded = page.newerLinkSentAt !== null && page.newerLinkSentAt !== undefined;
   return (
@@ -553,6 +633,7 @@ function Closed({ page }: { page: DecisionPageDto }) {
         </p>
         <p>{page.closedReason ?? `This request can no longer be decided. Please contact ${s.workshopName}.`}</p>
       </Notice>
+      <DraftDropped discarded={discarded} />
     </article>
   );
 }
