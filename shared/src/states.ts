@@ -140,3 +140,121 @@ export const APPROVAL_REQUEST_TRANSITIONS: Record<ApprovalRequestState, readonly
   revoked: [],
   replaced: [],
 };
+
+/** Resend is not a move: it gives a request still waiting for the owner a new link for the same snapshot. */
+export function canResendRequest(state: ApprovalRequestState): TransitionCheck {
+  if (state === 'sent') return { ok: true };
+  return {
+    ok: false,
+    reason: `This request is ${APPROVAL_REQUEST_STATE_LABELS[state].toLowerCase()}; only a request waiting for the owner can be re-sent. Send a new request instead.`,
+  };
+}
+
+export function canMoveRequest(from: ApprovalRequestState, to: ApprovalRequestState): TransitionCheck {
+  if (APPROVAL_REQUEST_TRANSITIONS[from].includes(to)) return { ok: true };
+  return {
+    ok: false,
+    reason: `An approval request that is ${APPROVAL_REQUEST_STATE_LABELS[from].toLowerCase()} cannot become ${APPROVAL_REQUEST_STATE_LABELS[to].toLowerCase()}.`,
+  };
+}
+
+// ─── Enforcement ─────────────────────────────────────────────────────────────
+
+export type StateMachine = 'job' | 'finding' | 'approval_request';
+
+/**
+ * A forbidden state move. Thrown by the assert functions below; the server's one error handler
+ * answers it with 409 `invalid_transition` and the reason, and the transaction writes nothing.
+ */
+export class StateMoveError extends Error {
+  override readonly name = 'StateMoveError';
+  constructor(
+    readonly machine: StateMachine,
+    readonly from: string,
+    readonly to: string,
+    readonly reason: string,
+  ) {
+    super(reason);
+  }
+}
+
+function assertCheck(machine: StateMachine, from: string, to: string, check: TransitionCheck): void {
+  if (!check.ok) throw new StateMoveError(machine, from, to, check.reason);
+}
+
+/** Every write of a job's state goes through this. */
+export function assertJobMove(from: JobState, to: JobState): void {
+  assertCheck('job', from, to, canTransition(from, to));
+}
+
+/** Every write of a finding's state goes through this. */
+export function assertFindingMove(from: FindingState, to: FindingState): void {
+  assertCheck('finding', from, to, canMoveFinding(from, to));
+}
+
+/** Every write of an approval request's state goes through this. */
+export function assertRequestMove(from: ApprovalRequestState, to: ApprovalRequestState): void {
+  assertCheck('approval_request', from, to, canMoveRequest(from, to));
+}
+
+export function assertRequestResendable(state: ApprovalRequestState): void {
+  assertCheck('approval_request', state, state, canResendRequest(state));
+}
+
+// ─── The quote ───────────────────────────────────────────────────────────────
+
+/**
+ * The quote's state, derived (never stored) from the inspection lines' agreement and the open
+ * requests: not sent; sent (a request holding it waits for the owner); agreed (every inspection
+ * line agreed); changed (agreed before, but a line changed or was added since); declined (the owner
+ * declined the last request holding it).
+ */
+export const QUOTE_STATES = ['not_sent', 'sent', 'agreed', 'changed', 'declined'] as const;
+export type QuoteState = (typeof QUOTE_STATES)[number];
+
+/** Staff words. */
+export const QUOTE_STATE_LABELS: Record<QuoteState, string> = {
+  not_sent: 'Quote not sent',
+  sent: 'Quote sent, waiting for the owner',
+  agreed: 'Quote agreed',
+  changed: 'Quote changed since it was agreed',
+  declined: 'Quote declined by the owner',
+};
+
+/** The owner's words for the same states (vocabulary.md: states said from the owner's side). */
+export const QUOTE_STATE_OWNER_WORDS: Record<QuoteState, string> = {
+  not_sent: 'Being priced',
+  sent: 'Waiting for your decision',
+  agreed: 'You agreed the quote',
+  changed: 'Being re-priced: the workshop will send you the changes',
+  declined: 'You declined the quote: the workshop will be in touch',
+};
+
+/** How an inspection line came to be agreed. */
+export const AGREED_HOW = ['owner_link', 'phone', 'recorded_before'] as const;
+export type AgreedHow = (typeof AGREED_HOW)[number];
+
+export function quoteStateOf(q: {
+  /** Inspection lines on the estimate, agreed and unagreed. */
+  agreedLines: number;
+  unagreedLines: number;
+  /** A request holding the quote is waiting for the owner. */
+  quoteRequestOpen: boolean;
+  /** The owner's decision on the quote in the latest decided request holding it, if any. */
+  lastQuoteDecision: 'approve' | 'decline' | null;
+}): QuoteState {
+  if (q.unagreedLines === 0) return q.agreedLines > 0 ? 'agreed' : 'not_sent';
+  if (q.quoteRequestOpen) return 'sent';
+  if (q.lastQuoteDecision === 'decline') return 'declined';
+  if (q.agreedLines > 0 || q.lastQuoteDecision === 'approve') return 'changed';
+  return 'not_sent';
+}
+
+/** Work may start only once nothing in the quote waits for the owner. */
+export function canStartWork(q: { unagreedLines: number }): TransitionCheck {
+  if (q.unagreedLines === 0) return { ok: true };
+  return {
+    ok: false,
+    reason: `The owner has not agreed the quote: ${q.unagreedLines} inspection line${q.unagreedLines === 1 ? '' : 's'} await${q.unagreedLines === 1 ? 's' : ''} their decision. Send the quote, or record that they agreed it by phone.`,
+  };
+}

@@ -174,6 +174,7 @@ describe('stages and shared access labour — a worked example', () => {
         vatRate: 'standard',
         vatPercent: '20',
         chargedIn: 'approved',
+        committedPays: true,
         committedRemedies: 2,
         saving: '150.00',
         savingGross: '180.00',

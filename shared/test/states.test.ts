@@ -1,5 +1,22 @@
 import { describe, expect, it } from 'vitest';
-import { JOB_STATES, JOB_TRANSITIONS, canTransition, isTerminalJobState, nextJobStates, type JobState } from '../src/states.js';
+import {
+  JOB_STATES,
+  JOB_TRANSITIONS,
+  QUOTE_STATES,
+  QUOTE_STATE_LABELS,
+  QUOTE_STATE_OWNER_WORDS,
+  StateMoveError,
+  assertFindingMove,
+  assertJobMove,
+  assertRequestMove,
+  assertRequestResendable,
+  canStartWork,
+  canTransition,
+  isTerminalJobState,
+  nextJobStates,
+  quoteStateOf,
+  type JobState,
+} from '../src/states.js';
 
 /** The lifecycle the workshop follows (vocabulary.md, "Job states"), written out independently of the table. */
 const HAPPY_PATH: JobState[] = ['booked_in', 'inspecting', 'awaiting_owner', 'in_work', 'ready_for_release', 'invoiced', 'paid', 'closed'];
@@ -61,5 +78,33 @@ describe('job state machine', () => {
       return JOB_TRANSITIONS[s].some((n) => !seen.has(n) && reaches(n, new Set(seen)));
     };
     for (const s of JOB_STATES) expect(reaches(s)).toBe(true);
+  });
+});
+
+describe('enforced moves and the quote state', () => {
+  it('when a move is forbidden, then the assert functions throw a StateMoveError with the reason', () => {
+    expect(() => assertJobMove('booked_in', 'in_work')).toThrow(StateMoveError);
+    expect(() => assertFindingMove('approved', 'declined')).toThrow(/cannot become declined/);
+    expect(() => assertRequestMove('expired', 'sent')).toThrow(StateMoveError);
+    expect(() => assertRequestResendable('revoked')).toThrow(/only a request waiting for the owner can be re-sent/);
+    expect(() => assertRequestMove('sent', 'decided')).not.toThrow();
+    try {
+      assertJobMove('closed', 'inspecting');
+    } catch (e) {
+      expect(e).toBeInstanceOf(StateMoveError);
+      expect((e as StateMoveError).machine).toBe('job');
+      expect((e as StateMoveError).reason).toBe('A job that is closed cannot move to inspecting.');
+    }
+  });
+
+  it('when the inspection lines and requests vary, then the quote state follows them', () => {
+    expect(quoteStateOf({ agreedLines: 0, unagreedLines: 3, quoteRequestOpen: false, lastQuoteDecision: null })).toBe('not_sent');
+    expect(quoteStateOf({ agreedLines: 0, unagreedLines: 3, quoteRequestOpen: true, lastQuoteDecision: null })).toBe('sent');
+    expect(quoteStateOf({ agreedLines: 3, unagreedLines: 0, quoteRequestOpen: false, lastQuoteDecision: 'approve' })).toBe('agreed');
+    expect(quoteStateOf({ agreedLines: 2, unagreedLines: 1, quoteRequestOpen: false, lastQuoteDecision: 'approve' })).toBe('changed');
+    expect(quoteStateOf({ agreedLines: 0, unagreedLines: 3, quoteRequestOpen: false, lastQuoteDecision: 'decline' })).toBe('declined');
+    expect(canStartWork({ unagreedLines: 1 })).toMatchObject({ ok: false });
+    expect(QUOTE_STATE_OWNER_WORDS.sent).toBe('Waiting for your decision');
+    for (const s of QUOTE_STATES) expect(QUOTE_STATE_LABELS[s]).not.toBe(QUOTE_STATE_OWNER_WORDS[s]);
   });
 });

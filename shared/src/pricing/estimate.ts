@@ -9,6 +9,10 @@ import {
   type EstimateLineInput,
   type EstimateStage,
   type LineKind,
+  type NetAccessTaskInput,
+  type NetEstimateInput,
+  type NetLineInput,
+  type NetPricing,
   type PricedAccessTask,
   type PricedEstimate,
   type PricedFinding,
@@ -175,6 +179,8 @@ function lineDiscount(line: EstimateLineInput, list: Dec, ctx: PricingContext): 
 interface WorkLine {
   id: string;
   stage: EstimateStage;
+  /** Inspection lines: agreed by the owner; true for every other stage. */
+  agreed: boolean;
   kind: LineKind;
   findingId: string | null;
   accessTaskId: string | null;
@@ -195,6 +201,12 @@ interface WorkAccess {
   net: Dec;
   item: VatItem;
   stages: Set<EstimateStage>;
+  /** Named by agreed work (an agreed inspection line or an approved line). */
+  byAgreed: boolean;
+  /** Named by work awaiting the owner (an unagreed inspection line or discovered work). */
+  byAwaiting: boolean;
+  /** Named by an unagreed inspection line. */
+  byUnagreedQuote: boolean;
   committedRemedies: Set<string>;
   allRemedies: Set<string>;
 }
@@ -221,28 +233,53 @@ function totalsOf(acc: VatAccumulator, ctx: PricingContext): Totals {
   };
 }
 
-function addAccessTask(t: AccessTaskInput, access: Map<string, WorkAccess>, ctx: PricingContext): void {
-  const { dp } = ctx;
-  if (!t || typeof t !== 'object') throw new MoneyError('invalid_input', 'an access task must be an object.');
-  const id = requiredId(t.id, 'id');
-  if (access.has(id)) throw new MoneyError('invalid_input', `access task id "${id}" is used twice.`, 'id');
-  const code = oneOf(VAT_RATE_CODES, t.vatRate, 'vatRate');
-  const hours = parseDecimal(t.hours, 'hours');
-  const rate = parseAmount(t.ratePerHour, ctx.currency, 'ratePerHour');
-  const net = roundHalfUp(hours.times(rate), dp);
-  access.set(id, {
+function newAccess(id: string, code: VatRateCode, net: Dec, ctx: PricingContext): WorkAccess {
+  return {
     id,
     code,
     rate: ctx.rates[code],
     net,
     item: vatItem(code, ctx.rates[code], net, ctx),
     stages: new Set(),
+    byAgreed: false,
+    byAwaiting: false,
+    byUnagreedQuote: false,
     committedRemedies: new Set(),
     allRemedies: new Set(),
-  });
+  };
 }
 
-function workLine(line: EstimateLineInput, ctx: PricingContext, access: Map<string, WorkAccess>, seen: Set<string>): WorkLine {
+function accessCommon(t: { id?: unknown; vatRate?: unknown }, access: Map<string, WorkAccess>): { id: string; code: VatRateCode } {
+  if (!t || typeof t !== 'object') throw new MoneyError('invalid_input', 'an access task must be an object.');
+  const id = requiredId(t.id, 'id');
+  if (access.has(id)) throw new MoneyError('invalid_input', `access task id "${id}" is used twice.`, 'id');
+  return { id, code: oneOf(VAT_RATE_CODES, t.vatRate, 'vatRate') };
+}
+
+function addAccessTask(t: AccessTaskInput, access: Map<string, WorkAccess>, ctx: PricingContext): void {
+  const { id, code } = accessCommon(t, access);
+  const hours = parseDecimal(t.hours, 'hours');
+  const rate = parseAmount(t.ratePerHour, ctx.currency, 'ratePerHour');
+  access.set(id, newAccess(id, code, roundHalfUp(hours.times(rate), ctx.dp), ctx));
+}
+
+function addNetAccessTask(t: NetAccessTaskInput, access: Map<string, WorkAccess>, ctx: PricingContext): void {
+  const { id, code } = accessCommon(t, access);
+  access.set(id, newAccess(id, code, parseAmount(t.net, ctx.currency, 'net'), ctx));
+}
+
+/** What every line shares, whether priced from its inputs or already priced: ids, stage, agreement, access. */
+interface LineHead {
+  id: string;
+  stage: EstimateStage;
+  agreed: boolean;
+  kind: LineKind;
+  code: VatRateCode;
+  findingId: string | null;
+  accessTaskId: string | null;
+}
+
+function lineHead(line: EstimateLineInput | NetLineInput, access: Map<string, WorkAccess>, seen: Set<string>): LineHead {
   if (!line || typeof line !== 'object') throw new MoneyError('invalid_input', 'a line must be an object.');
   const id = requiredId(line.id, 'id');
   if (seen.has(id)) throw new MoneyError('invalid_input', `line id "${id}" is used twice.`, 'id');
@@ -252,22 +289,55 @@ function workLine(line: EstimateLineInput, ctx: PricingContext, access: Map<stri
   const code = oneOf(VAT_RATE_CODES, line.vatRate, 'vatRate');
   const findingId = optionalId(line.findingId, 'findingId');
   const accessTaskId = optionalId(line.accessTaskId, 'accessTaskId');
-  const { list, cost } = lineBase(line, ctx);
-  const discount = lineDiscount(line, list, ctx);
+  if (line.agreed !== undefined && typeof line.agreed !== 'boolean') throw new MoneyError('invalid_input', 'agreed is true or false.', 'agreed');
+  const agreed = stage === 'inspection' ? line.agreed !== false : true;
   if (accessTaskId !== null) {
     const task = access.get(accessTaskId);
     if (!task) throw new MoneyError('invalid_input', `access task "${accessTaskId}" is not in accessTasks.`, 'accessTaskId');
     task.stages.add(stage);
     const remedy = findingId ?? SCOPE_REMEDY;
-    if (stage === 'inspection' || stage === 'approved') task.committedRemedies.add(remedy);
+    const isAgreed = (stage === 'inspection' && agreed) || stage === 'approved';
+    if (isAgreed) {
+      task.byAgreed = true;
+      task.committedRemedies.add(remedy);
+    } else if (stage === 'inspection' || stage === 'discovered') {
+      task.byAwaiting = true;
+      if (stage === 'inspection') task.byUnagreedQuote = true;
+    }
     if (stage !== 'declined') task.allRemedies.add(remedy);
   }
+  return { id, stage, agreed, kind, code, findingId, accessTaskId };
+}
+
+function workLine(line: EstimateLineInput, ctx: PricingContext, access: Map<string, WorkAccess>, seen: Set<string>): WorkLine {
+  const head = lineHead(line, access, seen);
+  const { list, cost } = lineBase(line, ctx);
+  const discount = lineDiscount(line, list, ctx);
   const net = discount.isZero() ? list : list.minus(discount);
-  const rate = ctx.rates[code];
-  return { id, stage, kind, findingId, accessTaskId, code, rate, list, discount, net, cost, item: vatItem(code, rate, net, ctx) };
+  const rate = ctx.rates[head.code];
+  return { ...head, rate, list, discount, net, cost, item: vatItem(head.code, rate, net, ctx) };
+}
+
+function netWorkLine(line: NetLineInput, ctx: PricingContext, access: Map<string, WorkAccess>, seen: Set<string>): WorkLine {
+  const head = lineHead(line, access, seen);
+  const net = parseAmount(line.net, ctx.currency, 'net');
+  const rate = ctx.rates[head.code];
+  return { ...head, rate, list: net, discount: ZERO, net, cost: null, item: vatItem(head.code, rate, net, ctx) };
 }
 
 const STAGE_PRIORITY: readonly EstimateStage[] = ['inspection', 'approved', 'discovered', 'declined'];
+
+/** Parses a list with each failure's path placed inside `prefix[i]`. */
+function parseEach<T, R>(list: readonly T[], prefix: string, f: (x: T) => R): R[] {
+  return list.map((x, i) => {
+    try {
+      return f(x);
+    } catch (e) {
+      // Field paths are relative inside the loop and only built into `lines[i].field` on failure.
+      throw e instanceof MoneyError ? e.within(`${prefix}[${i}]`) : e;
+    }
+  });
+}
 
 /**
  * Prices a staged estimate: every figure a screen, e-mail, PDF or payment needs. Pure and
@@ -275,54 +345,71 @@ const STAGE_PRIORITY: readonly EstimateStage[] = ['inspection', 'approved', 'dis
  */
 export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): PricedEstimate {
   const ctx = pricingContext(pricing);
-  const { dp } = ctx;
   if (!input || !Array.isArray(input.lines)) throw new MoneyError('invalid_input', 'an estimate needs a list of lines.', 'lines');
-
   const access = new Map<string, WorkAccess>();
-  (input.accessTasks ?? []).forEach((t, i) => {
-    try {
-      addAccessTask(t, access, ctx);
-    } catch (e) {
-      throw e instanceof MoneyError ? e.within(`accessTasks[${i}]`) : e;
-    }
-  });
-
+  parseEach(input.accessTasks ?? [], 'accessTasks', (t) => addAccessTask(t, access, ctx));
   const seen = new Set<string>();
-  const work: WorkLine[] = input.lines.map((line, i) => {
-    try {
-      return workLine(line, ctx, access, seen);
-    } catch (e) {
-      // Field paths are relative inside the loop and only built into `lines[i].field` on failure.
-      throw e instanceof MoneyError ? e.within(`lines[${i}]`) : e;
-    }
-  });
+  const work = parseEach(input.lines, 'lines', (l) => workLine(l, ctx, access, seen));
+  return priceWork(work, access, ctx);
+}
 
-  // Where each access task is paid for: the first stage in priority order that uses it.
+/**
+ * The same engine on lines whose amounts are already priced (each `net` as the engine gave it):
+ * what a snapshot stores, so a choice is priced exactly as the estimate will be after deciding.
+ * Every figure runs through the same path as `priceEstimate`; only the per-line arithmetic is skipped.
+ */
+export function priceNets(input: NetEstimateInput, pricing: NetPricing): PricedEstimate {
+  const ctx = pricingContext({ ...pricing, partsMarkupPercent: '0', subcontractMarkupPercent: '0' });
+  if (!input || !Array.isArray(input.lines)) throw new MoneyError('invalid_input', 'an estimate needs a list of lines.', 'lines');
+  const access = new Map<string, WorkAccess>();
+  parseEach(input.accessTasks ?? [], 'accessTasks', (t) => addNetAccessTask(t, access, ctx));
+  const seen = new Set<string>();
+  const work = parseEach(input.lines, 'lines', (l) => netWorkLine(l, ctx, access, seen));
+  return priceWork(work, access, ctx);
+}
+
+function priceWork(work: WorkLine[], access: Map<string, WorkAccess>, ctx: PricingContext): PricedEstimate {
+  const { dp } = ctx;
+  // Where each access task is shown: the first stage in priority order that uses it.
   const chargedIn = new Map<string, EstimateStage | null>();
   for (const t of access.values()) chargedIn.set(t.id, STAGE_PRIORITY.find((s) => t.stages.has(s)) ?? null);
 
   const stageItems: Record<EstimateStage, VatItem[]> = { inspection: [], discovered: [], approved: [], declined: [] };
-  for (const l of work) stageItems[l.stage].push(l.item);
+  // Agreed work (agreed inspection + approved) and work awaiting the owner (unagreed inspection + discovered).
+  const agreedItems: VatItem[] = [];
+  const awaitingItems: VatItem[] = [];
+  const quoteAwaitingItems: VatItem[] = [];
+  for (const l of work) {
+    stageItems[l.stage].push(l.item);
+    if (l.stage === 'approved' || (l.stage === 'inspection' && l.agreed)) agreedItems.push(l.item);
+    else if (l.stage === 'discovered') awaitingItems.push(l.item);
+    else if (l.stage === 'inspection') {
+      awaitingItems.push(l.item);
+      quoteAwaitingItems.push(l.item);
+    }
+  }
   for (const t of access.values()) {
     const s = chargedIn.get(t.id);
     if (s) stageItems[s].push(t.item);
+    // Charged once: with agreed work if any agreed work needs it, else with the work awaiting the owner.
+    if (t.byAgreed) agreedItems.push(t.item);
+    else if (t.byAwaiting) {
+      awaitingItems.push(t.item);
+      if (t.byUnagreedQuote) quoteAwaitingItems.push(t.item);
+    }
   }
-  // Sums per stage once; the committed and if-all-approved totals merge them rather than revisit lines.
-  const acc = {
-    inspection: accumulateVat(stageItems.inspection, dp, ctx.rounding),
-    discovered: accumulateVat(stageItems.discovered, dp, ctx.rounding),
-    approved: accumulateVat(stageItems.approved, dp, ctx.rounding),
-    declined: accumulateVat(stageItems.declined, dp, ctx.rounding),
-  };
+  const acc = (items: VatItem[]) => accumulateVat(items, dp, ctx.rounding);
   const stages = {
-    inspection: totalsOf(acc.inspection, ctx),
-    discovered: totalsOf(acc.discovered, ctx),
-    approved: totalsOf(acc.approved, ctx),
-    declined: totalsOf(acc.declined, ctx),
+    inspection: totalsOf(acc(stageItems.inspection), ctx),
+    discovered: totalsOf(acc(stageItems.discovered), ctx),
+    approved: totalsOf(acc(stageItems.approved), ctx),
+    declined: totalsOf(acc(stageItems.declined), ctx),
   };
-  const committedAcc = mergeVat(acc.inspection, acc.approved);
+  // Sums once; the if-all-approved total merges them rather than revisit lines.
+  const committedAcc = acc(agreedItems);
+  const awaitingAcc = acc(awaitingItems);
   const committed = totalsOf(committedAcc, ctx);
-  const ifAllApproved = totalsOf(mergeVat(committedAcc, acc.discovered), ctx);
+  const ifAllApproved = totalsOf(mergeVat(committedAcc, awaitingAcc), ctx);
   const quoted = stages.inspection;
 
   // Only whole-penny line VAT is shown: the 0.1p figures of line-down-tenth are a working step, and
@@ -333,18 +420,19 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
   const lines: PricedLine[] = work.map((l) => {
     const listNet = formatAmount(l.list, dp);
     return {
-    id: l.id,
-    stage: l.stage,
-    kind: l.kind,
-    findingId: l.findingId,
-    accessTaskId: l.accessTaskId,
-    vatRate: l.code,
-    vatPercent: ctx.rateStrings[l.code],
-    cost: l.cost === null ? null : formatAmount(l.cost, dp),
-    listNet,
-    discount: formatAmount(l.discount, dp),
-    net: l.net === l.list ? listNet : formatAmount(l.net, dp),
-    vat: lineVat(l.item.lineVat),
+      id: l.id,
+      stage: l.stage,
+      agreed: l.agreed,
+      kind: l.kind,
+      findingId: l.findingId,
+      accessTaskId: l.accessTaskId,
+      vatRate: l.code,
+      vatPercent: ctx.rateStrings[l.code],
+      cost: l.cost === null ? null : formatAmount(l.cost, dp),
+      listNet,
+      discount: formatAmount(l.discount, dp),
+      net: l.net === l.list ? listNet : formatAmount(l.net, dp),
+      vat: lineVat(l.item.lineVat),
     };
   });
 
@@ -363,6 +451,7 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
       vatRate: t.code,
       vatPercent: ctx.rateStrings[t.code],
       chargedIn: chargedIn.get(t.id) ?? null,
+      committedPays: t.byAgreed,
       committedRemedies: n,
       saving: formatAmount(saving, dp),
       savingGross: formatAmount(gross, dp),
@@ -389,7 +478,8 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
     quoted,
     committed,
     change,
-    undecided: { ...stages.discovered, findings: undecidedFindings },
+    undecided: { ...totalsOf(awaitingAcc, ctx), findings: undecidedFindings },
+    quoteAwaiting: totalsOf(acc(quoteAwaitingItems), ctx),
     ifAllApproved,
     accessSaving: { net: formatAmount(savingNet, dp), gross: formatAmount(savingGross, dp) },
     findings,
@@ -398,7 +488,7 @@ export function priceEstimate(input: EstimateInput, pricing: WorkshopPricing): P
 
 function priceFindings(work: WorkLine[], access: Map<string, WorkAccess>, ctx: PricingContext): PricedFinding[] {
   const byFinding = new Map<string, WorkLine[]>();
-  // Which remedies already pay for each access task: the inspection scope, and each approved finding.
+  // Which remedies already pay for each access task: the agreed inspection scope, and each approved finding.
   const payers = new Map<string, Set<string>>();
   for (const l of work) {
     if (l.findingId !== null) {
@@ -406,7 +496,7 @@ function priceFindings(work: WorkLine[], access: Map<string, WorkAccess>, ctx: P
       if (list) list.push(l);
       else byFinding.set(l.findingId, [l]);
     }
-    if (l.accessTaskId !== null && (l.stage === 'inspection' || l.stage === 'approved')) {
+    if (l.accessTaskId !== null && ((l.stage === 'inspection' && l.agreed) || l.stage === 'approved')) {
       const who = l.stage === 'inspection' ? SCOPE_REMEDY : (l.findingId ?? SCOPE_REMEDY);
       const set = payers.get(l.accessTaskId);
       if (set) set.add(who);

@@ -27,6 +27,12 @@ interface LineCommon {
   /** The opening-up work this line needs, charged once however many lines share it. */
   accessTaskId?: string | null;
   discount?: LineDiscount | null;
+  /**
+   * Inspection-scope lines only: has the owner agreed this line of the quote (online, by phone, or
+   * recorded before quotes were agreed)? Undefined counts as agreed; the server always says.
+   * An unagreed inspection line is quoted but awaits the owner like discovered work.
+   */
+  agreed?: boolean;
 }
 
 /** Hours × a labour rate per hour. */
@@ -76,6 +82,34 @@ export interface EstimateInput {
   accessTasks?: AccessTaskInput[];
 }
 
+/** A line whose amount excluding VAT is already known (already priced by the engine, rounded once). */
+export interface NetLineInput {
+  id: string;
+  stage: EstimateStage;
+  agreed?: boolean;
+  kind: LineKind;
+  /** After any line discount, in the currency's minor units. */
+  net: string;
+  vatRate: VatRateCode;
+  findingId?: string | null;
+  accessTaskId?: string | null;
+}
+
+/** An access task whose labour is already priced. */
+export interface NetAccessTaskInput {
+  id: string;
+  net: string;
+  vatRate: VatRateCode;
+}
+
+export interface NetEstimateInput {
+  lines: NetLineInput[];
+  accessTasks?: NetAccessTaskInput[];
+}
+
+/** What prices already-priced lines: no mark-ups apply. */
+export type NetPricing = Pick<WorkshopPricing, 'currency' | 'vatRounding' | 'vatRates'>;
+
 /** The workshop's settings that prices depend on (map a WorkshopDto with `workshopPricingFrom`). */
 export interface WorkshopPricing {
   currency: string;
@@ -104,6 +138,8 @@ export interface Totals {
 export interface PricedLine {
   id: string;
   stage: EstimateStage;
+  /** Inspection lines: agreed by the owner (true for every other stage). */
+  agreed: boolean;
   kind: LineKind;
   findingId: string | null;
   accessTaskId: string | null;
@@ -126,7 +162,9 @@ export interface PricedAccessTask {
   vatPercent: string;
   /** The stage that pays for it: inspection, then approved, then discovered, then declined; null when no line uses it. */
   chargedIn: EstimateStage | null;
-  /** Distinct remedies (findings, or the inspection scope) sharing it in the inspection scope and approved work. */
+  /** True when agreed work pays for it (an agreed inspection line or an approved line names it): it is in `committed`. */
+  committedPays: boolean;
+  /** Distinct remedies (findings, or the inspection scope) sharing it in the agreed inspection scope and approved work. */
   committedRemedies: number;
   /** Net saved against charging it once per remedy: (remedies − 1) × its net. */
   saving: string;
@@ -145,7 +183,7 @@ export interface PricedFinding {
   work: Totals;
   /** Access tasks it names that nothing already committed pays for, and so would be charged with it. */
   accessCharged: string[];
-  /** Access tasks it names that the inspection scope or other approved work already pays for. */
+  /** Access tasks it names that the agreed inspection scope or other approved work already pays for. */
   accessCovered: string[];
   /** Its price on its own, incl. uncovered access: what the owner is asked to approve. */
   price: Totals;
@@ -157,14 +195,22 @@ export interface PricedEstimate {
   lines: PricedLine[];
   accessTasks: PricedAccessTask[];
   stages: Record<EstimateStage, Totals>;
-  /** The original quote: the inspection scope. */
+  /** The quote as it stands: every inspection-scope line, agreed or not. */
   quoted: Totals;
-  /** What will be invoiced: inspection scope plus approved work (VAT worked on the whole, not per stage). */
+  /**
+   * Agreed so far, what will be invoiced: the agreed inspection scope plus approved work, and the
+   * access tasks they need (VAT worked on the whole, not per stage).
+   */
   committed: Totals;
   /** committed − quoted. */
   change: { net: string; vat: string; gross: string };
-  /** Discovered work still awaiting the owner's decision; `findings` counts findings with a line awaiting one. */
+  /**
+   * Everything awaiting the owner: unagreed inspection lines and discovered work, with the access
+   * tasks they need that agreed work does not pay for; `findings` counts findings with a line awaiting one.
+   */
   undecided: Totals & { findings: number };
+  /** The unagreed inspection lines only (with access tasks they need that agreed work does not pay for). */
+  quoteAwaiting: Totals;
   /** committed plus everything undecided. */
   ifAllApproved: Totals;
   accessSaving: { net: string; gross: string };

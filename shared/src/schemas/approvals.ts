@@ -4,6 +4,7 @@ import type { FindingCategory } from './findings.js';
 import type { ChecklistLimit } from './templates.js';
 import type { SnapshotPhoto } from './photos.js';
 import type { LineKind, Totals, VatRateCode } from '../pricing/types.js';
+import { QUOTE_ITEM_ID, type Amounts, type ChoiceBasis } from '../pricing/choice.js';
 import type { ApprovalRequestState } from '../states.js';
 
 /**
@@ -29,63 +30,62 @@ export interface PreAuthorisationDto {
   headroom: string | null;
 }
 
-/** Send for approval: the manager picks priced findings of one job. */
-export const approvalRequestCreateSchema = z.object({
-  findingIds: z.array(idSchema).min(1, { message: 'Choose at least one priced finding.' }).max(50),
-  /** A short note from the workshop shown above the findings. */
-  message: optionalText(1000, 'Message'),
+/**
+ * Send for approval: the manager picks priced findings of one job, and/or the quote (every
+ * inspection line the owner has not agreed yet, as one item "quote").
+ */
+export const approvalRequestCreateSchema = z
+  .object({
+    findingIds: z.array(idSchema).max(50).default([]),
+    /** Put the unagreed inspection scope to the owner as the item "quote". */
+    includeQuote: z.boolean().default(false),
+    /** A short note from the workshop shown above the items. */
+    message: optionalText(1000, 'Message'),
+    /** The estimate version the manager was looking at: a stale one is refused (409 stale_version). */
+    estimateVersion: z.number().int().min(0),
+  })
+  .superRefine((v, ctx) => {
+    if (!v.includeQuote && v.findingIds.length === 0) {
+      ctx.addIssue({ code: 'custom', path: ['findingIds'], message: 'Choose the quote or at least one priced finding.' });
+    }
+  });
+export type ApprovalRequestCreateInput = z.input<typeof approvalRequestCreateSchema>;
+
+/** The workshop records that the owner agreed the quote by phone: who, when, and the estimate it covers. */
+export const quotePhoneAgreementSchema = z.object({
+  /** Who agreed on the phone, in the workshop's words, e.g. "Rowan Tillett, the owner". */
+  agreedWith: z.string().trim().min(2, { message: 'Say who agreed the quote on the phone.' }).max(200),
+  agreedAt: z.iso
+    .datetime({ offset: true, message: 'Give the date and time of the call.' })
+    .refine((v) => Date.parse(v) <= Date.now() + 60_000, { message: 'The call cannot be in the future.' }),
+  note: optionalText(1000, 'Note'),
   /** The estimate version the manager was looking at: a stale one is refused (409 stale_version). */
   estimateVersion: z.number().int().min(0),
 });
-export type ApprovalRequestCreateInput = z.input<typeof approvalRequestCreateSchema>;
+export type QuotePhoneAgreementInput = z.input<typeof quotePhoneAgreementSchema>;
 
-/** One discovered line of a finding, as frozen in a snapshot. */
+/** One line of an item (the quote's inspection lines, or a finding's discovered lines), as frozen in a snapshot. */
 export interface SnapshotLine {
   description: string;
   kind: LineKind;
   quantity: string;
-  /** After any line discount, in the currency's minor units. */
-  net: string;
-  vatRate?: VatRateCode;
-  /** The opening-up task this line needs (an id in `pricingBasis.accessTasks`), or null. */
-  accessTaskId?: string | null;
-}
-
-/** The rest of the engine's input for a request: VAT rates and the opening-up tasks its findings need. */
-export interface SnapshotPricingBasis {
-  /** The workshop's VAT percentages at sending. */
-  vatRates: { standard: string; reduced: string; zero: string };
-  /** Every access task a line of this request names, with its own labour priced (hours × rate, rounded). */
-  accessTasks: { id: string; name: string; net: string; vatRate: VatRateCode }[];
-  /** Of those, the ids the inspection scope or already-approved work pays for: never charged in this request. */
-  accessPaid: string[];
-  /**
-   * The work already committed at sending (inspection scope and approved work) as engine inputs, so
-   * the page can price the whole estimate as it would stand after the owner's choice and show the
-   * new total with VAT worked on the whole invoice, as the estimate will. Absent from snapshots sent
-   * before it existed: the page then adds "approved so far" and "approving now".
-   */
-  committed?: SnapshotCommittedWork;
-}
-
-/** One committed line as the engine needs it: no description, only what prices it. */
-export interface SnapshotCommittedLine {
-  stage: 'inspection' | 'approved';
-  kind: LineKind;
-  /** After any line discount, in the currency's minor units. */
+  /** After any line discount, in the currency's minor units: the engine's own figure. */
   net: string;
   vatRate: VatRateCode;
+  /** The opening-up task this line needs (an id in `basis.accessTasks` or `basis.committed.accessTasks`), or null. */
   accessTaskId: string | null;
 }
 
-export interface SnapshotCommittedWork {
-  lines: SnapshotCommittedLine[];
-  /** Opening-up tasks committed work pays for (their own labour priced), including any the request's lines also name. */
-  accessTasks: { id: string; net: string; vatRate: VatRateCode }[];
-}
+/** The item id of the quote in a request's decisions. */
+export type DecisionItemId = typeof QUOTE_ITEM_ID | string;
 
-/** What the owner saw, frozen at sending. Its SHA-256 (hex, of the canonical JSON) is the snapshot hash. */
+/**
+ * What the owner saw, frozen at sending. Its SHA-256 (hex, of the canonical JSON) is the snapshot
+ * hash. Version 3: every figure comes from `priceChoice(basis, …)`; older documents were converted
+ * once by migration 0050 (kept beside the hash the owner saw).
+ */
 export interface ApprovalSnapshot {
+  version: 3;
   requestId: string;
   jobId: string;
   jobNumber: string;
@@ -100,6 +100,16 @@ export interface ApprovalSnapshot {
   message: string;
   sentAt: string;
   expiresAt: string;
+  /** What prices any choice on this request (`priceChoice`). */
+  basis: ChoiceBasis;
+  /** The quote when the request holds it (item id "quote"). */
+  quote: null | {
+    lines: SnapshotLine[];
+    /** Its fixed price if everything were approved (excl. opening-up, shown once on its own line). */
+    gross: string;
+    /** The first quote, or a change to a quote agreed before. */
+    changeOf: 'first' | 'change';
+  };
   findings: {
     findingId: string;
     number: string;
@@ -109,35 +119,22 @@ export interface ApprovalSnapshot {
     seen: string;
     measuredValue: string | null;
     limit: ChecklistLimit | null;
-    /** The finding's photos at sending, oldest first (a snapshot stored before photos existed may lack it: read as []). */
+    /** The finding's photos at sending, oldest first. */
     photos: SnapshotPhoto[];
-    /**
-     * Its discovered lines. `net` is after any discount; `vatRate` and `accessTaskId` make each line
-     * an engine input (absent from snapshots sent before `pricingBasis` existed).
-     */
+    /** Its discovered lines. */
     lines: SnapshotLine[];
-    /** Its price on its own incl. any access work nothing committed already pays for. */
-    price: Totals;
-    /** Access work already paid for elsewhere (names), so not charged again here. */
-    accessCovered: string[];
-    /** The saving incl. VAT from sharing access work with committed work. */
-    accessSavingGross: string;
+    /** Its fixed price if everything were approved (excl. opening-up, shown once on its own line). */
+    gross: string;
   }[];
-  /**
-   * What the pricing engine needs, with the findings' lines, to price ANY choice of this request's
-   * findings exactly, shared opening-up included. Absent from snapshots sent before it existed: the
-   * page then falls back to adding the findings' own prices.
-   */
-  pricingBasis?: SnapshotPricingBasis;
+  /** `priceChoice` with every item approved, and what was agreed before this request. */
   totals: {
-    /** The inspection scope as first quoted. */
+    /** The quote as it stood at sending (every inspection line). */
     quoted: Totals;
-    /** Inspection scope plus work approved before this request. */
-    approvedSoFar: Totals;
-    /** Everything in this request, if all of it were approved. */
-    thisRequest: Totals;
-    /** Other discovered work still awaiting a decision, outside this request. */
-    undecidedElsewhere: Totals;
+    agreedSoFar: Totals;
+    ifAllApproved: Totals;
+    approvingNow: Amounts;
+    /** Opening-up work shared by the items, each charged once: its fixed price if everything were approved. */
+    openingUp: { id: string; name: string; gross: string; neededBy: string[] }[];
   };
 }
 
@@ -146,6 +143,8 @@ export interface ApprovalRequestDto {
   jobId: string;
   state: ApprovalRequestState;
   findingIds: string[];
+  /** The request holds the quote (item "quote"). */
+  includesQuote: boolean;
   sentAt: string;
   expiresAt: string;
   decidedAt: string | null;
@@ -168,14 +167,17 @@ export interface SendForApprovalResultDto {
 export const DECISIONS = ['approve', 'decline'] as const;
 export type Decision = (typeof DECISIONS)[number];
 
-/** The owner's decisions on every finding of one request, confirmed by typing their name. */
+/** An item of a request: "quote", or a finding's id. */
+export const decisionItemIdSchema = z.union([z.literal(QUOTE_ITEM_ID), idSchema], { message: 'Not an item of this request.' });
+
+/** The owner's decisions on every item of one request (the quote and/or findings), confirmed by typing their name. */
 export const decisionSubmitSchema = z.object({
   snapshotHash: z.string().regex(/^[0-9a-f]{64}$/, { message: 'This page is out of date: reload it.' }),
   decisions: z
     .array(
       z.object({
-        findingId: idSchema,
-        decision: z.enum(DECISIONS, { message: 'Approve or decline this finding.' }),
+        itemId: decisionItemIdSchema,
+        decision: z.enum(DECISIONS, { message: 'Approve or decline this item.' }),
         note: optionalText(1000, 'Note'),
       }),
     )
@@ -193,7 +195,7 @@ export interface DecisionPageDto {
   snapshot: ApprovalSnapshot;
   snapshotHash: string;
   /** Present once decided (never through a link that a newer one has superseded). */
-  decisions: { findingId: string; decision: Decision; note: string }[] | null;
+  decisions: { itemId: DecisionItemId; decision: Decision; note: string }[] | null;
   decidedByName: string | null;
   decidedAt: string | null;
   /**

@@ -12,6 +12,7 @@ import {
   type PricedEstimate,
   type VatRateCode,
 } from '../pricing/types.js';
+import type { AgreedHow, QuoteState } from '../states.js';
 
 /**
  * One stored estimate line. The client makes ids (UUIDs) for new lines and access tasks so that a
@@ -108,6 +109,9 @@ export interface EstimateLineDto {
   findingId: string | null;
   accessTaskId: string | null;
   discountPercent: string | null;
+  /** Inspection lines: when the owner agreed this line of the quote; null while unagreed (always null for other stages). */
+  agreedAt: string | null;
+  agreedHow: AgreedHow | null;
 }
 
 export interface AccessTaskDto {
@@ -127,6 +131,20 @@ export interface EstimateDto {
   accessTasks: AccessTaskDto[];
   /** Every figure, from the pricing engine on the server. The client's live preview uses the same engine. */
   priced: PricedEstimate;
+  quote: EstimateQuoteDto;
+}
+
+/** The quote (the inspection scope as the owner sees it): its state derived from agreement and open requests. */
+export interface EstimateQuoteDto {
+  state: QuoteState;
+  /** The unagreed inspection lines incl. VAT (the engine's quoteAwaiting gross). */
+  awaitingGross: string;
+  /** Who agreed it last (the owner's typed name, or who was on the phone); null while never agreed. */
+  agreedBy: string | null;
+  agreedAt: string | null;
+  agreedHow: AgreedHow | null;
+  /** The request holding the quote that waits for the owner, if any. */
+  openRequestId: string | null;
 }
 
 /** Maps stored lines to the pricing engine's input: the one place this mapping is written. */
@@ -140,6 +158,8 @@ export function estimateEngineInput(lines: EstimateLineDto[], accessTasks: Acces
         findingId: l.findingId,
         accessTaskId: l.accessTaskId,
         discount: l.discountPercent !== null ? { percent: l.discountPercent } : null,
+        // Only inspection lines await agreement; the engine ignores the flag elsewhere.
+        agreed: l.stage === 'inspection' ? l.agreedAt !== null : undefined,
       };
       switch (l.kind) {
         case 'labour':

@@ -79,6 +79,18 @@ export interface JobDto {
   version: number;
   createdAt: string;
   updatedAt: string;
+  /** Owners' decisions nobody on the staff has marked seen yet (POST /api/jobs/:id/decisions-seen clears it); null when none. */
+  decisionsToSee: JobDecisionsToSee | null;
+}
+
+export interface JobDecisionsToSee {
+  /** Decided requests not yet seen. */
+  requests: number;
+  /** An airworthiness finding was declined in one of them: show the stronger mark. */
+  declinedAirworthiness: boolean;
+  /** The owner left a note on an item in one of them: show the stronger mark. */
+  ownerNote: boolean;
+  lastDecidedAt: string;
 }
 
 export interface AuditEventDto {
