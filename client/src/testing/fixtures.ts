@@ -21,6 +21,7 @@ export function aJob(overrides: Partial<JobDto> = {}): JobDto {
     version: 3,
     createdAt: '2026-11-30T09:00:00Z',
     updatedAt: '2026-11-30T09:00:00Z',
+    decisionsToSee: null,
     ...overrides,
   };
 }

@@ -10,6 +10,7 @@ const base: ApprovalRequestDto = {
   jobId: JOB,
   state: 'sent',
   findingIds: [],
+  includesQuote: false,
   sentAt: '2026-12-01T10:00:00Z',
   expiresAt: '2026-12-08T10:00:00Z',
   decidedAt: null,

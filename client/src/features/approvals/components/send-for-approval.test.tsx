@@ -58,6 +58,7 @@ describe('SendForApproval', () => {
         jobId: JOB,
         state: 'sent',
         findingIds: [B.id],
+        includesQuote: false,
         sentAt: '2026-12-01T10:00:00Z',
         expiresAt: '2026-12-08T10:00:00Z',
         decidedAt: null,

@@ -1,18 +1,88 @@
-import type { ApprovalSnapshot, DecisionPageDto, Totals } from '@wingstage/shared';
+import { priceChoice, QUOTE_ITEM_ID, type ApprovalSnapshot, type ChoiceBasis, type ChoiceLine, type DecisionPageDto, type VatRounding } from '@wingstage/shared';
 import { act, fireEvent, render, screen, within } from '@testing-library/react';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { ApiError } from '@/lib/api-client';
 import { DecisionPage } from './decision-page';
-import { runningTotal } from './running-total';
-
-const totals = (net: string, vat: string, gross: string): Totals => ({ net, vat, gross, byRate: [{ code: 'standard', rate: '20', net, vat }] });
 
 const PLUG = '2f0e7a1c-3b4d-4e5f-8a6b-7c8d9e0f1a2b';
 const SPRING = '8a9b0c1d-2e3f-4a5b-9c6d-7e8f9a0b1c2d';
 const HOSE = 'c3d4e5f6-a7b8-4c9d-8e0f-1a2b3c4d5e6f';
+const COWL = '5e6f7a8b-9c0d-4e1f-8a2b-3c4d5e6f7a8b';
 
-function snapshot(over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot {
+const line = (kind: ChoiceLine['kind'], net: string, accessTaskId: string | null = null): ChoiceLine => ({ kind, net, vatRate: 'standard', accessTaskId });
+
+const FINDINGS: ApprovalSnapshot['findings'] = [
+  {
+    findingId: PLUG,
+    number: 'F-1',
+    title: 'Spark plug gap over the wear limit',
+    category: 'recommended',
+    location: 'Engine, cylinder 1',
+    seen: 'Gap measured wide.',
+    measuredValue: '0.9800',
+    limit: { min: null, max: '0.9', unit: 'mm', source: 'Example for the demo' },
+    photos: [],
+    lines: [{ description: 'Fit new plugs', quantity: '0.5', ...line('labour', '50.00', COWL) }],
+    gross: '',
+  },
+  {
+    findingId: SPRING,
+    number: 'F-2',
+    title: 'Exhaust spring cracked',
+    category: 'airworthiness',
+    location: 'Exhaust, rear cylinder',
+    seen: 'Cracked at the hook.',
+    measuredValue: null,
+    limit: null,
+    photos: [],
+    lines: [{ description: 'Replace spring', quantity: '0.5', ...line('labour', '25.00', COWL) }],
+    gross: '',
+  },
+  {
+    findingId: HOSE,
+    number: 'F-3',
+    title: 'Fuel hose hardened',
+    category: 'advisory',
+    location: 'Fuel line, left',
+    seen: 'Hose stiff.',
+    measuredValue: null,
+    limit: null,
+    photos: [],
+    lines: [{ description: 'New hose', quantity: '1', ...line('part', '10.00') }],
+    gross: '',
+  },
+];
+
+const QUOTE_LINES: NonNullable<ApprovalSnapshot['quote']>['lines'] = [
+  { description: 'Annual permit inspection', quantity: '6', ...line('labour', '360.00') },
+  { description: 'Oil filter', quantity: '1', ...line('part', '12.00') },
+];
+
+/**
+ * A version 3 snapshot as the server freezes it: the basis, and the display prices and totals taken
+ * from priceChoice with every item approved (as the server fills them). Round nets at 20% VAT, so
+ * every figure below is checked by hand: agreed work £500 net → £600.00; F-1 £50 → £60.00; F-2 £25 →
+ * £30.00; F-3 £10 → £12.00; the cowling £15 → £18.00; the quote £372 → £446.40.
+ */
+function build({ findings = 3, quote = false, rounding = 'line-nearest' as VatRounding, committed = [line('fee', '500.00')] } = {}): ApprovalSnapshot {
+  const fs = FINDINGS.slice(0, findings).map((f) => ({ ...f, lines: f.lines.map((l) => ({ ...l })) }));
+  const items: ChoiceBasis['items'] = [
+    ...(quote ? [{ id: QUOTE_ITEM_ID, kind: 'quote' as const, lines: QUOTE_LINES.map(({ kind, net, vatRate, accessTaskId }) => ({ kind, net, vatRate, accessTaskId })) }] : []),
+    ...fs.map((f) => ({ id: f.findingId, kind: 'finding' as const, lines: f.lines.map(({ kind, net, vatRate, accessTaskId }) => ({ kind, net, vatRate, accessTaskId })) })),
+  ];
+  const needsCowl = items.some((i) => i.lines.some((l) => l.accessTaskId === COWL));
+  const basis: ChoiceBasis = {
+    currency: 'GBP',
+    rounding,
+    vatRates: { standard: '20', reduced: '5', zero: '0' },
+    committed: { lines: committed, accessTasks: [] },
+    items,
+    accessTasks: needsCowl ? [{ id: COWL, name: 'Cowling off', net: '15.00', vatRate: 'standard' }] : [],
+  };
+  const all = priceChoice(basis, Object.fromEntries(items.map((i) => [i.id, 'approve' as const])));
+  const fixed = (id: string) => all.items.find((i) => i.id === id)!.allApprovedGross;
   return {
+    version: 3,
     requestId: '0b1c2d3e-4f5a-4b6c-8d7e-9f0a1b2c3d4e',
     jobId: '1c2d3e4f-5a6b-4c7d-8e9f-0a1b2c3d4e5f',
     jobNumber: 'J-0042',
@@ -22,67 +92,24 @@ function snapshot(over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot {
     ownerName: 'Hazel Brambury',
     workshopName: 'Brackenfold Light Aircraft Engineering',
     currency: 'GBP',
-    rounding: 'line-nearest',
+    rounding,
     message: 'Two things turned up.',
     sentAt: '2026-12-01T10:00:00Z',
     expiresAt: '2026-12-08T10:00:00Z',
-    findings: [
-      {
-        findingId: PLUG,
-        number: 'F-1',
-        title: 'Spark plug gap over the wear limit',
-        category: 'recommended',
-        location: 'Engine, cylinder 1',
-        seen: 'Gap measured wide.',
-        measuredValue: '0.9800',
-        limit: { min: null, max: '0.9', unit: 'mm', source: 'Example for the demo' },
-        photos: [],
-        lines: [{ description: 'Fit new plugs', kind: 'labour', quantity: '0.5', net: '31.00' }],
-        price: totals('63.64', '12.73', '76.37'),
-        accessCovered: ['Cowling off'],
-        accessSavingGross: '18.60',
-      },
-      {
-        findingId: SPRING,
-        number: 'F-2',
-        title: 'Exhaust spring cracked',
-        category: 'airworthiness',
-        location: 'Exhaust, rear cylinder',
-        seen: 'Cracked at the hook.',
-        measuredValue: null,
-        limit: null,
-        photos: [],
-        lines: [{ description: 'Replace spring', kind: 'labour', quantity: '0.5', net: '31.00' }],
-        price: totals('31.00', '6.20', '37.20'),
-        accessCovered: [],
-        accessSavingGross: '0.00',
-      },
-      {
-        findingId: HOSE,
-        number: 'F-3',
-        title: 'Fuel hose hardened',
-        category: 'advisory',
-        location: 'Fuel line, left',
-        seen: 'Hose stiff.',
-        measuredValue: null,
-        limit: null,
-        photos: [],
-        lines: [],
-        price: totals('10.01', '2.00', '12.01'),
-        accessCovered: [],
-        accessSavingGross: '0.00',
-      },
-    ],
+    basis,
+    quote: quote ? { lines: QUOTE_LINES, gross: fixed(QUOTE_ITEM_ID), changeOf: 'first' } : null,
+    findings: fs.map((f) => ({ ...f, gross: fixed(f.findingId) })),
     totals: {
-      quoted: totals('463.44', '92.69', '556.13'),
-      approvedSoFar: totals('463.44', '92.69', '556.13'),
-      // Less than the three prices added up: shared opening-up is charged once across the request.
-      thisRequest: totals('100.00', '20.00', '120.00'),
-      undecidedElsewhere: totals('5.00', '1.00', '6.00'),
+      quoted: all.agreedSoFar,
+      agreedSoFar: all.agreedSoFar,
+      ifAllApproved: all.ifAllApproved,
+      approvingNow: all.approvingNow,
+      openingUp: all.openingUp.map((o) => ({ id: o.id, name: o.name, gross: o.allApprovedGross, neededBy: o.neededBy })),
     },
-    ...over,
   };
 }
+
+const snapshot = (over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot => ({ ...build(), ...over });
 
 // Each test starts with nothing kept on the device (jsdom's localStorage lives for the whole file).
 beforeEach(() => localStorage.clear());
@@ -101,50 +128,30 @@ const page = (over: Partial<DecisionPageDto> = {}): DecisionPageDto => ({
   ...over,
 });
 
-// These snapshots predate the pricing basis: the page adds up the findings' own prices.
-describe('runningTotal for a snapshot without a pricing basis', () => {
-  it('when nothing is chosen yet, then this request counts nothing and every price is undecided, plus the work awaiting a decision elsewhere', () => {
-    const t = runningTotal(snapshot(), {});
-    // The whole request undecided is the engine's request total (120.00, shared opening-up once) plus 6.00 elsewhere.
-    expect(t).toMatchObject({ quoted: '556.13', approvedSoFar: '556.13', thisRequestAsChosen: '0.00', undecided: '126.00', newTotal: '556.13', sharesOpeningUp: true, exact: false, chosen: 0, of: 3 });
-  });
-
-  it('when some findings are approved and one declined, then the sums are exact to the penny from the snapshot figures', () => {
-    const t = runningTotal(snapshot(), { [PLUG]: 'approve', [SPRING]: 'decline' });
-    // 76.37 approved; 12.01 still open + 6.00 elsewhere; 556.13 + 76.37.
-    expect(t).toMatchObject({ thisRequestAsChosen: '76.37', undecided: '18.01', newTotal: '632.50', chosen: 2 });
-  });
-
-  it("when every finding is approved, then the engine's own request total is used, so shared opening-up is not counted twice", () => {
-    const t = runningTotal(snapshot(), { [PLUG]: 'approve', [SPRING]: 'approve', [HOSE]: 'approve' });
-    expect(t.thisRequestAsChosen).toBe('120.00');
-    expect(t.newTotal).toBe('676.13');
-    expect(t.undecided).toBe('6.00');
-  });
-
-  it('when figures would drift as floats (0.1 + 0.2), then the decimal sum stays exact', () => {
-    const s = snapshot();
-    s.findings[0]!.price = totals('0.10', '0.00', '0.10');
-    s.findings[1]!.price = totals('0.20', '0.00', '0.20');
-    expect(runningTotal(s, { [PLUG]: 'approve', [SPRING]: 'approve' }).thisRequestAsChosen).toBe('0.30');
-  });
-});
-
-function choose(name: 'Approve' | 'Decline') {
+function choose(name: 'Approve' | 'Accept' | 'Decline') {
   fireEvent.click(screen.getByRole('radio', { name: new RegExp(`^${name}`) }));
 }
 
+const total = (which: string) => within(screen.getByTestId('running-total')).getByText(/./, { selector: `[data-total="${which}"]` }).textContent;
+
 describe('DecisionPage', () => {
-  it('shows one finding at a time with its category, measurement, price incl. VAT and the access saving in words', () => {
+  it('shows one finding at a time with its category, measurement, its price without opening-up, and the opening-up it needs as its own figure', () => {
     render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
     expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
+    expect(screen.getByRole('heading', { level: 1 }).textContent).toBe('Work found on Q-SALT');
+    expect(screen.getByText('Waiting for your decision')).toBeTruthy();
     expect(screen.getAllByTestId('decide-finding')).toHaveLength(1);
     expect(screen.getByText('Recommended')).toBeTruthy();
     expect(screen.getByText('0.98 mm; the example limit is at most 0.9 mm')).toBeTruthy();
-    expect(within(screen.getByTestId('decide-price')).getByText('£76.37 incl. VAT')).toBeTruthy();
-    expect(within(screen.getByTestId('decide-price')).getByText('£63.64 excl. VAT')).toBeTruthy();
-    expect(screen.getByText(/“Cowling off”.*saves you £18\.60 incl\. VAT/)).toBeTruthy();
-    expect(within(screen.getByTestId('running-total')).getByText('£556.13', { selector: '[data-total="quoted"]' })).toBeTruthy();
+    const price = screen.getByTestId('decide-price');
+    // £50 net + 20% VAT = £60.00; the cowling £15 + 20% = £18.00, shown apart.
+    expect(within(price).getByText('£60.00 incl. VAT')).toBeTruthy();
+    expect(within(price).getByTestId('decide-needs-opening-up').textContent).toMatch(/“Cowling off”\): £18\.00 incl\. VAT, shown on its own line and charged once, however many/);
+    expect(total('agreed-so-far')).toBe('£600.00');
+    expect(total('approving-now')).toBe('£0.00');
+    // Everything if approved: 60 + 30 + 12 + 18.
+    expect(total('undecided')).toBe('£120.00');
+    expect(total('new-total')).toBe('£600.00');
   });
 
   it('when an airworthiness finding is declined, then the page says plainly that the aircraft cannot be released with it open and that the inspector decides', () => {
@@ -162,7 +169,7 @@ describe('DecisionPage', () => {
     expect(screen.queryByText(/cannot be released/)).toBeNull();
   });
 
-  it('when the owner reviews and confirms, then the hash, every decision with its note and the typed name are sent', async () => {
+  it('when the owner reviews and confirms, then the hash, every item’s decision with its note and the typed name are sent', async () => {
     const onSubmit = vi.fn().mockResolvedValue(undefined);
     render(<DecisionPage token={TOKEN} page={page()} onSubmit={onSubmit} />);
     choose('Approve');
@@ -170,7 +177,7 @@ describe('DecisionPage', () => {
     choose('Decline');
     fireEvent.change(screen.getByLabelText('A note for the workshop (optional)'), { target: { value: 'Spring from our stores.' } });
     fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
-    // The review refuses to confirm while a finding has no decision, and says which.
+    // The review refuses to confirm while an item has no decision, and says which.
     fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
     expect((screen.getByRole('button', { name: 'Confirm decisions' }) as HTMLButtonElement).disabled).toBe(true);
     fireEvent.click(screen.getByRole('button', { name: 'Go to F-3' }));
@@ -191,9 +198,9 @@ describe('DecisionPage', () => {
       snapshotHash: HASH,
       typedName: 'Hazel Brambury',
       decisions: [
-        { findingId: PLUG, decision: 'approve', note: '' },
-        { findingId: SPRING, decision: 'decline', note: 'Spring from our stores.' },
-        { findingId: HOSE, decision: 'approve', note: '' },
+        { itemId: PLUG, decision: 'approve', note: '' },
+        { itemId: SPRING, decision: 'decline', note: 'Spring from our stores.' },
+        { itemId: HOSE, decision: 'approve', note: '' },
       ],
     });
   });
@@ -201,7 +208,7 @@ describe('DecisionPage', () => {
   it('when the server refuses because the workshop changed something, then the reason is shown with a way to reload', async () => {
     const onSubmit = vi.fn().mockRejectedValue(new ApiError({ code: 'conflict', status: 409, message: 'The workshop changed something on this request: reload the page to see the latest.' }));
     const onReload = vi.fn();
-    render(<DecisionPage token={TOKEN} page={page({ snapshot: snapshot({ findings: snapshot().findings.slice(0, 1) }) })} onSubmit={onSubmit} onReload={onReload} />);
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ findings: 1 }) })} onSubmit={onSubmit} onReload={onReload} />);
     choose('Approve');
     fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
     fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
@@ -219,7 +226,7 @@ describe('DecisionPage', () => {
     expect(screen.queryByRole('radio')).toBeNull();
   });
 
-  it('when the request is decided, then a receipt lists each decision, who made it and when', () => {
+  it('when the request is decided, then the receipt lists each decision, the opening-up once, and figures that add up to the new total', () => {
     render(
       <DecisionPage
         token={TOKEN}
@@ -227,9 +234,9 @@ describe('DecisionPage', () => {
           state: 'decided',
           closedReason: 'You decided this request on 1 Dec 2026.',
           decisions: [
-            { findingId: PLUG, decision: 'approve', note: '' },
-            { findingId: SPRING, decision: 'decline', note: 'Later.' },
-            { findingId: HOSE, decision: 'decline', note: '' },
+            { itemId: PLUG, decision: 'approve', note: '' },
+            { itemId: SPRING, decision: 'decline', note: 'Later.' },
+            { itemId: HOSE, decision: 'decline', note: '' },
           ],
           decidedByName: 'Hazel Brambury',
           decidedAt: '2026-12-01T12:30:00Z',
@@ -241,7 +248,108 @@ describe('DecisionPage', () => {
     expect(receipt.textContent).toContain('Thank you, Hazel Brambury.');
     expect(receipt.textContent).toContain('Your note: Later.');
     expect(receipt.textContent).toContain('Q-SALT cannot be released to fly while it is open');
-    expect(within(receipt).getByText('£632.50', { selector: '[data-total="new-total"]' })).toBeTruthy();
+    expect(receipt.querySelector('[data-receipt="F-1"]')!.textContent).toContain('£60.00 incl. VAT');
+    expect(receipt.querySelector('[data-receipt="F-3"]')!.textContent).toContain('£12.00 incl. VAT, not included');
+    const opening = receipt.querySelectorAll('[data-opening-up]');
+    expect(opening).toHaveLength(1);
+    expect(opening[0]!.textContent).toContain('Opening-up work shared by F-1 and F-2');
+    expect(opening[0]!.textContent).toContain('£18.00 incl. VAT');
+    // 60.00 + 18.00 = 78.00; 600.00 + 78.00 = 678.00.
+    expect(within(receipt).getByText('£78.00', { selector: '[data-total="approving-now"]' })).toBeTruthy();
+    expect(within(receipt).getByText('£678.00', { selector: '[data-total="new-total"]' })).toBeTruthy();
+  });
+});
+
+describe('DecisionPage running total from priceChoice', () => {
+  it('when one of two findings sharing opening-up is approved, then the opening-up is counted once and the figures add up', () => {
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Approve');
+    // F-1 £60.00 + the cowling £18.00.
+    expect(total('approving-now')).toBe('£78.00');
+    // Still open if approved: F-2 £30.00 (the cowling is already counted) + F-3 £12.00.
+    expect(total('undecided')).toBe('£42.00');
+    expect(total('new-total')).toBe('£678.00');
+    // F-2, with F-1 approved, adds only its own work, and says why.
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    expect(within(screen.getByTestId('decide-price')).getByText('£30.00 incl. VAT')).toBeTruthy();
+    expect(screen.getByTestId('decide-needs-opening-up').textContent).toContain('already counted once for other work you approved');
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    choose('Decline');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    expect(document.querySelector('[data-review="F-1"]')!.textContent).toContain('£60.00 incl. VAT');
+    expect(document.querySelector('[data-review="F-2"]')!.textContent).toContain('£30.00 incl. VAT');
+    expect(document.querySelectorAll('[data-opening-up]')).toHaveLength(1);
+    // 60 + 30 + 18 = 108, the same figure the bar shows: no footnote needed.
+    expect(screen.getByTestId('choice-rows-total').textContent).toBe('You are approving, incl. VAT£108.00');
+    expect(total('approving-now')).toBe('£108.00');
+  });
+
+  it('when VAT is rounded down on the invoice total, then what the finding adds is the whole-bill difference and the rows still add up to it', () => {
+    // Agreed £10.03 (VAT 2.006 → 2.00, £12.03), F-1 £20.03; the whole bill £30.06 (VAT 6.012 → 6.01) = £36.07,
+    // so approving F-1 adds £24.04 [derived from VAT Notice 700 §17.5].
+    const s = build({ findings: 1, rounding: 'invoice-down', committed: [line('labour', '10.03')] });
+    s.basis.items[0]!.lines = [line('fee', '20.03')];
+    s.basis.accessTasks = [];
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
+    expect(total('agreed-so-far')).toBe('£12.03');
+    choose('Approve');
+    expect(total('approving-now')).toBe('£24.04');
+    expect(total('new-total')).toBe('£36.07');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    expect(document.querySelector('[data-review="F-1"]')!.textContent).toContain('£24.04 incl. VAT');
+    expect(screen.getByTestId('choice-rows-total').textContent).toContain('£24.04');
+  });
+});
+
+describe('DecisionPage with the quote in the request', () => {
+  it('when the request holds the quote, then it comes first with its lines and price, and accepting it counts it', () => {
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ quote: true, findings: 1, committed: [] }) })} onSubmit={vi.fn()} />);
+    expect(screen.getByRole('heading', { level: 1 }).textContent).toBe('Our quote and work found on Q-SALT');
+    expect(screen.getByText('1 of 2 · The quote')).toBeTruthy();
+    const lines = screen.getByTestId('decide-quote-lines');
+    expect(within(lines).getByText('Annual permit inspection')).toBeTruthy();
+    expect(within(lines).getByText('6 h')).toBeTruthy();
+    // £372.00 net + 20% = £446.40.
+    expect(within(screen.getByTestId('decide-price')).getByText('£446.40 incl. VAT')).toBeTruthy();
+    expect(total('agreed-so-far')).toBe('£0.00');
+    choose('Accept');
+    expect(total('approving-now')).toBe('£446.40');
+    expect(total('new-total')).toBe('£446.40');
+    fireEvent.click(screen.getByRole('button', { name: 'On to what we found →' }));
+    expect(screen.getByText('2 of 2 · Finding F-1')).toBeTruthy();
+    choose('Approve');
+    // 446.40 + 60.00 + 18.00.
+    expect(total('new-total')).toBe('£524.40');
+  });
+
+  it('when the owner declines the quote, then the page says the work waits for them, and the quote is sent as item "quote"', async () => {
+    const onSubmit = vi.fn().mockResolvedValue(undefined);
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ quote: true, findings: 0, committed: [] }) })} onSubmit={onSubmit} />);
+    expect(screen.getByRole('heading', { level: 1 }).textContent).toBe('Our quote for Q-SALT');
+    choose('Decline');
+    expect(screen.getByText(/We will not start the quoted work without your agreement/)).toBeTruthy();
+    expect(total('approving-now')).toBe('£0.00');
+    fireEvent.change(screen.getByLabelText('A note for the workshop (optional)'), { target: { value: 'Please ring me.' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    expect(document.querySelector('[data-review="quote"]')!.textContent).toContain('£446.40 incl. VAT, not included');
+    fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
+    await vi.waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]![0].decisions).toEqual([{ itemId: 'quote', decision: 'decline', note: 'Please ring me.' }]);
+  });
+
+  it('when "Change the quote" is used on the review, then only the quote opens and the button goes back to the review', () => {
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ quote: true, findings: 1, committed: [] }) })} onSubmit={vi.fn()} />);
+    choose('Accept');
+    fireEvent.click(screen.getByRole('button', { name: 'On to what we found →' }));
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Change the quote' }));
+    expect(screen.getByText('1 of 2 · The quote')).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Back to your choices' }));
+    expect(screen.getByRole('heading', { name: 'Check your choices' })).toBeTruthy();
+    expect(document.querySelector('[data-review="quote"]')!.textContent).toContain('Accepted');
   });
 });
 
@@ -313,44 +421,6 @@ describe('DecisionPage photos', () => {
   });
 });
 
-describe('DecisionPage running total with a pricing basis', () => {
-  it('when one of two findings sharing opening-up is approved, then the bar shows the engine figure and no "may come out lower" note', () => {
-    const COWL = '5e6f7a8b-9c0d-4e1f-8a2b-3c4d5e6f7a8b';
-    const base = snapshot();
-    const s: ApprovalSnapshot = {
-      ...base,
-      findings: [
-        { ...base.findings[0]!, lines: [{ description: 'Fit new plugs', kind: 'labour', quantity: '0.5', net: '31.00', vatRate: 'standard', accessTaskId: COWL }], price: totals('46.50', '9.30', '55.80') },
-        { ...base.findings[1]!, lines: [{ description: 'Replace spring', kind: 'labour', quantity: '0.5', net: '31.00', vatRate: 'standard', accessTaskId: COWL }], price: totals('46.50', '9.30', '55.80') },
-      ],
-      pricingBasis: { vatRates: { standard: '20', reduced: '5', zero: '0' }, accessTasks: [{ id: COWL, name: 'Cowling off', net: '15.50', vatRate: 'standard' }], accessPaid: [] },
-      // 31.00 + 31.00 + 15.50 = 77.50; VAT 15.50; 93.00.
-      totals: { ...base.totals, thisRequest: totals('77.50', '15.50', '93.00') },
-    };
-    render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
-    choose('Approve');
-    const bar = screen.getByTestId('running-total');
-    // F-1 with the cowling: 55.80. Still open: F-2 without it, 31.00 + 6.20 = 37.20, plus 6.00 elsewhere.
-    expect(within(bar).getByText('£55.80', { selector: '[data-total="this-request"]' })).toBeTruthy();
-    expect(within(bar).getByText('£43.20', { selector: '[data-total="undecided"]' })).toBeTruthy();
-    expect(within(bar).getByText('£611.93', { selector: '[data-total="new-total"]' })).toBeTruthy();
-    expect(bar.textContent).not.toContain('may come out lower');
-    // F-2 with F-1 approved adds only its own work, and says why.
-    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
-    expect(screen.getByTestId('decide-adds').textContent).toContain('this adds £37.20 incl. VAT');
-    choose('Approve');
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
-    // 55.80 + 55.80 − 93.00.
-    expect(screen.getByTestId('decide-shared-saving').textContent).toMatch(/together they come to £93\.00 incl\. VAT, which is £18\.60 less/);
-  });
-
-  it('when an older snapshot is decided part-way with shared opening-up, then the note says the figures may come out lower', () => {
-    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
-    choose('Approve');
-    expect(screen.getByTestId('running-total').textContent).toContain('may come out lower');
-  });
-});
-
 describe('DecisionPage opened with an older link of a re-sent request', () => {
   it('then it shows the request closed, says a newer link was sent, and offers no choices, photos or receipt', () => {
     const s = snapshot();
@@ -374,35 +444,6 @@ describe('DecisionPage opened with an older link of a re-sent request', () => {
     expect(screen.queryByRole('radio')).toBeNull();
     expect(screen.queryByRole('img')).toBeNull();
     expect(screen.queryByTestId('running-total')).toBeNull();
-  });
-});
-
-describe('DecisionPage new total with the committed work in the snapshot', () => {
-  it('when VAT is rounded down on the invoice total, then the bar adds up to the whole-bill figure and says why approving adds a penny more', () => {
-    const base = snapshot();
-    // Inspection £10.03 (VAT 2.006 → 2.00), F-1 £20.03 (4.006 → 4.00); the whole bill £30.06 (6.012 → 6.01) = £36.07 [derived from VAT Notice 700 §17.5].
-    const s: ApprovalSnapshot = {
-      ...base,
-      rounding: 'invoice-down',
-      findings: [{ ...base.findings[0]!, lines: [{ description: 'Fit new plugs', kind: 'fee', quantity: '1', net: '20.03', vatRate: 'standard', accessTaskId: null }], price: totals('20.03', '4.00', '24.03') }],
-      pricingBasis: {
-        vatRates: { standard: '20', reduced: '5', zero: '0' },
-        accessTasks: [],
-        accessPaid: [],
-        committed: { lines: [{ stage: 'inspection', kind: 'labour', net: '10.03', vatRate: 'standard', accessTaskId: null }], accessTasks: [] },
-      },
-      totals: { quoted: totals('10.03', '2.00', '12.03'), approvedSoFar: totals('10.03', '2.00', '12.03'), thisRequest: totals('20.03', '4.00', '24.03'), undecidedElsewhere: totals('0.00', '0.00', '0.00') },
-    };
-    render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
-    const bar = screen.getByTestId('running-total');
-    expect(screen.queryByTestId('decide-vat-whole-bill')).toBeNull();
-    choose('Approve');
-    expect(within(bar).getByText('£12.03', { selector: '[data-total="approved-so-far"]' })).toBeTruthy();
-    expect(within(bar).getByText('£24.04', { selector: '[data-total="this-request"]' })).toBeTruthy();
-    expect(within(bar).getByText('£36.07', { selector: '[data-total="new-total"]' })).toBeTruthy();
-    expect(screen.getByTestId('decide-vat-whole-bill').textContent).toBe(
-      'VAT is worked out on the whole bill, so what you are approving adds £24.04 to it, not the £24.03 it comes to on its own.',
-    );
   });
 });
 
@@ -430,7 +471,7 @@ describe('DecisionPage keeps the owner’s choices on the device until they conf
 
   it('when the owner confirms, then the kept choices are cleared from the device', async () => {
     const onSubmit = vi.fn().mockResolvedValue(undefined);
-    render(<DecisionPage token={TOKEN} page={page({ snapshot: snapshot({ findings: snapshot().findings.slice(0, 1) }) })} onSubmit={onSubmit} />);
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ findings: 1 }) })} onSubmit={onSubmit} />);
     choose('Approve');
     expect(localStorage.getItem(DRAFT_KEY)).not.toBeNull();
     fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
@@ -442,7 +483,7 @@ describe('DecisionPage keeps the owner’s choices on the device until they conf
 
   it('when the confirmation is refused, then the kept choices stay on the device', async () => {
     const onSubmit = vi.fn().mockRejectedValue(new ApiError({ code: 'conflict', status: 409, message: 'The workshop changed something on this request: reload the page to see the latest.' }));
-    render(<DecisionPage token={TOKEN} page={page({ snapshot: snapshot({ findings: snapshot().findings.slice(0, 1) }) })} onSubmit={onSubmit} />);
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ findings: 1 }) })} onSubmit={onSubmit} />);
     choose('Approve');
     fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
     fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
@@ -482,7 +523,7 @@ describe('DecisionPage keeps the owner’s choices on the device until they conf
         page={page({
           state: 'decided',
           closedReason: 'You decided this request on 1 Dec 2026.',
-          decisions: snapshot().findings.map((f) => ({ findingId: f.findingId, decision: 'approve' as const, note: '' })),
+          decisions: snapshot().findings.map((f) => ({ itemId: f.findingId, decision: 'approve' as const, note: '' })),
           decidedByName: 'Hazel Brambury',
           decidedAt: '2026-12-01T12:30:00Z',
         })}

@@ -50,13 +50,17 @@ function line(over: Partial<EstimateLineDto>): EstimateLineDto {
     findingId: null,
     accessTaskId: null,
     discountPercent: null,
+    agreedAt: null,
+    agreedHow: null,
     ...over,
   };
 }
 
+const QUOTE_NOT_SENT: EstimateDto['quote'] = { state: 'not_sent', awaitingGross: '0.00', agreedBy: null, agreedAt: null, agreedHow: null, openRequestId: null };
+
 function estimateOf(lines: EstimateLineDto[], version = 3): EstimateDto {
   const real = vi.mocked(shared.priceEstimate);
-  return { jobId: JOB, version, currency: 'GBP', lines, accessTasks: [], priced: real(estimateEngineInput(lines, []), pricing) };
+  return { jobId: JOB, version, currency: 'GBP', lines, accessTasks: [], priced: real(estimateEngineInput(lines, []), pricing), quote: QUOTE_NOT_SENT };
 }
 
 function Harness({ estimate, suppliers = [] }: { estimate: EstimateDto; suppliers?: SupplierDto[] }) {

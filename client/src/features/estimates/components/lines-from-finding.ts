@@ -38,6 +38,8 @@ export function linesFromFinding(
     ratePerHour: null,
     discountPercent: null,
     vatRate: 'standard' as const,
+    agreedAt: null,
+    agreedHow: null,
   };
   const lines: EstimateLineDto[] = [
     {

@@ -36,6 +36,7 @@ const job = (id: string, aircraftId: string, title: string, state: JobDto['state
   version: 0,
   createdAt: '',
   updatedAt: '',
+  decisionsToSee: null,
 });
 
 describe('MyAircraftLetter', () => {
@@ -70,6 +71,7 @@ describe('MyAircraftLetter', () => {
       jobId: '0001',
       state: 'sent',
       findingIds: ['f1', 'f2'],
+      includesQuote: false,
       sentAt: '2026-12-01T10:00:00Z',
       expiresAt: '2026-12-08T10:00:00Z',
       decidedAt: null,
