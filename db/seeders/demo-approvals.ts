@@ -2,8 +2,8 @@ import { randomBytes, randomUUID } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import { estimateEngineInput, priceEstimate } from '../../shared/src/index.js';
 import { ApprovalRequest, AuditEvent, Customer, Finding, User, Workshop } from '../../server/src/models/index.js';
-import { buildSnapshot, sha256, snapshotHashOf } from '../../server/src/services/approvals.service.js';
-import { loadLines } from '../../server/src/services/estimates.service.js';
+import { buildSnapshot, sha256, snapshotHashOf } from '../../server/src/services/approvals/index.js';
+import { agreeQuoteLines, loadLines } from '../../server/src/services/estimates.service.js';
 import { findJob } from '../../server/src/services/job-access.js';
 import { snapshotPhotosOf } from '../../server/src/services/photos.service.js';
 import { pricingOf } from '../../server/src/services/pricing.js';
@@ -12,10 +12,15 @@ import type { SeededJob } from './demo-estimates.js';
 
 const day = 86_400_000;
 
+/** Jobs whose work has started: their quotes were agreed before the work began. */
+const WORK_STARTED = ['in_work', 'ready_for_release', 'invoiced', 'paid', 'closed'];
+
 /**
- * The demo's approval requests: one waiting for Elspeth on Q-BRKE's 100-hour service, and the
- * decided one behind Q-SALT's approved and declined findings. The seed knows no server secret, so
- * its links open nothing; the manager re-sends the waiting one to get a working link by e-mail.
+ * The demo's quotes and approval requests. Every job whose work has started has its quote agreed
+ * by phone (who, when); Q-BRKE's 100-hour service has its quote agreed by phone and findings waiting
+ * for Elspeth; Q-BRKA's permit inspection has its quote sent and waiting; Q-SALT's decided request
+ * is behind its approved and declined findings. The seed knows no server secret, so its links open
+ * nothing; the manager re-sends a waiting one to get a working link by e-mail.
  */
 export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<string, User>, now: Date, t: Transaction): Promise<void> {
   const manager = staff.get('declan')!;
@@ -23,7 +28,24 @@ export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<s
   const pricing = pricingOf(w);
   const settings = { approvalLinkDays: 14, ...(w.settings as { approvalLinkDays?: number }) };
 
-  const make = async (seeded: SeededJob, findingStates: string[], sentAt: Date, message: string) => {
+  const agreeByPhone = async (seeded: SeededJob, at: Date) => {
+    const job = await findJob(scope, seeded.job.id, t);
+    const owner = await Customer.findByPk(job.aircraft.customerId, { transaction: t });
+    const n = await agreeQuoteLines(job.id, { how: 'phone', by: owner!.name, at, ref: null }, t);
+    if (!n) return;
+    await AuditEvent.create(
+      {
+        workshopId: w.id, jobId: job.id, actorUserId: manager.id, action: 'estimate.quote_agreed', at, detail: { how: 'phone', agreedWith: owner!.name, lines: n },
+        summary: `Quote agreed by phone with ${owner!.name}: ${n} ${n === 1 ? 'line' : 'lines'}`,
+      },
+      { transaction: t },
+    );
+  };
+  for (const seeded of jobs) {
+    if (WORK_STARTED.includes(seeded.job.state)) await agreeByPhone(seeded, seeded.at);
+  }
+
+  const make = async (seeded: SeededJob, findingStates: string[], sentAt: Date, message: string, includeQuote = false) => {
     const job = await findJob(scope, seeded.job.id, t);
     const findings = (await Finding.findAll({ where: { jobId: job.id }, order: [['seq', 'ASC']], transaction: t })).filter((f) => findingStates.includes(f.state));
     const ids = new Set(findings.map((f) => f.id));
@@ -34,11 +56,14 @@ export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<s
     const owner = await Customer.findByPk(job.aircraft.customerId, { transaction: t });
     const id = randomUUID();
     const expiresAt = new Date(sentAt.getTime() + settings.approvalLinkDays * day);
-    const snapshot = buildSnapshot({ requestId: id, job, w, owner: { name: owner!.name }, message, sentAt, expiresAt, findings, lines: asSent, tasks: accessTasks, priced, photos: await snapshotPhotosOf(findings.map((f) => f.id), t) });
+    const snapshot = buildSnapshot({
+      requestId: id, job, w, owner: { name: owner!.name }, message, sentAt, expiresAt, includeQuote, quoteChange: false, findings, lines: asSent, tasks: accessTasks, priced,
+      photos: await snapshotPhotosOf(findings.map((f) => f.id), t),
+    });
     const r = await ApprovalRequest.create(
       {
         id, workshopId: w.id, jobId: job.id, snapshot, snapshotHash: snapshotHashOf(snapshot), linkNonce: randomBytes(16).toString('hex'),
-        tokenHash: sha256(randomBytes(32).toString('hex')), gross: snapshot.totals.thisRequest.gross, sentAt, expiresAt, sentByUserId: manager.id,
+        tokenHash: sha256(randomBytes(32).toString('hex')), gross: snapshot.totals.approvingNow.gross, includesQuote: includeQuote, sentAt, expiresAt, sentByUserId: manager.id,
       },
       { transaction: t },
     );
@@ -49,7 +74,7 @@ export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<s
     await AuditEvent.create(
       {
         workshopId: w.id, jobId: job.id, actorUserId: manager.id, action: 'approval.sent', at: sentAt, detail: { requestId: id },
-        summary: `Sent ${findings.map((f) => `F-${f.seq}`).join(', ')} to ${owner!.name} for approval: £${r.gross} incl. VAT`,
+        summary: `Sent ${[...(includeQuote ? ['the quote'] : []), ...findings.map((f) => `F-${f.seq}`)].join(', ')} to ${owner!.name} for approval: £${r.gross} incl. VAT if all approved`,
       },
       { transaction: t },
     );
@@ -58,6 +83,7 @@ export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<s
 
   const brke = jobs.find((j) => j.registration === 'Q-BRKE' && j.job.title === '100-hour engine service');
   if (brke) {
+    await agreeByPhone(brke, new Date(now.getTime() - 5 * day));
     const { findings } = await make(brke, ['priced'], new Date(now.getTime() - day), 'We found these during the 100-hour service. The plugs and the hose can share the exhaust access work.');
     await Finding.update({ state: 'sent' }, { where: { id: findings.map((f) => f.id) }, transaction: t });
   }
@@ -68,7 +94,7 @@ export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<s
     const { r, findings } = await make(salt, ['approved', 'declined'], sentAt, 'Two findings from the wing strip inspection.');
     const decidedAt = new Date(sentAt.getTime() + day / 3);
     for (const f of findings) {
-      await w.sequelize.query(`INSERT INTO approval_decisions (job_id, request_id, finding_id, decision, note) VALUES ($1, $2, $3, $4, $5)`, {
+      await w.sequelize.query(`INSERT INTO approval_decisions (job_id, request_id, item_id, finding_id, decision, note) VALUES ($1, $2, $3, $3, $4, $5)`, {
         bind: [r.jobId, r.id, f.id, f.state === 'approved' ? 'approve' : 'decline', f.state === 'declined' ? 'The group will source a fitting from the type club first.' : ''],
         transaction: t,
       });
@@ -82,4 +108,7 @@ export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<s
       { transaction: t },
     );
   }
+
+  const brka = jobs.find((j) => j.registration === 'Q-BRKA' && j.job.title === 'Annual permit inspection');
+  if (brka) await make(brka, [], new Date(now.getTime() - day / 2), 'Here is the quote for the annual permit inspection. Please agree it so we can carry on once the checks are done.', true);
 }

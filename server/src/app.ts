@@ -32,7 +32,7 @@ export interface AppParts {
   /** Where finding photos are kept (local folder or an S3-compatible bucket). */
   photos: PhotoStore;
   /** The reminder and expiry schedule, when this process runs it. */
-  chaser?: import('./mail/approval-chaser.js').ApprovalChaser;
+  chaser?: import('./jobs/approval-chaser.js').ApprovalChaser;
 }
 
 const REQUEST_ID = /^[A-Za-z0-9._-]{8,64}$/;

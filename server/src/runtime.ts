@@ -5,7 +5,7 @@ import { MailQueue } from './mail/mail-queue.js';
 import { initModels } from './models/index.js';
 import { dummyHash } from './lib/passwords.js';
 import type { AppParts } from './app.js';
-import { ApprovalChaser } from './mail/approval-chaser.js';
+import { ApprovalChaser } from './jobs/approval-chaser.js';
 import { createPhotoStore } from './storage/index.js';
 
 /** Connects the database, binds the models and starts the mail queue and its worker. */

@@ -8,6 +8,8 @@ export type ApiErrorCode =
   | 'conflict'
   | 'stale_version'
   | 'invalid_transition'
+  /** 422: an amount the money helpers or the pricing engine cannot accept; the message says which and why. */
+  | 'invalid_amount'
   | 'too_many_requests'
   | 'token_invalid'
   /** 413: a file (or body) is larger than the server accepts; the message names it and the limit. */

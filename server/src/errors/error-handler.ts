@@ -7,7 +7,7 @@ import {
   UniqueConstraintError,
   ValidationError as SequelizeValidationError,
 } from 'sequelize';
-import type { ApiErrorBody, ApiErrorCode } from '@wingstage/shared';
+import { MoneyError, StateMoveError, type ApiErrorBody, type ApiErrorCode } from '@wingstage/shared';
 import { AppError } from './app-error.js';
 
 /** Which column each unique constraint guards, and what to tell the person who hit it. */
@@ -35,6 +35,11 @@ interface Mapped {
 
 function mapError(err: unknown): Mapped | null {
   if (err instanceof AppError) return { status: err.status, code: err.code, message: err.message, fields: err.fields };
+  // A forbidden state move: the transaction rolled back, so nothing was written.
+  if (err instanceof StateMoveError) return { status: 409, code: 'invalid_transition', message: err.reason };
+  if (err instanceof MoneyError) {
+    return { status: 422, code: 'invalid_amount', message: `An amount could not be worked out: ${err.detail}${err.path ? ` (at ${err.path})` : ''}`, fields: err.path ? { [err.path]: err.detail } : undefined };
+  }
   if (err instanceof ZodError) {
     return { status: 400, code: 'validation_failed', message: 'Some fields need attention.', fields: zodFields(err) };
   }

@@ -1,4 +1,4 @@
-import type { ApprovalSnapshot, Decision } from '@wingstage/shared';
+import { FINDING_CATEGORY_LABELS, QUOTE_ITEM_ID, priceChoice, type ApprovalSnapshot, type Decision, type PricedChoice } from '@wingstage/shared';
 import type { MailMessage } from './mail-queue.js';
 
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
@@ -21,29 +21,68 @@ function build(to: string, subject: string, paragraphs: string[], link: { href: 
 const aircraftLine = (s: ApprovalSnapshot) => `${s.registration} (${s.jobTitle}, job ${s.jobNumber})`;
 const count = (n: number) => `${n} ${n === 1 ? 'finding' : 'findings'}`;
 
+/** "the quote and 2 findings", "3 findings", "the changed quote". */
+function whatIsAsked(s: ApprovalSnapshot): string {
+  const quote = s.quote ? (s.quote.changeOf === 'change' ? 'the changed quote' : 'the quote') : null;
+  const f = s.findings.length ? count(s.findings.length) : null;
+  return [quote, f].filter(Boolean).join(' and ');
+}
+
+/** One line per item and one per shared opening-up task, from priceChoice with everything approved: they add up to the total. */
+function itemLines(s: ApprovalSnapshot): string[] {
+  const all = priceChoice(s.basis, Object.fromEntries(s.basis.items.map((i) => [i.id, 'approve' as const])));
+  const gross = new Map(all.items.map((i) => [i.id, i.allApprovedGross]));
+  return [
+    ...(s.quote ? [`${s.quote.changeOf === 'change' ? 'The changed quote' : 'The quote'} (the scheduled work, ${s.quote.lines.length} ${s.quote.lines.length === 1 ? 'line' : 'lines'}): ${money(s.currency, gross.get(QUOTE_ITEM_ID)!)} incl. VAT`] : []),
+    ...s.findings.map((f) => `${f.number} ${f.title} (${FINDING_CATEGORY_LABELS[f.category]}): ${money(s.currency, gross.get(f.findingId)!)} incl. VAT`),
+    ...all.openingUp.map((o) => `Opening-up work shared by these, charged once: ${o.name}, ${money(s.currency, o.allApprovedGross)} incl. VAT`),
+  ];
+}
+
 export function approvalRequestMail(p: { to: string; ownerName: string; snapshot: ApprovalSnapshot; link: string; replacement: boolean; expiresAt?: Date }): MailMessage {
   const s = p.snapshot;
   const expires = p.expiresAt ?? new Date(s.expiresAt);
+  const asked = whatIsAsked(s);
   const lines = [
     `Hello ${p.ownerName},`,
     p.replacement
       ? `${s.workshopName} changed a price on work they asked you about for ${aircraftLine(s)}. This new request replaces the earlier one; the earlier link no longer works.`
-      : `${s.workshopName} found work on ${aircraftLine(s)} that was not in the original quote and would like your decision.`,
-    `${count(s.findings.length)}, ${money(s.currency, s.totals.thisRequest.gross)} incl. VAT if you approve all of it. You can approve or decline each one on its own.`,
+      : s.findings.length
+        ? `${s.workshopName} would like your decision on ${asked} for ${aircraftLine(s)}${s.quote ? '' : ': work that was not in the original quote'}.`
+        : `${s.workshopName} would like you to agree ${asked} for ${aircraftLine(s)} before the work starts.`,
+    ...itemLines(s),
+    `${money(s.currency, s.totals.approvingNow.gross)} incl. VAT if you approve all of it. You can approve or decline each item on its own.`,
     ...(s.message ? [`Message from the workshop: ${s.message}`] : []),
     `The link works until ${when(expires)}. It is for you alone: please do not forward this e-mail.`,
   ];
-  return build(p.to, `${s.registration}: ${count(s.findings.length)} for your decision`, lines, { href: p.link, label: 'See the findings and decide' });
+  return build(p.to, `${s.registration}: ${asked} for your decision`, lines, { href: p.link, label: 'See the details and decide' });
 }
 
 export function approvalReminderMail(p: { to: string; ownerName: string; snapshot: ApprovalSnapshot; link: string; expiresAt: Date }): MailMessage {
   const s = p.snapshot;
   const lines = [
     `Hello ${p.ownerName},`,
-    `A reminder from ${s.workshopName}: ${count(s.findings.length)} on ${aircraftLine(s)} (${money(s.currency, s.totals.thisRequest.gross)} incl. VAT in all) still wait for your decision. The work on them cannot start until you decide.`,
+    `A reminder from ${s.workshopName}: ${whatIsAsked(s)} on ${aircraftLine(s)} (${money(s.currency, s.totals.approvingNow.gross)} incl. VAT in all) still wait for your decision. The work cannot start until you decide.`,
     `The link works until ${when(p.expiresAt)}.`,
   ];
-  return build(p.to, `Reminder: ${s.registration} findings wait for your decision`, lines, { href: p.link, label: 'See the findings and decide' });
+  return build(p.to, `Reminder: ${s.registration} waits for your decision`, lines, { href: p.link, label: 'See the details and decide' });
+}
+
+export interface DecidedItem {
+  itemId: string;
+  name: string;
+  decision: Decision;
+  note: string;
+  /** Its share of what the decision approves (priceChoice); 0.00 when declined. */
+  gross: string;
+}
+
+function decisionLines(s: ApprovalSnapshot, decisions: DecidedItem[], figures: PricedChoice, whose: 'your' | 'their'): string[] {
+  return [
+    ...decisions.map((d) => `${d.name}: ${d.decision === 'approve' ? `approved, ${money(s.currency, d.gross)} incl. VAT` : 'declined'}${d.note ? ` (${whose} note: ${d.note})` : ''}`),
+    ...figures.openingUp.filter((o) => o.charged).map((o) => `Opening-up work, charged once: ${o.name}, ${money(s.currency, o.gross)} incl. VAT`),
+    `Approved now: ${money(s.currency, figures.approvingNow.gross)} incl. VAT. Agreed so far on this job: ${money(s.currency, figures.newTotal.gross)} incl. VAT.`,
+  ];
 }
 
 export function approvalReceiptMail(p: {
@@ -51,7 +90,8 @@ export function approvalReceiptMail(p: {
   typedName: string;
   snapshot: ApprovalSnapshot;
   decidedAt: Date;
-  decisions: { finding: ApprovalSnapshot['findings'][number]; decision: Decision; note: string }[];
+  decisions: DecidedItem[];
+  figures: PricedChoice;
   declinedAirworthiness: string[];
   link: string;
 }): MailMessage {
@@ -59,9 +99,7 @@ export function approvalReceiptMail(p: {
   const lines = [
     `Hello ${p.typedName},`,
     `This is your record of the decisions you confirmed for ${aircraftLine(s)} at ${s.workshopName} on ${when(p.decidedAt)}.`,
-    ...p.decisions.map(
-      (d) => `${d.finding.number} ${d.finding.title}: ${d.decision === 'approve' ? 'approved' : 'declined'}, ${money(s.currency, d.finding.price.gross)} incl. VAT${d.note ? ` (your note: ${d.note})` : ''}`,
-    ),
+    ...decisionLines(s, p.decisions, p.figures, 'your'),
     ...(p.declinedAirworthiness.length
       ? [
           `You declined ${p.declinedAirworthiness.join(', ')}, which affects airworthiness. The aircraft cannot be released while it stays open; the inspector decides when it is fit to fly. The workshop will talk to you about what happens next.`,
@@ -70,6 +108,36 @@ export function approvalReceiptMail(p: {
     'To change a decision, contact the workshop.',
   ];
   return build(p.to, `${s.registration}: your decisions are recorded`, lines, { href: p.link, label: 'See your decisions' });
+}
+
+/** To the job's managers: what the owner decided, with a strong first line when it needs a call. */
+export function decisionToStaffMail(p: {
+  to: string;
+  staffName: string;
+  typedName: string;
+  snapshot: ApprovalSnapshot;
+  decidedAt: Date;
+  decisions: DecidedItem[];
+  figures: PricedChoice;
+  declinedAirworthiness: string[];
+  link: string;
+}): MailMessage {
+  const s = p.snapshot;
+  const notes = p.decisions.filter((d) => d.note);
+  const strong = [
+    ...(p.declinedAirworthiness.length
+      ? [`ACTION NEEDED: the owner declined ${p.declinedAirworthiness.join(', ')}, an airworthiness item. The aircraft cannot be released while it is open; the inspector decides what it needs.`]
+      : []),
+    ...(notes.length ? [`The owner left ${notes.length === 1 ? 'a note' : 'notes'}: ${notes.map((d) => `${d.name}: “${d.note}”`).join('; ')}`] : []),
+  ];
+  const lines = [
+    ...strong,
+    `Hello ${p.staffName},`,
+    `${p.typedName} decided the request on ${aircraftLine(s)} on ${when(p.decidedAt)}.`,
+    ...decisionLines(s, p.decisions, p.figures, 'their'),
+  ];
+  const subject = `${strong.length ? 'Action needed: ' : ''}${s.registration}: the owner decided (${p.decisions.map((d) => `${d.name.split(' ')[0] === 'the' ? d.name : d.name.split(' ')[0]} ${d.decision === 'approve' ? 'approved' : 'declined'}`).join(', ')})`;
+  return build(p.to, subject, lines, { href: p.link, label: 'Open the job' });
 }
 
 export function withinLimitReportMail(p: {

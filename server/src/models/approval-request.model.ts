@@ -22,6 +22,13 @@ export class ApprovalRequest extends Model<InferAttributes<ApprovalRequest>, Inf
   declare replacedById: CreationOptional<string | null>;
   declare lastRemindedAt: CreationOptional<Date | null>;
   declare sentByUserId: string | null;
+  /** The request holds the quote (item "quote"). */
+  declare includesQuote: CreationOptional<boolean>;
+  /** When a member of staff marked the owner's decision seen, and who. */
+  declare seenAt: CreationOptional<Date | null>;
+  declare seenBy: CreationOptional<string | null>;
+  /** A snapshot converted to version 3 by migration 0050 keeps here the document the owner saw (`snapshotHash` is its hash). */
+  declare snapshotAsSent: CreationOptional<unknown | null>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -48,6 +55,10 @@ export class ApprovalRequest extends Model<InferAttributes<ApprovalRequest>, Inf
         replacedById: { type: DataTypes.UUID, allowNull: true },
         lastRemindedAt: { type: DataTypes.DATE, allowNull: true },
         sentByUserId: { type: DataTypes.UUID, allowNull: true },
+        includesQuote: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+        seenAt: { type: DataTypes.DATE, allowNull: true },
+        seenBy: { type: DataTypes.UUID, allowNull: true },
+        snapshotAsSent: { type: DataTypes.JSONB, allowNull: true },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import type { EstimateStage, LineKind, VatRateCode } from '@wingstage/shared';
+import type { AgreedHow, EstimateStage, LineKind, VatRateCode } from '@wingstage/shared';
 
 /** Keyed by (job, id): the client makes line ids, and a line can only point within its own job. */
 export class EstimateLine extends Model<InferAttributes<EstimateLine>, InferCreationAttributes<EstimateLine>> {
@@ -23,6 +23,11 @@ export class EstimateLine extends Model<InferAttributes<EstimateLine>, InferCrea
   declare accessTaskId: string | null;
   declare discountPercent: string | null;
   declare sortOrder: number;
+  /** Inspection lines: when and how the owner agreed it (null while unagreed), who, and the request that carried it. */
+  declare agreedAt: CreationOptional<Date | null>;
+  declare agreedHow: CreationOptional<AgreedHow | null>;
+  declare agreedBy: CreationOptional<string | null>;
+  declare agreedRef: CreationOptional<string | null>;
 
   static initModel(sequelize: Sequelize) {
     EstimateLine.init(
@@ -47,6 +52,10 @@ export class EstimateLine extends Model<InferAttributes<EstimateLine>, InferCrea
         accessTaskId: { type: DataTypes.UUID, allowNull: true },
         discountPercent: { type: DataTypes.DECIMAL(5, 2), allowNull: true },
         sortOrder: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        agreedAt: { type: DataTypes.DATE, allowNull: true },
+        agreedHow: { type: DataTypes.TEXT, allowNull: true },
+        agreedBy: { type: DataTypes.TEXT, allowNull: true },
+        agreedRef: { type: DataTypes.UUID, allowNull: true },
       },
       { sequelize, tableName: 'estimate_lines', timestamps: false },
     );

@@ -1,7 +1,9 @@
 import { Router } from 'express';
 import {
   ROLES,
+  STAFF_ROLES,
   approvalRequestCreateSchema,
+  quotePhoneAgreementSchema,
   decisionSubmitSchema,
   idParamsSchema,
   preAuthorisationSchema,
@@ -9,8 +11,10 @@ import {
 import { decideAddressLimit, invalidDecideLink, wellFormedToken } from '../middleware/decide-link.js';
 import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validParams, validate } from '../middleware/validate.js';
-import * as approvals from '../services/approvals.service.js';
+import * as approvals from '../services/approvals/index.js';
 import type { Deps } from '../services/deps.js';
+import * as estimates from '../services/estimates.service.js';
+import * as jobs from '../services/jobs.service.js';
 
 /** Staff routes on one job's approvals. Mounted under /api/jobs. */
 export function jobApprovalRoutes({ config, ...rest }: Deps): Router {
@@ -26,6 +30,15 @@ export function jobApprovalRoutes({ config, ...rest }: Deps): Router {
   });
   router.get('/:id/approval-requests', authorize(config, ...ROLES), validate({ params: idParamsSchema }), async (req, res) => {
     res.json(await approvals.listRequests(scopeOf(req), validParams(req, idParamsSchema).id));
+  });
+  router.post('/:id/quote/phone-agreement', managers, validate({ params: idParamsSchema, body: quotePhoneAgreementSchema }), async (req, res) => {
+    const scope = scopeOf(req);
+    res.json(
+      await estimates.agreeQuoteByPhone(scope, validParams(req, idParamsSchema).id, validBody(req, quotePhoneAgreementSchema), (job, t) => approvals.replaceChangedRequests(deps, scope, job, t)),
+    );
+  });
+  router.post('/:id/decisions-seen', authorize(config, ...STAFF_ROLES), validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await approvals.markSeen(scopeOf(req), validParams(req, idParamsSchema).id, jobs.getJob));
   });
   router.post('/:id/approval-requests', managers, validate({ params: idParamsSchema, body: approvalRequestCreateSchema }), async (req, res) => {
     res.status(201).json(await approvals.sendForApproval(deps, scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, approvalRequestCreateSchema)));

@@ -17,7 +17,7 @@ import { validBody, validParams, validate } from '../middleware/validate.js';
 import type { Deps } from '../services/deps.js';
 import * as estimates from '../services/estimates.service.js';
 import * as findings from '../services/findings.service.js';
-import * as approvals from '../services/approvals.service.js';
+import * as approvals from '../services/approvals/index.js';
 
 const itemParams = z.object({ id: idSchema, itemId: idSchema });
 const findingParams = z.object({ id: idSchema, findingId: idSchema });

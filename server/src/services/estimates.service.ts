@@ -1,8 +1,13 @@
 import { randomUUID } from 'node:crypto';
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import type { z } from 'zod';
 import {
   ESTIMATE_STAGES,
+  quoteStateOf,
+  type AgreedHow,
+  type EstimateQuoteDto,
+  type EstimateStage,
+  type quotePhoneAgreementSchema,
   FINDING_STATE_LABELS,
   estimateEngineInput,
   priceEstimate,
@@ -16,12 +21,15 @@ import {
 import { AppError, conflict } from '../errors/app-error.js';
 import { AccessTask, Estimate, EstimateLine, Finding, JobChecklistItem, JobTemplate, type Workshop, boundSequelize } from '../models/index.js';
 import { recordAudit } from './audit.js';
+import { quoteRequestFacts } from './approvals/repository.js';
+import { findingIdsIn, moveFindings } from './findings.repository.js';
 import { assertSuppliers, loadParts } from './catalogue.service.js';
 import { findJob, type JobRow } from './job-access.js';
 import { labourRate, loadWorkshop, pricingOf } from './pricing.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
 
 type EstimateSave = z.output<typeof estimateSaveSchema>;
+type PhoneAgreement = z.output<typeof quotePhoneAgreementSchema>;
 
 /** Once invoiced (or finished), the estimate is the record of what was agreed and stays as it is. */
 const FROZEN: readonly JobState[] = ['invoiced', 'paid', 'closed', 'cancelled'];
@@ -62,6 +70,8 @@ export function lineDto(l: EstimateLine): EstimateLineDto {
     findingId: l.findingId,
     accessTaskId: l.accessTaskId,
     discountPercent: l.discountPercent,
+    agreedAt: l.stage === 'inspection' && l.agreedAt ? l.agreedAt.toISOString() : null,
+    agreedHow: l.stage === 'inspection' ? (l.agreedHow ?? null) : null,
   };
 }
 
@@ -84,14 +94,36 @@ function priced(w: Workshop, lines: EstimateLineDto[], tasks: AccessTaskDto[]): 
   return priceEstimate(estimateEngineInput(lines, tasks), pricingOf(w));
 }
 
+/** The quote's state, derived from the inspection lines' agreement and the requests that hold it. */
+async function quoteDto(jobId: string, p: PricedEstimate, t: Transaction): Promise<EstimateQuoteDto> {
+  const rows = await EstimateLine.findAll({ where: { jobId, stage: 'inspection' }, attributes: ['agreedAt', 'agreedHow', 'agreedBy'], transaction: t });
+  const agreed = rows.filter((r) => r.agreedAt !== null);
+  const facts = await quoteRequestFacts(jobId, t);
+  const last = agreed.reduce<EstimateLine | null>((a, r) => (a === null || r.agreedAt! > a.agreedAt! ? r : a), null);
+  return {
+    state: quoteStateOf({ agreedLines: agreed.length, unagreedLines: rows.length - agreed.length, quoteRequestOpen: facts.openRequestId !== null, lastQuoteDecision: facts.lastDecision }),
+    awaitingGross: p.quoteAwaiting.gross,
+    agreedBy: last?.agreedBy ?? null,
+    agreedAt: last?.agreedAt ? last.agreedAt.toISOString() : null,
+    agreedHow: last?.agreedHow ?? null,
+    openRequestId: facts.openRequestId,
+  };
+}
+
 async function estimateDto(scope: Scope, jobId: string, t?: Transaction): Promise<EstimateDto> {
   const run = async (tx: Transaction) => {
     const est = await ensureEstimate(scope, jobId, tx);
     const w = await loadWorkshop(scope, tx);
     const { lines, accessTasks } = await loadLines(scope, jobId, tx);
-    return { jobId, version: est.version, currency: w.currency, lines, accessTasks, priced: priced(w, lines, accessTasks) };
+    const p = priced(w, lines, accessTasks);
+    return { jobId, version: est.version, currency: w.currency, lines, accessTasks, priced: p, quote: await quoteDto(jobId, p, tx) };
   };
   return t ? run(t) : boundSequelize().transaction(run);
+}
+
+/** Inspection lines still awaiting the owner's agreement (work may not start while any does). */
+export async function unagreedQuoteLines(jobId: string, t?: Transaction): Promise<number> {
+  return EstimateLine.count({ where: { jobId, stage: 'inspection', agreedAt: null }, transaction: t });
 }
 
 /**
@@ -113,6 +145,10 @@ export async function getEstimate(scope: Scope, jobId: string): Promise<Estimate
 }
 
 const money = (currency: string, amount: string) => (currency === 'GBP' ? `£${amount}` : `${amount} ${currency}`);
+
+/** What prices a line: a change to any of these unagrees an agreed inspection line. */
+const PRICED_LINE_FIELDS = ['kind', 'quantity', 'labourRateCode', 'ratePerHour', 'unitCost', 'unitPrice', 'markupPercent', 'amount', 'vatRate', 'discountPercent', 'accessTaskId'] as const;
+const PRICED_TASK_FIELDS = ['hours', 'ratePerHour', 'vatRate'] as const;
 
 const SAME_FIELDS: (keyof EstimateLineDto)[] = [
   'stage', 'kind', 'description', 'quantity', 'labourRateCode', 'ratePerHour', 'partId', 'supplierId', 'unitCost',
@@ -197,7 +233,6 @@ export async function saveEstimate(
     const before = priced(w, current.lines, current.accessTasks);
     const editableBefore = current.lines.filter((l) => !keptIds.has(l.id));
 
-    await EstimateLine.destroy({ where: inWorkshop(scope, { jobId: job.id, stage: ['inspection', 'discovered'] }), transaction: t });
     const keepTasks = [...newTasks];
     await boundSequelize().query(
       `DELETE FROM access_tasks WHERE job_id = $1 AND workshop_id = $2 AND NOT (id = ANY($3::uuid[]))`,
@@ -210,11 +245,34 @@ export async function saveEstimate(
       );
     }
     const base = kept.length;
-    if (input.lines.length) {
-      await EstimateLine.bulkCreate(
-        input.lines.map((l, i) => ({ ...l, jobId: job.id, workshopId: scope.workshopId, sortOrder: base + i })),
-        { transaction: t },
-      );
+    // Agreement on an inspection line survives a save only while what prices it is unchanged.
+    const stored = new Map((await EstimateLine.findAll({ where: { jobId: job.id, stage: 'inspection' }, transaction: t })).map((l) => [l.id, l]));
+    const taskBefore = new Map(current.accessTasks.map((a) => [a.id, a]));
+    const taskAfter = new Map(input.accessTasks.map((a) => [a.id, a]));
+    const sameTask = (id: string | null) =>
+      id === null || (!!taskBefore.get(id) && !!taskAfter.get(id) && PRICED_TASK_FIELDS.every((f) => sameValue(taskBefore.get(id)![f], taskAfter.get(id)![f])));
+    let unagreed = 0;
+    const rows = input.lines.map((l, i) => {
+      const was = l.stage === 'inspection' ? current.lines.find((c) => c.id === l.id && c.stage === 'inspection') : undefined;
+      const row = stored.get(l.id);
+      const keep = !!was && !!row && row.agreedAt !== null && PRICED_LINE_FIELDS.every((f) => sameValue(was[f], l[f])) && sameTask(l.accessTaskId);
+      if (was && row?.agreedAt && !keep) unagreed += 1;
+      const agreement = keep
+        ? { agreedAt: row!.agreedAt, agreedHow: row!.agreedHow, agreedBy: row!.agreedBy, agreedRef: row!.agreedRef }
+        : { agreedAt: null, agreedHow: null, agreedBy: null, agreedRef: null };
+      return { ...l, ...agreement, jobId: job.id, workshopId: scope.workshopId, sortOrder: base + i };
+    });
+    await EstimateLine.destroy({ where: inWorkshop(scope, { jobId: job.id, stage: ['inspection', 'discovered'] }), transaction: t });
+    if (rows.length) await EstimateLine.bulkCreate(rows, { transaction: t });
+    const added = input.lines.filter((l) => l.stage === 'inspection' && !stored.has(l.id)).length;
+    const hadAgreement = [...stored.values()].some((r) => r.agreedAt !== null);
+    if (hadAgreement && (unagreed > 0 || added > 0)) {
+      await recordAudit(scope, t, {
+        jobId: job.id,
+        action: 'estimate.quote_changed',
+        summary: `Quote changed since the owner agreed it: ${unagreed} agreed ${unagreed === 1 ? 'line' : 'lines'} changed, ${added} added; the changes wait for the owner`,
+        detail: { unagreed, added },
+      });
     }
     const moved = await syncFindingStates(job.id, t);
     for (const [to, numbers] of [['priced', moved.priced], ['draft', moved.draft]] as const) {
@@ -246,23 +304,76 @@ export async function saveEstimate(
 
 /** A draft finding with discovered lines is priced; a priced one whose lines were all removed is a draft again. */
 export async function syncFindingStates(jobId: string, t: Transaction): Promise<{ priced: number[]; draft: number[] }> {
-  const q = boundSequelize();
-  const priced = await q.query<{ seq: number }>(
-    `UPDATE findings SET state = 'priced', version = version + 1, updated_at = now()
-     WHERE job_id = $1 AND state = 'draft'
-       AND id IN (SELECT finding_id FROM estimate_lines WHERE job_id = $1 AND stage = 'discovered' AND finding_id IS NOT NULL)
-     RETURNING seq`,
-    { bind: [jobId], transaction: t, type: QueryTypes.SELECT },
+  const lines = await EstimateLine.findAll({ where: { jobId }, attributes: ['findingId', 'stage'], transaction: t });
+  const withDiscovered = new Set(lines.filter((l) => l.stage === 'discovered' && l.findingId).map((l) => l.findingId!));
+  const withAny = new Set(lines.filter((l) => l.findingId).map((l) => l.findingId!));
+  const drafts = (await findingIdsIn(jobId, 'draft', t)).filter((id) => withDiscovered.has(id));
+  const priced = (await findingIdsIn(jobId, 'priced', t)).filter((id) => !withAny.has(id));
+  return { priced: await moveFindings(jobId, drafts, 'priced', t), draft: await moveFindings(jobId, priced, 'draft', t) };
+}
+
+// ─── Stage moves (the owner's decisions reach the estimate only through these) ───────────────
+
+/** Moves findings' lines between stages and bumps the estimate's version so an open builder is told. */
+export async function moveFindingLines(jobId: string, findingIds: readonly string[], from: EstimateStage, to: EstimateStage, t: Transaction): Promise<number> {
+  if (!findingIds.length) return 0;
+  const [n] = await EstimateLine.update({ stage: to }, { where: { jobId, findingId: [...findingIds], stage: from }, transaction: t });
+  if (n > 0) await bumpEstimateVersion(jobId, t);
+  return n;
+}
+
+export interface QuoteAgreement {
+  how: AgreedHow;
+  by: string;
+  at: Date;
+  /** The request that carried it (owner_link). */
+  ref: string | null;
+}
+
+/** Marks every unagreed inspection line agreed; returns how many. */
+export async function agreeQuoteLines(jobId: string, a: QuoteAgreement, t: Transaction): Promise<number> {
+  const [n] = await EstimateLine.update(
+    { agreedAt: a.at, agreedHow: a.how, agreedBy: a.by, agreedRef: a.ref },
+    { where: { jobId, stage: 'inspection', agreedAt: null }, transaction: t },
   );
-  const draft = await q.query<{ seq: number }>(
-    `UPDATE findings SET state = 'draft', version = version + 1, updated_at = now()
-     WHERE job_id = $1 AND state = 'priced'
-       AND id NOT IN (SELECT finding_id FROM estimate_lines WHERE job_id = $1 AND finding_id IS NOT NULL)
-     RETURNING seq`,
-    { bind: [jobId], transaction: t, type: QueryTypes.SELECT },
-  );
-  const seqs = (rows: { seq: number }[]) => rows.map((r) => Number(r.seq)).sort((x, y) => x - y);
-  return { priced: seqs(priced), draft: seqs(draft) };
+  if (n > 0) await bumpEstimateVersion(jobId, t);
+  return n;
+}
+
+export async function bumpEstimateVersion(jobId: string, t: Transaction): Promise<void> {
+  await Estimate.increment('version', { where: { jobId }, transaction: t });
+}
+
+/** The workshop records that the owner agreed the quote by phone: who, when. */
+export async function agreeQuoteByPhone(
+  scope: Scope,
+  jobId: string,
+  input: PhoneAgreement,
+  /** Runs in the same transaction: a request still holding the quote no longer waits for the owner. */
+  afterAgree?: (job: JobRow, t: Transaction) => Promise<void>,
+): Promise<EstimateDto> {
+  requireStaff(scope);
+  return boundSequelize().transaction(async (t) => {
+    const job = await findJob(scope, jobId, t, true);
+    assertEstimateEditable(job);
+    const est = await ensureEstimate(scope, job.id, t, true);
+    if (est.version !== input.estimateVersion) {
+      throw new AppError('stale_version', 409, 'The estimate changed since you opened it. Check the quote, then record the agreement again.', { version: String(est.version) });
+    }
+    const w = await loadWorkshop(scope, t);
+    const before = await loadLines(scope, job.id, t);
+    const awaiting = priced(w, before.lines, before.accessTasks).quoteAwaiting.gross;
+    const n = await agreeQuoteLines(job.id, { how: 'phone', by: input.agreedWith, at: new Date(input.agreedAt), ref: null }, t);
+    if (n === 0) throw conflict('Nothing in the quote waits for the owner: every inspection line is already agreed.');
+    await recordAudit(scope, t, {
+      jobId: job.id,
+      action: 'estimate.quote_agreed',
+      summary: `Quote agreed by phone with ${input.agreedWith} on ${input.agreedAt.slice(0, 16).replace('T', ' ')}: ${n} ${n === 1 ? 'line' : 'lines'}, ${money(w.currency, awaiting)} incl. VAT${input.note ? ` (${input.note})` : ''}`,
+      detail: { how: 'phone', agreedWith: input.agreedWith, agreedAt: input.agreedAt, lines: n, gross: awaiting, note: input.note },
+    });
+    if (afterAgree) await afterAgree(job, t);
+    return estimateDto(scope, job.id, t);
+  });
 }
 
 /**

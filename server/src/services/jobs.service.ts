@@ -1,7 +1,9 @@
 import { Op, type Includeable, type Transaction, type WhereOptions } from 'sequelize';
 import {
   JOB_STATE_LABELS,
-  canTransition,
+  assertJobMove,
+  canStartWork,
+  type JobDecisionsToSee,
   type AuditEventDto,
   type JobCreate,
   type JobDto,
@@ -16,14 +18,16 @@ import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
 import { findJob, scopedInclude, type JobRow } from './job-access.js';
-import { applyTemplate, ensureEstimate } from './estimates.service.js';
+import { applyTemplate, ensureEstimate, unagreedQuoteLines } from './estimates.service.js';
+import { decisionsToSee } from './approvals/repository.js';
+import { moveJob } from './job-state.js';
 import { releaseBlockers } from './findings.service.js';
 
 type JobListQuery = z.output<typeof jobListQuerySchema>;
 type JobUpdate = z.output<typeof jobUpdateSchema>;
 type JobTransition = z.output<typeof jobTransitionSchema>;
 
-function toDto(j: JobRow): JobDto {
+function toDto(j: JobRow, seen: Map<string, JobDecisionsToSee> = new Map()): JobDto {
   return {
     id: j.id,
     number: j.number,
@@ -41,7 +45,13 @@ function toDto(j: JobRow): JobDto {
     version: j.version,
     createdAt: j.createdAt.toISOString(),
     updatedAt: j.updatedAt.toISOString(),
+    decisionsToSee: seen.get(j.id) ?? null,
   };
+}
+
+/** Staff see which owners' decisions nobody has marked seen; owners never get the flag. */
+async function unseenFor(scope: Scope, ids: string[]): Promise<Map<string, JobDecisionsToSee>> {
+  return scope.role === 'owner' ? new Map() : decisionsToSee(ids);
 }
 
 export async function listJobs(scope: Scope, q: JobListQuery): Promise<Page<JobDto>> {
@@ -79,11 +89,13 @@ export async function listJobs(scope: Scope, q: JobListQuery): Promise<Page<JobD
     subQuery: false,
     distinct: true,
   });
-  return { items: rows.map((r) => toDto(r as JobRow)), total: count, page: q.page, pageSize: q.pageSize };
+  const seen = await unseenFor(scope, rows.map((r) => r.id));
+  return { items: rows.map((r) => toDto(r as JobRow, seen)), total: count, page: q.page, pageSize: q.pageSize };
 }
 
 export async function getJob(scope: Scope, id: string): Promise<JobDto> {
-  return toDto(await findJob(scope, id));
+  const job = await findJob(scope, id);
+  return toDto(job, await unseenFor(scope, [job.id]));
 }
 
 /** Gap-free per workshop: the counter row is locked by the UPDATE and rolls back with a failed create. */
@@ -166,20 +178,17 @@ export async function transitionJob(scope: Scope, id: string, input: JobTransiti
     const job = await findJob(scope, id, t, true);
     if (!mayMove(scope, job.state, input.to)) throw forbidden('Your role cannot make this change to a job.');
     if (job.version !== input.version) throw staleVersion();
-    const check = canTransition(job.state, input.to);
-    if (!check.ok) throw new AppError('invalid_transition', 409, check.reason);
+    assertJobMove(job.state, input.to);
     if (input.to === 'ready_for_release') {
       const blocker = await releaseBlockers(scope, job.id, t);
       if (blocker) throw new AppError('invalid_transition', 409, blocker);
     }
-    const from: JobState = job.state;
-    await job.update({ state: input.to }, { transaction: t });
-    await recordAudit(scope, t, {
-      jobId: job.id,
-      action: 'job.state_changed',
-      summary: `${JOB_STATE_LABELS[from]} → ${JOB_STATE_LABELS[input.to]}${input.reason ? `: ${input.reason}` : ''}`,
-      detail: { from, to: input.to, reason: input.reason },
-    });
+    if (input.to === 'in_work') {
+      // "Start work" needs the owner's agreement to the quote (online, by phone, or recorded before).
+      const check = canStartWork({ unagreedLines: await unagreedQuoteLines(job.id, t) });
+      if (!check.ok) throw new AppError('invalid_transition', 409, check.reason);
+    }
+    await moveJob(scope, job, input.to, input.reason ?? '', t);
   });
   return getJob(scope, id);
 }

@@ -50,17 +50,25 @@ function line(over: Partial<EstimateLineDto>): EstimateLineDto {
     findingId: null,
     accessTaskId: null,
     discountPercent: null,
-    agreedAt: null,
-    agreedHow: null,
+    // Agreed, so the inspection scope counts as it did before quotes were agreed online.
+    agreedAt: '2026-11-30T09:00:00Z',
+    agreedHow: 'recorded_before',
     ...over,
   };
 }
 
-const QUOTE_NOT_SENT: EstimateDto['quote'] = { state: 'not_sent', awaitingGross: '0.00', agreedBy: null, agreedAt: null, agreedHow: null, openRequestId: null };
-
 function estimateOf(lines: EstimateLineDto[], version = 3): EstimateDto {
   const real = vi.mocked(shared.priceEstimate);
-  return { jobId: JOB, version, currency: 'GBP', lines, accessTasks: [], priced: real(estimateEngineInput(lines, []), pricing), quote: QUOTE_NOT_SENT };
+  const priced = real(estimateEngineInput(lines, []), pricing);
+  return {
+    jobId: JOB,
+    version,
+    currency: 'GBP',
+    lines,
+    accessTasks: [],
+    priced,
+    quote: { state: 'agreed', awaitingGross: priced.quoteAwaiting.gross, agreedBy: null, agreedAt: '2026-11-30T09:00:00Z', agreedHow: 'recorded_before', openRequestId: null },
+  };
 }
 
 function Harness({ estimate, suppliers = [] }: { estimate: EstimateDto; suppliers?: SupplierDto[] }) {

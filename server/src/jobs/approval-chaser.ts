@@ -1,7 +1,7 @@
 import PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
 import type { Config } from '../config/config.js';
-import { chaseUndecided } from '../services/approvals.service.js';
+import { chaseUndecided } from './approval-reminders.js';
 import type { Deps } from '../services/deps.js';
 
 export const CHASE_QUEUE = 'approval-chase';
