@@ -166,3 +166,10 @@ export const ClockIcon = (p: IconProps) => (
     <path d="M12 7v5l3.5 2" />
   </Svg>
 );
+/** An owner's answer came back: an arrow turning back towards the workshop. */
+export const ReplyIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <path d="M9.5 7 4.5 12l5 5" />
+    <path d="M4.5 12h9a6 6 0 0 1 6 6v1" />
+  </Svg>
+);

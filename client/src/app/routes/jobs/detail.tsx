@@ -12,9 +12,10 @@ import { approvalRequestsQueryOptions } from '@/features/approvals/api/approval-
 import { preAuthorisationQueryOptions } from '@/features/approvals/api/pre-authorisation';
 import { ApprovalRequestsList } from '@/features/approvals/components/approval-requests-list';
 import { PreAuthorisation } from '@/features/approvals/components/pre-authorisation-form';
-import { SendForApproval, SendTick, sendable } from '@/features/approvals/components/send-for-approval';
+import { SendForApproval, SendTick, quoteSendable, sendable } from '@/features/approvals/components/send-for-approval';
 import { estimateQueryOptions } from '@/features/estimates/api/get-estimate';
 import { EstimateBuilder } from '@/features/estimates/components/estimate-builder';
+import { QuotePanel } from '@/features/estimates/components/quote-panel';
 import { linesFromFinding } from '@/features/estimates/components/lines-from-finding';
 import { ReleaseGuard } from '@/features/estimates/components/release-guard';
 import { useEstimateDraft } from '@/features/estimates/components/use-estimate-draft';
@@ -25,6 +26,7 @@ import { workshopQueryOptions } from '@/features/workshop/api/get-workshop';
 import { jobQueryOptions } from '@/features/jobs/api/get-job';
 import { jobHistoryQueryOptions } from '@/features/jobs/api/get-job-history';
 import { JobActions } from '@/features/jobs/components/job-actions';
+import { DecisionsToSeePanel } from '@/features/jobs/components/decisions-to-see';
 import { JobEditForm } from '@/features/jobs/components/job-edit-form';
 import { JobHistory } from '@/features/jobs/components/job-history';
 import { formatDate, formatMoney } from '@/lib/format';
@@ -69,6 +71,11 @@ export function Component() {
           </span>
         }
       />
+      {job.decisionsToSee ? (
+        <div className="mb-5">
+          <DecisionsToSeePanel jobId={job.id} toSee={job.decisionsToSee} ownerName={job.customerName} />
+        </div>
+      ) : null}
       <div className="grid items-start gap-5 lg:grid-cols-[2fr_1fr]">
         <div className="flex flex-col gap-5">
           {can.moveJob(role) ? (
@@ -143,10 +150,9 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
   const suppliers = useQuery({ ...suppliersQueryOptions(ALL_SUPPLIERS), enabled: editable });
   const [priceNote, setPriceNote] = useState<string | null>(null);
   const [toSend, setToSend] = useState<Set<string>>(new Set());
+  const [quoteTicked, setQuoteTicked] = useState(false);
   const requests = useQuery(approvalRequestsQueryOptions(job.id));
   const limit = useQuery(preAuthorisationQueryOptions(job.id));
-  // What the owner would be sent is the saved estimate's price, not the unsaved draft's.
-  const savedPrices = new Map(estimate.priced.findings.map((p) => [p.findingId, p.price.gross]));
   const canSend = can.editEstimate(role) && !CLOSED_FOR_EDITS.has(job.state);
   const builderRef = useRef<HTMLDivElement>(null);
   const hasLines = new Set(draft.draft.lines.map((l) => l.findingId).filter(Boolean));
@@ -179,8 +185,17 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
     builderRef.current?.scrollIntoView({ block: 'start' });
   };
 
+  const sendQuote = () => {
+    setQuoteTicked(true);
+    document.getElementById(`send-for-approval-${job.id}`)?.scrollIntoView({ block: 'start' });
+  };
+
   return (
     <div className="flex flex-col gap-5">
+      <Card title="Quote">
+        <QuotePanel jobId={job.id} estimate={estimate} canAct={canSend && !draft.draft.dirty} onSendQuote={sendQuote} />
+        {canSend && draft.draft.dirty && quoteSendable(estimate) ? <p className="mt-2 text-sm">Save the estimate first: the owner is sent the quote as saved.</p> : null}
+      </Card>
       <Card title="Findings">
         <FindingsList
           findings={findings}
@@ -229,11 +244,15 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
               ownerName={job.customerName}
               findings={findings}
               selected={new Set([...toSend].filter((id) => findings.some((f) => f.id === id && sendable(f))))}
-              prices={savedPrices}
-              currency={workshop.currency}
-              estimateVersion={estimate.version}
+              estimate={estimate}
+              vatRates={workshop.vatRates}
+              quoteTicked={quoteTicked}
+              onQuoteTicked={setQuoteTicked}
               unsaved={draft.draft.dirty}
-              onSent={() => setToSend(new Set())}
+              onSent={() => {
+                setToSend(new Set());
+                setQuoteTicked(false);
+              }}
             />
           </div>
         ) : null}

@@ -1,6 +1,7 @@
 import type { DecisionPageDto, DecisionSubmitInput } from '@wingstage/shared';
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { clearDraft, deviceStorage } from '../draft';
 
 /** The owner's page is reached by its link alone, so it keys on the token and never on a session. */
 export const decideKeys = {
@@ -21,6 +22,10 @@ export function useSubmitDecisions(token: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (body: DecisionSubmitInput) => api.post<DecisionPageDto>(`/decide/${encodeURIComponent(token)}`, body, { skipUnauthorizedRedirect: true }),
-    onSuccess: (page) => qc.setQueryData(decideKeys.page(token), page),
+    onSuccess: (page) => {
+      // Confirmed: the choices kept on the device have done their job (cleared before the receipt shows).
+      clearDraft(deviceStorage(), page.snapshot.requestId);
+      qc.setQueryData(decideKeys.page(token), page);
+    },
   });
 }

@@ -1,52 +1,86 @@
-import {
-  QUOTE_ITEM_ID,
-  choiceBasisFrom,
-  priceChoice,
-  priceEstimate,
-  type ApprovalSnapshot,
-  type Choice,
-  type DecisionPageDto,
-  type EstimateLineInput,
-  type VatRounding,
-} from '@wingstage/shared';
+import { priceChoice, QUOTE_ITEM_ID, type ApprovalSnapshot, type ChoiceBasis, type ChoiceLine, type DecisionPageDto, type VatRounding } from '@wingstage/shared';
 import { act, fireEvent, render, screen, within } from '@testing-library/react';
-import { describe, expect, it, vi } from 'vitest';
+import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { ApiError } from '@/lib/api-client';
-import { formatMoney } from '@/lib/format';
 import { DecisionPage } from './decision-page';
-import { runningTotal } from './running-total';
 
 const PLUG = '2f0e7a1c-3b4d-4e5f-8a6b-7c8d9e0f1a2b';
 const SPRING = '8a9b0c1d-2e3f-4a5b-9c6d-7e8f9a0b1c2d';
 const HOSE = 'c3d4e5f6-a7b8-4c9d-8e0f-1a2b3c4d5e6f';
 const COWL = '5e6f7a8b-9c0d-4e1f-8a2b-3c4d5e6f7a8b';
 
-const FINDINGS: Record<string, Omit<ApprovalSnapshot['findings'][number], 'findingId' | 'photos' | 'lines' | 'gross'>> = {
-  [PLUG]: {
+const line = (kind: ChoiceLine['kind'], net: string, accessTaskId: string | null = null): ChoiceLine => ({ kind, net, vatRate: 'standard', accessTaskId });
+
+const FINDINGS: ApprovalSnapshot['findings'] = [
+  {
+    findingId: PLUG,
     number: 'F-1',
     title: 'Spark plug gap over the wear limit',
-    category: 'recommended' as const,
+    category: 'recommended',
     location: 'Engine, cylinder 1',
     seen: 'Gap measured wide.',
     measuredValue: '0.9800',
-    limit: { min: null, max: '0.9', unit: 'mm' as const, source: 'Example for the demo' },
+    limit: { min: null, max: '0.9', unit: 'mm', source: 'Example for the demo' },
+    photos: [],
+    lines: [{ description: 'Fit new plugs', quantity: '0.5', ...line('labour', '50.00', COWL) }],
+    gross: '',
   },
-  [SPRING]: { number: 'F-2', title: 'Exhaust spring cracked', category: 'airworthiness' as const, location: 'Exhaust, rear cylinder', seen: 'Cracked at the hook.', measuredValue: null, limit: null },
-  [HOSE]: { number: 'F-3', title: 'Fuel hose hardened', category: 'advisory' as const, location: 'Fuel line, left', seen: 'Hose stiff.', measuredValue: null, limit: null },
-};
+  {
+    findingId: SPRING,
+    number: 'F-2',
+    title: 'Exhaust spring cracked',
+    category: 'airworthiness',
+    location: 'Exhaust, rear cylinder',
+    seen: 'Cracked at the hook.',
+    measuredValue: null,
+    limit: null,
+    photos: [],
+    lines: [{ description: 'Replace spring', quantity: '0.5', ...line('labour', '25.00', COWL) }],
+    gross: '',
+  },
+  {
+    findingId: HOSE,
+    number: 'F-3',
+    title: 'Fuel hose hardened',
+    category: 'advisory',
+    location: 'Fuel line, left',
+    seen: 'Hose stiff.',
+    measuredValue: null,
+    limit: null,
+    photos: [],
+    lines: [{ description: 'New hose', quantity: '1', ...line('part', '10.00') }],
+    gross: '',
+  },
+];
+
+const QUOTE_LINES: NonNullable<ApprovalSnapshot['quote']>['lines'] = [
+  { description: 'Annual permit inspection', quantity: '6', ...line('labour', '360.00') },
+  { description: 'Oil filter', quantity: '1', ...line('part', '12.00') },
+];
 
 /**
- * A version-3 snapshot built the way the server builds one: the engine prices the estimate, the
- * basis comes from its result, and every stored figure is priceChoice with everything approved.
+ * A version 3 snapshot as the server freezes it: the basis, and the display prices and totals taken
+ * from priceChoice with every item approved (as the server fills them). Round nets at 20% VAT, so
+ * every figure below is checked by hand: agreed work £500 net → £600.00; F-1 £50 → £60.00; F-2 £25 →
+ * £30.00; F-3 £10 → £12.00; the cowling £15 → £18.00; the quote £372 → £446.40.
  */
-function snapshotOf(p: { rounding?: VatRounding; committed: EstimateLineInput[]; findings: { id: string; lines: EstimateLineInput[] }[]; cowl?: boolean }): ApprovalSnapshot {
-  const rounding = p.rounding ?? 'line-nearest';
-  const pricing = { currency: 'GBP', vatRounding: rounding, vatRates: { standard: '20', reduced: '5', zero: '0' }, partsMarkupPercent: '20', subcontractMarkupPercent: '10' };
-  const lines = [...p.committed, ...p.findings.flatMap((f) => f.lines)];
-  const priced = priceEstimate({ lines, accessTasks: p.cowl ? [{ id: COWL, hours: '0.25', ratePerHour: '62.00', vatRate: 'standard' }] : [] }, pricing);
-  const basis = choiceBasisFrom(priced, { quote: false, findingIds: p.findings.map((f) => f.id) }, pricing.vatRates, () => 'Cowling off');
-  const all = priceChoice(basis, Object.fromEntries(basis.items.map((i) => [i.id, 'approve' as const])));
-  const net = new Map(priced.lines.map((l) => [l.id, l.net]));
+function build({ findings = 3, quote = false, rounding = 'line-nearest' as VatRounding, committed = [line('fee', '500.00')] } = {}): ApprovalSnapshot {
+  const fs = FINDINGS.slice(0, findings).map((f) => ({ ...f, lines: f.lines.map((l) => ({ ...l })) }));
+  const items: ChoiceBasis['items'] = [
+    ...(quote ? [{ id: QUOTE_ITEM_ID, kind: 'quote' as const, lines: QUOTE_LINES.map(({ kind, net, vatRate, accessTaskId }) => ({ kind, net, vatRate, accessTaskId })) }] : []),
+    ...fs.map((f) => ({ id: f.findingId, kind: 'finding' as const, lines: f.lines.map(({ kind, net, vatRate, accessTaskId }) => ({ kind, net, vatRate, accessTaskId })) })),
+  ];
+  const needsCowl = items.some((i) => i.lines.some((l) => l.accessTaskId === COWL));
+  const basis: ChoiceBasis = {
+    currency: 'GBP',
+    rounding,
+    vatRates: { standard: '20', reduced: '5', zero: '0' },
+    committed: { lines: committed, accessTasks: [] },
+    items,
+    accessTasks: needsCowl ? [{ id: COWL, name: 'Cowling off', net: '15.00', vatRate: 'standard' }] : [],
+  };
+  const all = priceChoice(basis, Object.fromEntries(items.map((i) => [i.id, 'approve' as const])));
+  const fixed = (id: string) => all.items.find((i) => i.id === id)!.allApprovedGross;
   return {
     version: 3,
     requestId: '0b1c2d3e-4f5a-4b6c-8d7e-9f0a1b2c3d4e',
@@ -63,16 +97,10 @@ function snapshotOf(p: { rounding?: VatRounding; committed: EstimateLineInput[];
     sentAt: '2026-12-01T10:00:00Z',
     expiresAt: '2026-12-08T10:00:00Z',
     basis,
-    quote: null,
-    findings: p.findings.map((f) => ({
-      findingId: f.id,
-      ...FINDINGS[f.id]!,
-      photos: [],
-      lines: f.lines.map((l) => ({ description: `Work on ${FINDINGS[f.id]!.number}`, kind: l.kind, quantity: '1', net: net.get(l.id)!, vatRate: l.vatRate, accessTaskId: l.accessTaskId ?? null })),
-      gross: all.items.find((i) => i.id === f.id)!.allApprovedGross,
-    })),
+    quote: quote ? { lines: QUOTE_LINES, gross: fixed(QUOTE_ITEM_ID), changeOf: 'first' } : null,
+    findings: fs.map((f) => ({ ...f, gross: fixed(f.findingId) })),
     totals: {
-      quoted: priced.quoted,
+      quoted: all.agreedSoFar,
       agreedSoFar: all.agreedSoFar,
       ifAllApproved: all.ifAllApproved,
       approvingNow: all.approvingNow,
@@ -81,25 +109,10 @@ function snapshotOf(p: { rounding?: VatRounding; committed: EstimateLineInput[];
   };
 }
 
-const inspection: EstimateLineInput = { id: 'i1', stage: 'inspection', agreed: true, kind: 'labour', hours: '7.5', ratePerHour: '61.79', vatRate: 'standard' };
-const fee = (id: string, findingId: string, amount: string, access = false): EstimateLineInput => ({
-  id, stage: 'discovered', findingId, kind: 'fee', amount, vatRate: 'standard', accessTaskId: access ? COWL : null,
-});
+const snapshot = (over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot => ({ ...build(), ...over });
 
-function snapshot(over: Partial<ApprovalSnapshot> = {}): ApprovalSnapshot {
-  return {
-    ...snapshotOf({
-      committed: [inspection],
-      findings: [
-        { id: PLUG, lines: [fee('p', PLUG, '31.00', true)] },
-        { id: SPRING, lines: [fee('s', SPRING, '31.00', true)] },
-        { id: HOSE, lines: [fee('h', HOSE, '10.01')] },
-      ],
-      cowl: true,
-    }),
-    ...over,
-  };
-}
+// Each test starts with nothing kept on the device (jsdom's localStorage lives for the whole file).
+beforeEach(() => localStorage.clear());
 
 const HASH = 'a'.repeat(64);
 const TOKEN = 'tok_en-123';
@@ -115,44 +128,30 @@ const page = (over: Partial<DecisionPageDto> = {}): DecisionPageDto => ({
   ...over,
 });
 
-const gbp = (a: string) => formatMoney(a, 'GBP');
-
-describe('runningTotal reads priceChoice', () => {
-  it('when nothing is chosen yet, then nothing is approved now and the whole request is still to decide', () => {
-    const s = snapshot();
-    const t = runningTotal(s, {});
-    expect(t).toMatchObject({ approvedSoFar: s.totals.agreedSoFar.gross, thisRequestAsChosen: '0.00', newTotal: s.totals.agreedSoFar.gross, undecided: s.totals.approvingNow.gross, chosen: 0, of: 3 });
-  });
-
-  it('when some items are chosen, then every figure is priceChoice’s, and what is approved adds up to the new total', () => {
-    const s = snapshot();
-    const choice: Choice = { [PLUG]: 'approve', [SPRING]: 'decline' };
-    const t = runningTotal(s, choice);
-    const p = priceChoice(s.basis, choice);
-    expect(t).toMatchObject({ thisRequestAsChosen: p.approvingNow.gross, newTotal: p.newTotal.gross, undecided: p.undecidedGross, chosen: 2 });
-    expect(t.addsToTotal).toBe(t.thisRequestAsChosen);
-  });
-
-  it('when a kept choice names an item the request does not hold (the quote here), then it is ignored rather than refused', () => {
-    expect(runningTotal(snapshot(), { [QUOTE_ITEM_ID]: 'approve' }).chosen).toBe(0);
-  });
-});
-
-function choose(name: 'Approve' | 'Decline') {
+function choose(name: 'Approve' | 'Accept' | 'Decline') {
   fireEvent.click(screen.getByRole('radio', { name: new RegExp(`^${name}`) }));
 }
 
+const total = (which: string) => within(screen.getByTestId('running-total')).getByText(/./, { selector: `[data-total="${which}"]` }).textContent;
+
 describe('DecisionPage', () => {
-  it('shows one finding at a time with its category, measurement and its fixed price incl. VAT', () => {
-    const s = snapshot();
+  it('shows one finding at a time with its category, measurement, its price without opening-up, and the opening-up it needs as its own figure', () => {
     render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
     expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
+    expect(screen.getByRole('heading', { level: 1 }).textContent).toBe('Work found on Q-SALT');
+    expect(screen.getByText('Waiting for your decision')).toBeTruthy();
     expect(screen.getAllByTestId('decide-finding')).toHaveLength(1);
     expect(screen.getByText('Recommended')).toBeTruthy();
     expect(screen.getByText('0.98 mm; the example limit is at most 0.9 mm')).toBeTruthy();
-    expect(within(screen.getByTestId('decide-price')).getByText(`${gbp(s.findings[0]!.gross)} incl. VAT`)).toBeTruthy();
-    // Inspection 7.5 h × £61.79 = £463.43 (463.425 rounded half up), VAT £92.69 → £556.12.
-    expect(within(screen.getByTestId('running-total')).getByText('£556.12', { selector: '[data-total="quoted"]' })).toBeTruthy();
+    const price = screen.getByTestId('decide-price');
+    // £50 net + 20% VAT = £60.00; the cowling £15 + 20% = £18.00, shown apart.
+    expect(within(price).getByText('£60.00 incl. VAT')).toBeTruthy();
+    expect(within(price).getByTestId('decide-needs-opening-up').textContent).toMatch(/“Cowling off”\): £18\.00 incl\. VAT, shown on its own line and charged once, however many/);
+    expect(total('agreed-so-far')).toBe('£600.00');
+    expect(total('approving-now')).toBe('£0.00');
+    // Everything if approved: 60 + 30 + 12 + 18.
+    expect(total('undecided')).toBe('£120.00');
+    expect(total('new-total')).toBe('£600.00');
   });
 
   it('when an airworthiness finding is declined, then the page says plainly that the aircraft cannot be released with it open and that the inspector decides', () => {
@@ -170,7 +169,7 @@ describe('DecisionPage', () => {
     expect(screen.queryByText(/cannot be released/)).toBeNull();
   });
 
-  it('when the owner reviews and confirms, then the hash, every decision by item with its note and the typed name are sent', async () => {
+  it('when the owner reviews and confirms, then the hash, every item’s decision with its note and the typed name are sent', async () => {
     const onSubmit = vi.fn().mockResolvedValue(undefined);
     render(<DecisionPage token={TOKEN} page={page()} onSubmit={onSubmit} />);
     choose('Approve');
@@ -178,12 +177,13 @@ describe('DecisionPage', () => {
     choose('Decline');
     fireEvent.change(screen.getByLabelText('A note for the workshop (optional)'), { target: { value: 'Spring from our stores.' } });
     fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
-    // The review refuses to confirm while a finding has no decision, and says which.
+    // The review refuses to confirm while an item has no decision, and says which.
     fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
     expect((screen.getByRole('button', { name: 'Confirm decisions' }) as HTMLButtonElement).disabled).toBe(true);
     fireEvent.click(screen.getByRole('button', { name: 'Go to F-3' }));
     choose('Approve');
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    // Reached from the review, the finding's one button goes straight back to it.
+    fireEvent.click(screen.getByRole('button', { name: 'Back to your choices' }));
     expect(screen.getAllByText('Approved')).toHaveLength(2);
     expect(screen.getAllByText('Declined')).toHaveLength(1);
 
@@ -208,8 +208,7 @@ describe('DecisionPage', () => {
   it('when the server refuses because the workshop changed something, then the reason is shown with a way to reload', async () => {
     const onSubmit = vi.fn().mockRejectedValue(new ApiError({ code: 'conflict', status: 409, message: 'The workshop changed something on this request: reload the page to see the latest.' }));
     const onReload = vi.fn();
-    const one = snapshotOf({ committed: [inspection], findings: [{ id: PLUG, lines: [fee('p', PLUG, '31.00')] }] });
-    render(<DecisionPage token={TOKEN} page={page({ snapshot: one })} onSubmit={onSubmit} onReload={onReload} />);
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ findings: 1 }) })} onSubmit={onSubmit} onReload={onReload} />);
     choose('Approve');
     fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
     fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
@@ -227,8 +226,7 @@ describe('DecisionPage', () => {
     expect(screen.queryByRole('radio')).toBeNull();
   });
 
-  it('when the request is decided, then a receipt lists each decision, who made it and when, with the new total priceChoice gives', () => {
-    const s = snapshot();
+  it('when the request is decided, then the receipt lists each decision, the opening-up once, and figures that add up to the new total', () => {
     render(
       <DecisionPage
         token={TOKEN}
@@ -250,8 +248,108 @@ describe('DecisionPage', () => {
     expect(receipt.textContent).toContain('Thank you, Hazel Brambury.');
     expect(receipt.textContent).toContain('Your note: Later.');
     expect(receipt.textContent).toContain('Q-SALT cannot be released to fly while it is open');
-    const newTotal = priceChoice(s.basis, { [PLUG]: 'approve', [SPRING]: 'decline', [HOSE]: 'decline' }).newTotal.gross;
-    expect(within(receipt).getByText(gbp(newTotal), { selector: '[data-total="new-total"]' })).toBeTruthy();
+    expect(receipt.querySelector('[data-receipt="F-1"]')!.textContent).toContain('£60.00 incl. VAT');
+    expect(receipt.querySelector('[data-receipt="F-3"]')!.textContent).toContain('£12.00 incl. VAT, not included');
+    const opening = receipt.querySelectorAll('[data-opening-up]');
+    expect(opening).toHaveLength(1);
+    expect(opening[0]!.textContent).toContain('Opening-up work shared by F-1 and F-2');
+    expect(opening[0]!.textContent).toContain('£18.00 incl. VAT');
+    // 60.00 + 18.00 = 78.00; 600.00 + 78.00 = 678.00.
+    expect(within(receipt).getByText('£78.00', { selector: '[data-total="approving-now"]' })).toBeTruthy();
+    expect(within(receipt).getByText('£678.00', { selector: '[data-total="new-total"]' })).toBeTruthy();
+  });
+});
+
+describe('DecisionPage running total from priceChoice', () => {
+  it('when one of two findings sharing opening-up is approved, then the opening-up is counted once and the figures add up', () => {
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Approve');
+    // F-1 £60.00 + the cowling £18.00.
+    expect(total('approving-now')).toBe('£78.00');
+    // Still open if approved: F-2 £30.00 (the cowling is already counted) + F-3 £12.00.
+    expect(total('undecided')).toBe('£42.00');
+    expect(total('new-total')).toBe('£678.00');
+    // F-2, with F-1 approved, adds only its own work, and says why.
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    expect(within(screen.getByTestId('decide-price')).getByText('£30.00 incl. VAT')).toBeTruthy();
+    expect(screen.getByTestId('decide-needs-opening-up').textContent).toContain('already counted once for other work you approved');
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    choose('Decline');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    expect(document.querySelector('[data-review="F-1"]')!.textContent).toContain('£60.00 incl. VAT');
+    expect(document.querySelector('[data-review="F-2"]')!.textContent).toContain('£30.00 incl. VAT');
+    expect(document.querySelectorAll('[data-opening-up]')).toHaveLength(1);
+    // 60 + 30 + 18 = 108, the same figure the bar shows: no footnote needed.
+    expect(screen.getByTestId('choice-rows-total').textContent).toBe('You are approving, incl. VAT£108.00');
+    expect(total('approving-now')).toBe('£108.00');
+  });
+
+  it('when VAT is rounded down on the invoice total, then what the finding adds is the whole-bill difference and the rows still add up to it', () => {
+    // Agreed £10.03 (VAT 2.006 → 2.00, £12.03), F-1 £20.03; the whole bill £30.06 (VAT 6.012 → 6.01) = £36.07,
+    // so approving F-1 adds £24.04 [derived from VAT Notice 700 §17.5].
+    const s = build({ findings: 1, rounding: 'invoice-down', committed: [line('labour', '10.03')] });
+    s.basis.items[0]!.lines = [line('fee', '20.03')];
+    s.basis.accessTasks = [];
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
+    expect(total('agreed-so-far')).toBe('£12.03');
+    choose('Approve');
+    expect(total('approving-now')).toBe('£24.04');
+    expect(total('new-total')).toBe('£36.07');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    expect(document.querySelector('[data-review="F-1"]')!.textContent).toContain('£24.04 incl. VAT');
+    expect(screen.getByTestId('choice-rows-total').textContent).toContain('£24.04');
+  });
+});
+
+describe('DecisionPage with the quote in the request', () => {
+  it('when the request holds the quote, then it comes first with its lines and price, and accepting it counts it', () => {
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ quote: true, findings: 1, committed: [] }) })} onSubmit={vi.fn()} />);
+    expect(screen.getByRole('heading', { level: 1 }).textContent).toBe('Our quote and work found on Q-SALT');
+    expect(screen.getByText('1 of 2 · The quote')).toBeTruthy();
+    const lines = screen.getByTestId('decide-quote-lines');
+    expect(within(lines).getByText('Annual permit inspection')).toBeTruthy();
+    expect(within(lines).getByText('6 h')).toBeTruthy();
+    // £372.00 net + 20% = £446.40.
+    expect(within(screen.getByTestId('decide-price')).getByText('£446.40 incl. VAT')).toBeTruthy();
+    expect(total('agreed-so-far')).toBe('£0.00');
+    choose('Accept');
+    expect(total('approving-now')).toBe('£446.40');
+    expect(total('new-total')).toBe('£446.40');
+    fireEvent.click(screen.getByRole('button', { name: 'On to what we found →' }));
+    expect(screen.getByText('2 of 2 · Finding F-1')).toBeTruthy();
+    choose('Approve');
+    // 446.40 + 60.00 + 18.00.
+    expect(total('new-total')).toBe('£524.40');
+  });
+
+  it('when the owner declines the quote, then the page says the work waits for them, and the quote is sent as item "quote"', async () => {
+    const onSubmit = vi.fn().mockResolvedValue(undefined);
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ quote: true, findings: 0, committed: [] }) })} onSubmit={onSubmit} />);
+    expect(screen.getByRole('heading', { level: 1 }).textContent).toBe('Our quote for Q-SALT');
+    choose('Decline');
+    expect(screen.getByText(/We will not start the quoted work without your agreement/)).toBeTruthy();
+    expect(total('approving-now')).toBe('£0.00');
+    fireEvent.change(screen.getByLabelText('A note for the workshop (optional)'), { target: { value: 'Please ring me.' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    expect(document.querySelector('[data-review="quote"]')!.textContent).toContain('£446.40 incl. VAT, not included');
+    fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
+    await vi.waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]![0].decisions).toEqual([{ itemId: 'quote', decision: 'decline', note: 'Please ring me.' }]);
+  });
+
+  it('when "Change the quote" is used on the review, then only the quote opens and the button goes back to the review', () => {
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ quote: true, findings: 1, committed: [] }) })} onSubmit={vi.fn()} />);
+    choose('Accept');
+    fireEvent.click(screen.getByRole('button', { name: 'On to what we found →' }));
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Change the quote' }));
+    expect(screen.getByText('1 of 2 · The quote')).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Back to your choices' }));
+    expect(screen.getByRole('heading', { name: 'Check your choices' })).toBeTruthy();
+    expect(document.querySelector('[data-review="quote"]')!.textContent).toContain('Accepted');
   });
 });
 
@@ -323,26 +421,6 @@ describe('DecisionPage photos', () => {
   });
 });
 
-describe('DecisionPage running total with shared opening-up', () => {
-  it('when one of two findings sharing opening-up is approved, then the bar shows priceChoice’s figures and no footnote', () => {
-    const s = snapshot();
-    render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
-    choose('Approve');
-    const bar = screen.getByTestId('running-total');
-    const p = priceChoice(s.basis, { [PLUG]: 'approve' });
-    // F-1 £31.00 with the cowling £15.50 (0.25 h × £62.00): £46.50 net, £55.80 incl. VAT at 20%.
-    expect(p.approvingNow.gross).toBe('55.80');
-    expect(within(bar).getByText('£55.80', { selector: '[data-total="this-request"]' })).toBeTruthy();
-    expect(within(bar).getByText(gbp(p.undecidedGross), { selector: '[data-total="undecided"]' })).toBeTruthy();
-    expect(within(bar).getByText(gbp(p.newTotal.gross), { selector: '[data-total="new-total"]' })).toBeTruthy();
-    expect(bar.textContent).not.toContain('may come out lower');
-    // F-2's price is its own work (£31.00 + £6.20): opening-up is its own line, so nothing needs explaining.
-    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
-    expect(within(screen.getByTestId('decide-price')).getByText('£37.20 incl. VAT')).toBeTruthy();
-    expect(screen.queryByTestId('decide-adds')).toBeNull();
-  });
-});
-
 describe('DecisionPage opened with an older link of a re-sent request', () => {
   it('then it shows the request closed, says a newer link was sent, and offers no choices, photos or receipt', () => {
     const s = snapshot();
@@ -369,21 +447,121 @@ describe('DecisionPage opened with an older link of a re-sent request', () => {
   });
 });
 
-describe('DecisionPage new total with the committed work in the snapshot', () => {
-  it('when VAT is rounded down on the invoice total, then the bar adds up to the whole-bill figure with no footnote', () => {
-    // Inspection £10.03 (VAT 2.006 → 2.00), F-1 £20.03 (4.006 → 4.00); the whole bill £30.06 (6.012 → 6.01) = £36.07 [derived from VAT Notice 700 §17.5].
-    const s = snapshotOf({
-      rounding: 'invoice-down',
-      committed: [{ id: 'i', stage: 'inspection', agreed: true, kind: 'fee', amount: '10.03', vatRate: 'standard' }],
-      findings: [{ id: PLUG, lines: [fee('p', PLUG, '20.03')] }],
-    });
-    render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
-    const bar = screen.getByTestId('running-total');
+describe('DecisionPage keeps the owner’s choices on the device until they confirm', () => {
+  const DRAFT_KEY = `wingstage.decision-draft.${snapshot().requestId}`;
+
+  it('when the page is reloaded half-way through, then the choices, the note and the place come back, and nothing is sent by itself', () => {
+    const onSubmit = vi.fn();
+    const first = render(<DecisionPage token={TOKEN} page={page()} onSubmit={onSubmit} />);
     choose('Approve');
-    expect(within(bar).getByText('£12.03', { selector: '[data-total="approved-so-far"]' })).toBeTruthy();
-    expect(within(bar).getByText('£24.04', { selector: '[data-total="this-request"]' })).toBeTruthy();
-    expect(within(bar).getByText('£36.07', { selector: '[data-total="new-total"]' })).toBeTruthy();
-    // The item's price is its share of what is approved, so the figures add up and need no note.
-    expect(screen.queryByTestId('decide-vat-whole-bill')).toBeNull();
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    choose('Decline');
+    fireEvent.change(screen.getByLabelText('A note for the workshop (optional)'), { target: { value: 'Please ring me.' } });
+    first.unmount();
+
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={onSubmit} />);
+    expect(screen.getByText('Finding 2 of 3')).toBeTruthy();
+    expect(screen.getByTestId('draft-restored').textContent).toContain('Nothing is sent until you confirm');
+    expect((screen.getByRole('radio', { name: /^Decline/ }) as HTMLInputElement).checked).toBe(true);
+    expect((screen.getByLabelText('A note for the workshop (optional)') as HTMLTextAreaElement).value).toBe('Please ring me.');
+    fireEvent.click(screen.getByRole('button', { name: '← Back' }));
+    expect((screen.getByRole('radio', { name: /^Approve/ }) as HTMLInputElement).checked).toBe(true);
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+
+  it('when the owner confirms, then the kept choices are cleared from the device', async () => {
+    const onSubmit = vi.fn().mockResolvedValue(undefined);
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ findings: 1 }) })} onSubmit={onSubmit} />);
+    choose('Approve');
+    expect(localStorage.getItem(DRAFT_KEY)).not.toBeNull();
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
+    await vi.waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    await vi.waitFor(() => expect(localStorage.getItem(DRAFT_KEY)).toBeNull());
+  });
+
+  it('when the confirmation is refused, then the kept choices stay on the device', async () => {
+    const onSubmit = vi.fn().mockRejectedValue(new ApiError({ code: 'conflict', status: 409, message: 'The workshop changed something on this request: reload the page to see the latest.' }));
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ findings: 1 }) })} onSubmit={onSubmit} />);
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
+    expect(await screen.findByText(/The workshop changed something/)).toBeTruthy();
+    expect(localStorage.getItem(DRAFT_KEY)).not.toBeNull();
+  });
+
+  it('when the request now has a different hash, then the kept choices are cleared with a plain message and the page starts afresh', () => {
+    const first = render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Approve');
+    first.unmount();
+    render(<DecisionPage token={TOKEN} page={page({ snapshotHash: 'b'.repeat(64) })} onSubmit={vi.fn()} />);
+    expect(screen.getByTestId('draft-discarded').textContent).toContain('The workshop changed this request after you started');
+    expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
+    expect((screen.getByRole('radio', { name: /^Approve/ }) as HTMLInputElement).checked).toBe(false);
+    expect(screen.queryByTestId('draft-restored')).toBeNull();
+    expect(localStorage.getItem(DRAFT_KEY)).toBeNull();
+  });
+
+  it('when the request was replaced meanwhile, then the closed page says the unconfirmed choices were cleared and nothing was sent', () => {
+    const first = render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Decline');
+    first.unmount();
+    render(<DecisionPage token={TOKEN} page={page({ state: 'replaced', closedReason: 'A newer request replaced this one.' })} onSubmit={vi.fn()} />);
+    expect(within(screen.getByTestId('decision-closed')).getByTestId('draft-discarded').textContent).toContain('Nothing was sent');
+    expect(localStorage.getItem(DRAFT_KEY)).toBeNull();
+  });
+
+  it('when the request was decided on another device, then the receipt shows what was recorded and says the draft here was cleared', () => {
+    const first = render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Decline');
+    first.unmount();
+    render(
+      <DecisionPage
+        token={TOKEN}
+        page={page({
+          state: 'decided',
+          closedReason: 'You decided this request on 1 Dec 2026.',
+          decisions: snapshot().findings.map((f) => ({ itemId: f.findingId, decision: 'approve' as const, note: '' })),
+          decidedByName: 'Hazel Brambury',
+          decidedAt: '2026-12-01T12:30:00Z',
+        })}
+        onSubmit={vi.fn()}
+      />,
+    );
+    expect(within(screen.getByTestId('decision-receipt')).getByTestId('draft-discarded').textContent).toContain('These decisions were already recorded');
+    expect(localStorage.getItem(DRAFT_KEY)).toBeNull();
+  });
+
+  it('when the kept draft names a finding this request does not hold, then it is cleared and never used', () => {
+    localStorage.setItem(
+      DRAFT_KEY,
+      JSON.stringify({ v: 1, snapshotHash: HASH, choices: { 'd4e5f6a7-b8c9-4d0e-8f1a-2b3c4d5e6f7a': 'approve' }, notes: {}, step: 1, savedAt: new Date().toISOString() }),
+    );
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    expect(screen.getByTestId('draft-discarded').textContent).toContain('did not match this request');
+    expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
+  });
+
+  it('when "Change" is used on the review, then the one finding opens and its button goes straight back to the review', () => {
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Change F-1' }));
+    expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
+    expect(screen.queryByRole('button', { name: '← Back' })).toBeNull();
+    choose('Decline');
+    fireEvent.click(screen.getByRole('button', { name: 'Back to your choices' }));
+    expect(screen.getByRole('heading', { name: 'Check your choices' })).toBeTruthy();
+    expect(within(screen.getByText('F-1', { selector: '[data-review] span' }).closest('li')!).getByText('Declined')).toBeTruthy();
+    // Walking on normally afterwards still goes finding by finding.
+    fireEvent.click(screen.getByRole('button', { name: 'Change F-2' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Back to your choices' }));
+    expect(screen.getByRole('heading', { name: 'Check your choices' })).toBeTruthy();
   });
 });

@@ -57,6 +57,7 @@ function emptyLine(stage: 'inspection' | 'discovered', kind: LineKind, workshop:
     findingId: null,
     accessTaskId: null,
     discountPercent: null,
+    // A new line is never agreed: the owner agrees the quote, not the builder.
     agreedAt: null,
     agreedHow: null,
   };

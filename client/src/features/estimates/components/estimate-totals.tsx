@@ -1,4 +1,4 @@
-import { ESTIMATE_STAGES, type PricedEstimate, type Totals } from '@wingstage/shared';
+import { compareAmounts, ESTIMATE_STAGES, type PricedEstimate, type Totals } from '@wingstage/shared';
 import { formatMoney } from '@/lib/format';
 import { STAGE_LABELS } from '@/lib/line-kinds';
 import { VAT_RATE_LABELS } from '@/lib/pricing-preview';
@@ -39,7 +39,10 @@ export function EstimateTotals({ priced, paused }: { priced: PricedEstimate; pau
         <h3 className="mb-1 text-sm font-semibold uppercase tracking-wide text-slate-soft">Where the estimate stands</h3>
         <dl className="divide-y divide-seam">
           <Row label="Quoted (inspection scope)" totals={priced.quoted} currency={c} testId="total-quoted" />
-          <Row label="Approved so far" totals={priced.committed} currency={c} testId="total-committed" strong />
+          <Row label="Agreed so far" totals={priced.committed} currency={c} testId="total-committed" strong />
+          {compareAmounts(priced.quoteAwaiting.gross, '0') !== 0 ? (
+            <Row label="Quote awaiting the owner" totals={priced.quoteAwaiting} currency={c} testId="total-quote-awaiting" />
+          ) : null}
           <div className="flex items-baseline justify-between gap-x-3 py-1.5">
             <dt className="min-w-0">
               Undecided
@@ -66,12 +69,12 @@ export function EstimateTotals({ priced, paused }: { priced: PricedEstimate; pau
         </dl>
       </section>
       <section>
-        <h3 className="mb-1 text-sm font-semibold uppercase tracking-wide text-slate-soft">VAT on what is approved</h3>
+        <h3 className="mb-1 text-sm font-semibold uppercase tracking-wide text-slate-soft">VAT on what is agreed</h3>
         {priced.committed.byRate.length === 0 ? (
-          <p className="text-sm text-slate-soft">Nothing approved yet.</p>
+          <p className="text-sm text-slate-soft">Nothing agreed yet.</p>
         ) : (
           <table className="w-full text-sm tabular-nums">
-            <caption className="sr-only">VAT by rate on the approved total</caption>
+            <caption className="sr-only">VAT by rate on the agreed total</caption>
             <thead>
               <tr className="text-left text-slate-soft">
                 <th scope="col" className="py-1 font-semibold">Rate</th>
