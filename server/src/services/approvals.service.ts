@@ -29,7 +29,7 @@ import { ApprovalRequest, AuditEvent, Customer, Finding, Job, Workshop, boundSeq
 import { recordAudit } from './audit.js';
 import type { Deps } from './deps.js';
 import { assertEstimateEditable, ensureEstimate, loadLines } from './estimates.service.js';
-import { findJob, type JobRow } from './job-access.js';
+import { findJob, lockJobById, type JobRow } from './job-access.js';
 import { loadWorkshop, pricingOf } from './pricing.js';
 import { snapshotPhotosOf, withPhotos } from './photos.service.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
@@ -695,7 +695,7 @@ export async function submitDecision(deps: Deps, token: string, input: DecisionI
       return { refused: supersededReason(req, old.newestAt), page: null };
     }
     // The job first, as every staff change does; then the request row, which serialises two submissions.
-    await Job.findOne({ where: { id: peek.jobId }, transaction: t, lock: t.LOCK.UPDATE });
+    await lockJobById(peek.jobId, t);
     const r = await byToken(token, t, true);
     if (!r) throw unknownLink();
     await expireIfDue(r, new Date(), t);

@@ -5,6 +5,7 @@ import { checkPassword, dummyHash, hashPassword } from '../lib/passwords.js';
 import { hashToken, issueSession, newOneTimeToken } from '../lib/session-tokens.js';
 import { passwordResetMail } from '../mail/templates.js';
 import { OneTimeToken, User, Workshop, boundSequelize } from '../models/index.js';
+import { inTransaction } from '../db/transaction.js';
 import type { Deps } from './deps.js';
 import { toUserDto } from './dto.js';
 
@@ -74,7 +75,7 @@ export async function requestPasswordReset(deps: Deps, email: string): Promise<v
   const user = await User.findOne({ where: { email, active: true, passwordHash: { [Op.ne]: null } } });
   if (!user) return;
   const { token, hash } = newOneTimeToken();
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     await OneTimeToken.create(
       { userId: user.id, purpose: 'reset', tokenHash: hash, expiresAt: new Date(Date.now() + RESET_MINUTES * 60_000), usedAt: null },
       { transaction: t },
@@ -97,7 +98,7 @@ async function liveToken(raw: string, purpose: 'invite' | 'reset', t: Transactio
 
 export async function completePasswordReset(input: PasswordResetCompleteInput): Promise<void> {
   const passwordHash = await hashPassword(input.password);
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     const token = await liveToken(input.token, 'reset', t);
     const user = await User.findByPk(token.userId, { transaction: t, lock: t.LOCK.UPDATE });
     if (!user || !user.active) throw tokenInvalid();
@@ -115,7 +116,7 @@ export async function completePasswordReset(input: PasswordResetCompleteInput): 
 }
 
 export async function describeInvitation(raw: string) {
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const token = await liveToken(raw, 'invite', t);
     const user = await User.findByPk(token.userId, { include: [{ model: Workshop, as: 'workshop', required: true }], transaction: t });
     if (!user || user.passwordHash !== null || !user.active) throw tokenInvalid();
@@ -126,7 +127,7 @@ export async function describeInvitation(raw: string) {
 
 export async function acceptInvitation(deps: Deps, input: InvitationAcceptInput): Promise<IssuedSession> {
   const passwordHash = await hashPassword(input.password);
-  const user = await boundSequelize().transaction(async (t) => {
+  const user = await inTransaction(async (t) => {
     const token = await liveToken(input.token, 'invite', t);
     const u = await User.findByPk(token.userId, { transaction: t, lock: t.LOCK.UPDATE });
     if (!u || u.passwordHash !== null || !u.active) throw tokenInvalid();
