@@ -21,6 +21,7 @@ import { jobWorkRoutes } from './routes/job-work.routes.js';
 import { workshopRoutes } from './routes/workshop.routes.js';
 import { approvalRequestRoutes, decideRoutes, jobApprovalRoutes } from './routes/approvals.routes.js';
 import type { Deps } from './services/deps.js';
+import { createRateLimits } from './lib/rate-limits.js';
 import type { PhotoStore } from './storage/index.js';
 import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
 
@@ -31,6 +32,8 @@ export interface AppParts {
   mail: MailQueue;
   /** Where finding photos are kept (local folder or an S3-compatible bucket). */
   photos: PhotoStore;
+  /** Password checks and hashes, in worker threads off the request thread. */
+  passwords: import('./lib/passwords.js').PasswordHasher;
   /** The reminder and expiry schedule, when this process runs it. */
   chaser?: import('./jobs/approval-chaser.js').ApprovalChaser;
 }
@@ -40,6 +43,8 @@ const REQUEST_ID = /^[A-Za-z0-9._-]{8,64}$/;
 export function createApp(parts: AppParts): Express {
   const { config, logger, sequelize } = parts;
   const deps: Deps = { config, mail: parts.mail, logger, photos: parts.photos };
+  // Counted in PostgreSQL, so every app process on the database shares each limit.
+  const limits = createRateLimits(sequelize, config);
   const app = express();
   app.disable('x-powered-by');
   app.set('query parser', 'extended');
@@ -104,7 +109,7 @@ export function createApp(parts: AppParts): Express {
       res.status(503).json({ status: 'degraded', app: 'ok', database: 'unreachable' });
     }
   });
-  app.use('/api/auth', authRoutes(deps));
+  app.use('/api/auth', authRoutes(deps, { limits, passwords: parts.passwords }));
   app.use('/api/users', usersRoutes(deps));
   app.use('/api/workshop', workshopRoutes(deps));
   app.use('/api/customers', customersRoutes(deps));
@@ -115,8 +120,8 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/jobs', findingPhotoRoutes(deps));
   app.use('/api/photos', photoRoutes(deps));
   app.use('/api/approval-requests', approvalRequestRoutes(deps));
-  app.use('/api/decide', decideRoutes(deps));
-  app.use('/api/decide', decidePhotoRoutes(deps));
+  app.use('/api/decide', decideRoutes(deps, limits));
+  app.use('/api/decide', decidePhotoRoutes(deps, limits));
   app.use('/api/suppliers', suppliersRoutes(deps));
   app.use('/api/parts', partsRoutes(deps));
   app.use('/api/templates', templatesRoutes(deps));

@@ -3,7 +3,7 @@ import { createSequelize } from './db/sequelize.js';
 import { createLogger } from './lib/logger.js';
 import { MailQueue } from './mail/mail-queue.js';
 import { initModels } from './models/index.js';
-import { dummyHash } from './lib/passwords.js';
+import { PasswordHasher, defaultPasswordThreads } from './lib/passwords.js';
 import type { AppParts } from './app.js';
 import { ApprovalChaser } from './jobs/approval-chaser.js';
 import { createPhotoStore } from './storage/index.js';
@@ -17,18 +17,18 @@ export async function startParts(config: Config): Promise<AppParts> {
   const photos = createPhotoStore(config);
   const mail = new MailQueue(config, sequelize, logger.child({ part: 'mail' }));
   await mail.start();
-  // Ready before the first unknown e-mail arrives, so even that one costs no extra time.
-  await dummyHash();
+  const passwords = new PasswordHasher({ threads: config.PASSWORD_THREADS ?? defaultPasswordThreads(), queue: config.PASSWORD_QUEUE });
   let chaser: ApprovalChaser | undefined;
   if (config.APPROVAL_CHASER) {
     chaser = new ApprovalChaser(config, { config, mail, logger, photos }, logger.child({ part: 'approvals' }));
     await chaser.start();
   }
-  return { config, logger, sequelize, mail, photos, chaser };
+  return { config, logger, sequelize, mail, photos, chaser, passwords };
 }
 
 export async function stopParts(parts: AppParts): Promise<void> {
   await parts.chaser?.stop();
   await parts.mail.stop();
+  await parts.passwords.close();
   await parts.sequelize.close();
 }

@@ -8,6 +8,7 @@ import { createSequelize } from '../src/db/sequelize.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadConfig } from '../src/config/config.js';
 import { OneTimeToken, User, boundSequelize } from '../src/models/index.js';
+import { accountKey } from '../src/lib/rate-limits.js';
 import { hashToken } from '../src/lib/session-tokens.js';
 import {
   PASSWORD,
@@ -244,7 +245,7 @@ describe('sign-in throttling', () => {
       expect(right.status).toBe(429);
       expect(right.body.error.code).toBe('too_many_requests');
       // Failures older than the window no longer count.
-      await boundSequelize().query(`UPDATE sign_in_failures SET at = now() - interval '16 minutes' WHERE email = $1`, { bind: [email] });
+      await boundSequelize().query(`UPDATE rate_limits SET expire = $2 WHERE key LIKE '%:sign-in-account:' || $1`, { bind: [accountKey(email), Date.now() - 1] });
       const later = await request(app).post('/api/auth/sign-in').send({ email, password: PASSWORD });
       expect(later.status).toBe(200);
   });

@@ -46,14 +46,18 @@ export function tempStorageDir(): string {
   return fs.mkdtempSync(path.join(os.tmpdir(), 'ws-photos-'));
 }
 
+/** Rate-limit counters of its own, so test files running side by side on one database do not share a count. */
+export const limitNamespace = () => `test-${uniq()}`;
+
 export async function startTestServer(overrides: Record<string, string> = {}): Promise<TestServer> {
   const ownDir = overrides.STORAGE_DIR ? null : tempStorageDir();
-  const all = ownDir ? { STORAGE_DIR: ownDir, ...overrides } : overrides;
+  const all = { RATE_LIMIT_NAMESPACE: limitNamespace(), ...(ownDir ? { STORAGE_DIR: ownDir } : {}), ...overrides };
   const parts = await startParts(testConfig(all));
   return {
     app: createApp(parts),
     parts,
-    variant: (o) => createApp({ ...parts, config: testConfig({ ...all, ...o }) }),
+    // A variant counts its own attempts unless it is given the server's namespace on purpose.
+    variant: (o) => createApp({ ...parts, config: testConfig({ ...all, RATE_LIMIT_NAMESPACE: limitNamespace(), ...o }) }),
     close: async () => {
       await stopParts(parts);
       if (ownDir) fs.rmSync(ownDir, { recursive: true, force: true });

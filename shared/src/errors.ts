@@ -16,6 +16,8 @@ export type ApiErrorCode =
   | 'too_large'
   /** 415: a file is not of a kind the server accepts, judged by its content. */
   | 'unsupported_type'
+  /** 503: the database (or another part the server needs) is briefly out of reach; `Retry-After` says when to try again. */
+  | 'unavailable'
   | 'internal';
 
 export interface ApiErrorBody {

@@ -62,8 +62,17 @@ const configSchema = z
     COOKIE_SECURE: bool.optional(),
     SIGNIN_ACCOUNT_LIMIT: z.coerce.number().int().min(1).max(100).default(10),
     SIGNIN_ADDRESS_LIMIT: z.coerce.number().int().min(1).max(100000).default(100),
-    /** Requests per address per 15 minutes to the owner's decision links. */
+    /** Failed look-ups (unknown links) per address per 15 minutes on the owner's decision links. */
     DECIDE_ADDRESS_LIMIT: z.coerce.number().int().min(1).max(100000).default(120),
+    /**
+     * Prefix of this deployment's rate-limit counters in the database. Every app process of one
+     * deployment must use the same one (they then share each limit); tests give each server its own.
+     */
+    RATE_LIMIT_NAMESPACE: z.string().regex(/^[A-Za-z0-9_.-]{1,40}$/, { message: 'RATE_LIMIT_NAMESPACE: 1–40 letters, digits, dots, dashes or underscores.' }).default('wingstage'),
+    /** Worker threads that check and hash passwords (default: one fewer than the machine's cores, at least one). */
+    PASSWORD_THREADS: z.coerce.number().int().min(1).max(64).optional(),
+    /** Passwords that may wait for a worker thread; a sign-in past that is answered 503 with Retry-After. */
+    PASSWORD_QUEUE: z.coerce.number().int().min(0).max(10000).default(16),
     /** Runs the reminder and expiry schedule; off unless asked for in tests. */
     APPROVAL_CHASER: bool.default(true),
     /** Off in unit-style tests that do not need mail delivery; on everywhere else. */

@@ -8,7 +8,8 @@ import {
   ValidationError as SequelizeValidationError,
 } from 'sequelize';
 import { MoneyError, StateMoveError, type ApiErrorBody, type ApiErrorCode } from '@wingstage/shared';
-import { AppError } from './app-error.js';
+import { isDatabaseUnavailable, isTransactionCollision, sqlState } from '../db/db-errors.js';
+import { AppError, busyRecord, databaseUnavailable } from './app-error.js';
 
 /** Which column each unique constraint guards, and what to tell the person who hit it. */
 const UNIQUE_MESSAGES: Record<string, { field: string; message: string }> = {
@@ -31,15 +32,22 @@ interface Mapped {
   code: ApiErrorCode;
   message: string;
   fields?: Record<string, string>;
+  retryAfterSeconds?: number;
 }
 
+const fromAppError = (err: AppError): Mapped => ({ status: err.status, code: err.code, message: err.message, fields: err.fields, retryAfterSeconds: err.retryAfterSeconds });
+
 function mapError(err: unknown): Mapped | null {
-  if (err instanceof AppError) return { status: err.status, code: err.code, message: err.message, fields: err.fields };
+  if (err instanceof AppError) return fromAppError(err);
   // A forbidden state move: the transaction rolled back, so nothing was written.
   if (err instanceof StateMoveError) return { status: 409, code: 'invalid_transition', message: err.reason };
   if (err instanceof MoneyError) {
     return { status: 422, code: 'invalid_amount', message: `An amount could not be worked out: ${err.detail}${err.path ? ` (at ${err.path})` : ''}`, fields: err.path ? { [err.path]: err.detail } : undefined };
   }
+  // Checked before the Sequelize classes below: a dropped connection surfaces as a DatabaseError too.
+  if (isDatabaseUnavailable(err)) return fromAppError(databaseUnavailable());
+  // A collision outside inTransaction (or left after its retry) is still a plain 409, never a 500.
+  if (isTransactionCollision(err)) return fromAppError(busyRecord());
   if (err instanceof ZodError) {
     return { status: 400, code: 'validation_failed', message: 'Some fields need attention.', fields: zodFields(err) };
   }
@@ -56,7 +64,12 @@ function mapError(err: unknown): Mapped | null {
     return { status: 409, code: 'conflict', message: 'This refers to a record that does not exist, or is still in use.' };
   }
   if (err instanceof DatabaseError) {
-    const code = (err.parent as { code?: string } | undefined)?.code;
+    const code = sqlState(err);
+    // Text PostgreSQL cannot store (NUL, broken characters): the shared schemas refuse it first; this is the backstop.
+    if (code === '22021' || code === '22P05') {
+      return { status: 400, code: 'validation_failed', message: 'Some text could not be stored: remove any invisible control characters and try again.' };
+    }
+    if (code === '22P02') return { status: 400, code: 'validation_failed', message: 'A value is not in a form that can be stored. Check the numbers and ids.' };
     // PostgreSQL's own checks (out-of-range number, over-long text, CHECK constraint): the input is at fault.
     if (code === '22003' || code === '22001' || code === '23514' || code === '22007' || code === '22008') {
       return { status: 400, code: 'validation_failed', message: 'A value is outside what can be stored. Check the numbers and dates.' };
@@ -91,6 +104,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const body: ApiErrorBody = { error: { code: m.code, message: m.message, requestId } };
   if (m.fields && Object.keys(m.fields).length > 0) body.error.fields = m.fields;
   if (res.headersSent) return;
+  if (m.retryAfterSeconds !== undefined) res.setHeader('Retry-After', String(m.retryAfterSeconds));
   res.status(m.status).json(body);
 };
 

@@ -8,7 +8,8 @@ import {
   idParamsSchema,
   preAuthorisationSchema,
 } from '@wingstage/shared';
-import { decideAddressLimit, invalidDecideLink, wellFormedToken } from '../middleware/decide-link.js';
+import { invalidDecideLink, wellFormedToken } from '../middleware/decide-link.js';
+import { failedLookupsPerAddress, type RateLimits } from '../lib/rate-limits.js';
 import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validParams, validate } from '../middleware/validate.js';
 import * as approvals from '../services/approvals/index.js';
@@ -61,11 +62,13 @@ export function approvalRequestRoutes(deps: Deps): Router {
 
 /**
  * The owner's decision page, reached by the signed link alone: no session, so no CSRF token. Every
- * malformed or unknown token gets the same 404, and the address is rate-limited against guessing.
+ * malformed or unknown token gets the same 404, and failed look-ups are limited per address against
+ * guessing (pages that load do not count, so the owner's own link keeps working).
  */
-export function decideRoutes(deps: Deps): Router {
+export function decideRoutes(deps: Deps, limits: RateLimits): Router {
   const router = Router();
-  const perAddress = decideAddressLimit(deps.config);
+  const lookups = failedLookupsPerAddress(limits.decideAddress);
+  const perAddress = lookups.check;
 
   router.get('/:token', perAddress, async (req, res) => {
     if (!wellFormedToken(req.params.token)) throw invalidDecideLink();
@@ -79,5 +82,6 @@ export function decideRoutes(deps: Deps): Router {
     });
     res.json(page);
   });
+  router.use(lookups.countFailure);
   return router;
 }

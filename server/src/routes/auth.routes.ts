@@ -1,5 +1,4 @@
 import { Router, type Response } from 'express';
-import { rateLimit } from 'express-rate-limit';
 import {
   invitationAcceptSchema,
   passwordResetCompleteSchema,
@@ -7,27 +6,19 @@ import {
   signInSchema,
   tokenParamsSchema,
 } from '@wingstage/shared';
-import { AppError } from '../errors/app-error.js';
+import { perAddress as countPerAddress } from '../lib/rate-limits.js';
 import { CSRF_COOKIE, SESSION_COOKIE, csrfCookieOptions, csrfFor, sessionCookieOptions } from '../lib/session-tokens.js';
 import { authorize } from '../middleware/authorize.js';
 import { validBody, validParams, validate } from '../middleware/validate.js';
 import * as auth from '../services/auth.service.js';
 import type { Deps } from '../services/deps.js';
 
-export function authRoutes(deps: Deps): Router {
+export function authRoutes(deps: Deps, guards: auth.AuthGuards): Router {
   const { config } = deps;
   const router = Router();
 
-  // Per address, in this process's memory. Several app processes would each count on their own:
-  // behind a load balancer, give express-rate-limit a shared store (e.g. PostgreSQL or Redis).
-  const perAddress = rateLimit({
-    windowMs: auth.THROTTLE_WINDOW_MINUTES * 60_000,
-    limit: config.SIGNIN_ADDRESS_LIMIT,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: (_req, _res, next) =>
-      next(new AppError('too_many_requests', 429, `Too many attempts from this address. Wait ${auth.THROTTLE_WINDOW_MINUTES} minutes and try again.`)),
-  });
+  // Per address, counted in PostgreSQL: every app process shares the one count.
+  const perAddress = countPerAddress(guards.limits.authAddress);
 
   const setSession = (res: Response, s: auth.IssuedSession) => {
     res.cookie(SESSION_COOKIE, s.token, sessionCookieOptions(config));
@@ -41,7 +32,7 @@ export function authRoutes(deps: Deps): Router {
   };
 
   router.post('/sign-in', perAddress, validate({ body: signInSchema }), async (req, res) => {
-    const session = await auth.signIn(deps, validBody(req, signInSchema), req.ip ?? '');
+    const session = await auth.signIn(deps, guards, validBody(req, signInSchema));
     setSession(res, session);
     res.json(session.dto);
   });
@@ -66,7 +57,7 @@ export function authRoutes(deps: Deps): Router {
   });
 
   router.post('/password-reset/complete', perAddress, validate({ body: passwordResetCompleteSchema }), async (req, res) => {
-    await auth.completePasswordReset(validBody(req, passwordResetCompleteSchema));
+    await auth.completePasswordReset(guards, validBody(req, passwordResetCompleteSchema));
     clearSession(res);
     res.status(204).end();
   });
@@ -76,7 +67,7 @@ export function authRoutes(deps: Deps): Router {
   });
 
   router.post('/invitations/accept', perAddress, validate({ body: invitationAcceptSchema }), async (req, res) => {
-    const session = await auth.acceptInvitation(deps, validBody(req, invitationAcceptSchema));
+    const session = await auth.acceptInvitation(deps, guards, validBody(req, invitationAcceptSchema));
     setSession(res, session);
     res.json(session.dto);
   });

@@ -3,7 +3,8 @@ import multer from 'multer';
 import { z } from 'zod';
 import { PHOTO_LIMITS, ROLES, idSchema, photoParamsSchema, photoQuerySchema } from '@wingstage/shared';
 import { AppError } from '../errors/app-error.js';
-import { decideAddressLimit, invalidDecideLink, wellFormedToken } from '../middleware/decide-link.js';
+import { invalidDecideLink, wellFormedToken } from '../middleware/decide-link.js';
+import { failedLookupsPerAddress, type RateLimits } from '../lib/rate-limits.js';
 import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validParams, validQuery, validate } from '../middleware/validate.js';
 import type { Deps } from '../services/deps.js';
@@ -100,15 +101,16 @@ export function photoRoutes(deps: Deps): Router {
  * address at the same limit; pictures that load fine do not count, so a page full of photos never
  * uses up the owner's attempts.
  */
-export function decidePhotoRoutes(deps: Deps): Router {
+export function decidePhotoRoutes(deps: Deps, limits: RateLimits): Router {
   const router = Router();
-  const perAddress = decideAddressLimit(deps.config, { failuresOnly: true });
-  router.get('/:token/photos/:photoId', perAddress, async (req, res) => {
+  const lookups = failedLookupsPerAddress(limits.decideAddress);
+  router.get('/:token/photos/:photoId', lookups.check, async (req, res) => {
     if (!wellFormedToken(req.params.token)) throw invalidDecideLink();
     const id = idSchema.safeParse(req.params.photoId);
     if (!id.success) throw new AppError('not_found', 404, 'That photo was not found.');
     const q = photoQuerySchema.parse(req.query);
     send(res, await photos.decidePhotoFile(deps, String(req.params.token), id.data, q.size));
   });
+  router.use(lookups.countFailure);
   return router;
 }

@@ -2,6 +2,7 @@ import { Op, type WhereOptions } from 'sequelize';
 import type { AircraftCreate, AircraftDto, AircraftUpdateInput, ListQuery, Page } from '@wingstage/shared';
 import { AppError, notFound, staleVersion } from '../errors/app-error.js';
 import { Aircraft, Customer, boundSequelize } from '../models/index.js';
+import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
 import { inWorkshop, ownedRows, type Scope } from './scope.js';
@@ -73,7 +74,7 @@ async function requireCustomer(scope: Scope, customerId: string, t: import('sequ
 }
 
 export async function createAircraft(scope: Scope, input: AircraftCreate): Promise<AircraftDto> {
-  const id = await boundSequelize().transaction(async (t) => {
+  const id = await inTransaction(async (t) => {
     await requireCustomer(scope, input.customerId, t);
     const a = await Aircraft.create({ ...input, workshopId: scope.workshopId }, { transaction: t });
     await recordAudit(scope, t, { action: 'aircraft.created', summary: `Added aircraft ${a.registration}`, detail: { aircraftId: a.id } });
@@ -83,7 +84,7 @@ export async function createAircraft(scope: Scope, input: AircraftCreate): Promi
 }
 
 export async function updateAircraft(scope: Scope, id: string, input: AircraftUpdateInput): Promise<AircraftDto> {
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     const a = await Aircraft.findOne({ where: inWorkshop(scope, { id }), transaction: t, lock: t.LOCK.UPDATE });
     if (!a) throw notFound('That aircraft');
     if (a.version !== input.version) throw staleVersion();

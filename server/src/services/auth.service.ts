@@ -1,14 +1,22 @@
-import { Op, QueryTypes, type Transaction } from 'sequelize';
+import { Op, type Transaction } from 'sequelize';
 import type { InvitationAcceptInput, PasswordResetCompleteInput, SessionDto, SignInInput } from '@wingstage/shared';
 import { AppError, unauthenticated } from '../errors/app-error.js';
-import { checkPassword, dummyHash, hashPassword } from '../lib/passwords.js';
+import type { PasswordHasher } from '../lib/passwords.js';
+import { WINDOW_MINUTES, accountKey, type RateLimits } from '../lib/rate-limits.js';
 import { hashToken, issueSession, newOneTimeToken } from '../lib/session-tokens.js';
 import { passwordResetMail } from '../mail/templates.js';
 import { OneTimeToken, User, Workshop, boundSequelize } from '../models/index.js';
+import { inTransaction } from '../db/transaction.js';
 import type { Deps } from './deps.js';
 import { toUserDto } from './dto.js';
 
-export const THROTTLE_WINDOW_MINUTES = 15;
+export const THROTTLE_WINDOW_MINUTES = WINDOW_MINUTES;
+
+/** What guards the sign-in routes: the shared rate limits and the password pool. */
+export interface AuthGuards {
+  limits: RateLimits;
+  passwords: PasswordHasher;
+}
 /** ASVS 6.5.5 wants e-mailed sign-in links short-lived; half an hour leaves time to find the mail. */
 export const RESET_MINUTES = 30;
 export const INVITE_DAYS = 7;
@@ -30,30 +38,33 @@ function sessionFor(deps: Deps, user: User, workshop: Workshop): IssuedSession {
   };
 }
 
-async function recentFailures(email: string): Promise<number> {
-  const rows = await boundSequelize().query<{ n: string }>(
-    `SELECT count(*) AS n FROM sign_in_failures WHERE email = $1 AND at > now() - interval '${THROTTLE_WINDOW_MINUTES} minutes'`,
-    { bind: [email], type: QueryTypes.SELECT },
-  );
-  return Number(rows[0]?.n ?? 0);
-}
+const wrongPassword = () => unauthenticated('The e-mail or password is not right.');
 
-export async function signIn(deps: Deps, input: SignInInput, address: string): Promise<IssuedSession> {
-  // Stored in PostgreSQL, so the limit holds across every app process. ASVS 4.0.3 V2.2.1 allows at most 100 per hour.
-  if ((await recentFailures(input.email)) >= deps.config.SIGNIN_ACCOUNT_LIMIT) {
-    throw new AppError('too_many_requests', 429, `Too many failed sign-ins for this account. Wait ${THROTTLE_WINDOW_MINUTES} minutes, or reset your password.`);
+/**
+ * The attempt is reserved against the account's limit BEFORE the password is checked, in one
+ * atomic step in PostgreSQL, so however many arrive at once (on however many app processes) at
+ * most SIGNIN_ACCOUNT_LIMIT passwords are checked per window (ASVS 4.0.3 V2.2.1 allows at most
+ * 100 failures an hour). A right password clears the count. An unknown e-mail and a switched-off
+ * account cost the same comparison and get the same answer as a wrong password.
+ */
+export async function signIn(deps: Deps, guards: AuthGuards, input: SignInInput): Promise<IssuedSession> {
+  guards.passwords.assertRoom();
+  const key = accountKey(input.email);
+  const wait = await guards.limits.signInAccount.reserve(key);
+  if (wait !== null) {
+    throw new AppError('too_many_requests', 429, `Too many failed sign-ins for this account. Wait ${THROTTLE_WINDOW_MINUTES} minutes, or reset your password.`, undefined, wait);
   }
   const user = await User.findOne({ where: { email: input.email }, include: [{ model: Workshop, as: 'workshop', required: true }] });
-  // An unknown address still costs one bcrypt comparison, so timing does not reveal who has a sign-in.
-  const matches = await checkPassword(input.password, user?.passwordHash ?? (await dummyHash()));
-  if (!user || !user.passwordHash || !matches) {
-    await boundSequelize().query('INSERT INTO sign_in_failures (email, address) VALUES ($1, $2)', { bind: [input.email, address] });
-    // Rows outside the window no longer count; dropping them keeps the table small.
-    await boundSequelize().query(`DELETE FROM sign_in_failures WHERE email = $1 AND at < now() - interval '1 day'`, { bind: [input.email] });
-    throw unauthenticated('The e-mail or password is not right.');
+  let matches: boolean;
+  try {
+    matches = await guards.passwords.check(input.password, user?.passwordHash);
+  } catch (err) {
+    // Turned away before any check (the pool was full): this attempt does not count.
+    await guards.limits.signInAccount.refund(key);
+    throw err;
   }
-  if (!user.active) throw unauthenticated('This sign-in has been switched off. Ask your workshop to turn it back on.');
-  await boundSequelize().query('DELETE FROM sign_in_failures WHERE email = $1', { bind: [input.email] });
+  if (!user || !matches || !user.active) throw wrongPassword();
+  await guards.limits.signInAccount.reset(key);
   return sessionFor(deps, user, (user as User & { workshop: Workshop }).workshop);
 }
 
@@ -74,7 +85,7 @@ export async function requestPasswordReset(deps: Deps, email: string): Promise<v
   const user = await User.findOne({ where: { email, active: true, passwordHash: { [Op.ne]: null } } });
   if (!user) return;
   const { token, hash } = newOneTimeToken();
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     await OneTimeToken.create(
       { userId: user.id, purpose: 'reset', tokenHash: hash, expiresAt: new Date(Date.now() + RESET_MINUTES * 60_000), usedAt: null },
       { transaction: t },
@@ -95,9 +106,9 @@ async function liveToken(raw: string, purpose: 'invite' | 'reset', t: Transactio
   return row;
 }
 
-export async function completePasswordReset(input: PasswordResetCompleteInput): Promise<void> {
-  const passwordHash = await hashPassword(input.password);
-  await boundSequelize().transaction(async (t) => {
+export async function completePasswordReset(guards: AuthGuards, input: PasswordResetCompleteInput): Promise<void> {
+  const passwordHash = await guards.passwords.hash(input.password);
+  const email = await inTransaction(async (t) => {
     const token = await liveToken(input.token, 'reset', t);
     const user = await User.findByPk(token.userId, { transaction: t, lock: t.LOCK.UPDATE });
     if (!user || !user.active) throw tokenInvalid();
@@ -110,12 +121,14 @@ export async function completePasswordReset(input: PasswordResetCompleteInput): 
       { usedAt: new Date() },
       { where: { userId: user.id, purpose: 'reset', usedAt: null }, transaction: t },
     );
-    await boundSequelize().query('DELETE FROM sign_in_failures WHERE email = $1', { bind: [user.email], transaction: t });
+    return user.email;
   });
+  // A new password starts with the account's full allowance of attempts.
+  await guards.limits.signInAccount.reset(accountKey(email));
 }
 
 export async function describeInvitation(raw: string) {
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const token = await liveToken(raw, 'invite', t);
     const user = await User.findByPk(token.userId, { include: [{ model: Workshop, as: 'workshop', required: true }], transaction: t });
     if (!user || user.passwordHash !== null || !user.active) throw tokenInvalid();
@@ -124,9 +137,9 @@ export async function describeInvitation(raw: string) {
   });
 }
 
-export async function acceptInvitation(deps: Deps, input: InvitationAcceptInput): Promise<IssuedSession> {
-  const passwordHash = await hashPassword(input.password);
-  const user = await boundSequelize().transaction(async (t) => {
+export async function acceptInvitation(deps: Deps, guards: AuthGuards, input: InvitationAcceptInput): Promise<IssuedSession> {
+  const passwordHash = await guards.passwords.hash(input.password);
+  const user = await inTransaction(async (t) => {
     const token = await liveToken(input.token, 'invite', t);
     const u = await User.findByPk(token.userId, { transaction: t, lock: t.LOCK.UPDATE });
     if (!u || u.passwordHash !== null || !u.active) throw tokenInvalid();

@@ -3,6 +3,7 @@ import type { z } from 'zod';
 import type { Page, PartDto, SupplierDto, listQuerySchema, partCreateSchema, partUpdateSchema, supplierCreateSchema, supplierUpdateSchema } from '@wingstage/shared';
 import { AppError, notFound, staleVersion } from '../errors/app-error.js';
 import { Part, Supplier, boundSequelize } from '../models/index.js';
+import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
 import { loadWorkshop, partSellPrice, pricingOf } from './pricing.js';
@@ -31,7 +32,7 @@ export async function listSuppliers(scope: Scope, q: ListQuery & { ids?: string[
 
 export async function createSupplier(scope: Scope, input: z.output<typeof supplierCreateSchema>): Promise<SupplierDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const s = await Supplier.create({ ...input, workshopId: scope.workshopId }, { transaction: t });
     await recordAudit(scope, t, { action: 'supplier.created', summary: `Added supplier ${s.name}`, detail: { supplierId: s.id } });
     return supplierDto(s);
@@ -40,7 +41,7 @@ export async function createSupplier(scope: Scope, input: z.output<typeof suppli
 
 export async function updateSupplier(scope: Scope, id: string, input: z.output<typeof supplierUpdateSchema>): Promise<SupplierDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const s = await Supplier.findOne({ where: inWorkshop(scope, { id }), transaction: t, lock: t.LOCK.UPDATE });
     if (!s) throw notFound('That supplier');
     if (s.version !== input.version) throw staleVersion();
@@ -138,7 +139,7 @@ async function assertNumberFree(scope: Scope, partNumber: string, exceptId: stri
 
 export async function createPart(scope: Scope, input: z.output<typeof partCreateSchema>): Promise<PartDto> {
   requireStaff(scope);
-  const id = await boundSequelize().transaction(async (t) => {
+  const id = await inTransaction(async (t) => {
     await assertSuppliers(scope, [input.supplierId], () => 'supplierId', t);
     await assertNumberFree(scope, input.partNumber, null, t);
     const p = await Part.create({ ...input, workshopId: scope.workshopId }, { transaction: t });
@@ -150,7 +151,7 @@ export async function createPart(scope: Scope, input: z.output<typeof partCreate
 
 export async function updatePart(scope: Scope, id: string, input: z.output<typeof partUpdateSchema>): Promise<PartDto> {
   requireStaff(scope);
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     const p = await Part.findOne({ where: inWorkshop(scope, { id }), transaction: t, lock: t.LOCK.UPDATE });
     if (!p) throw notFound('That part');
     if (p.version !== input.version) throw staleVersion();

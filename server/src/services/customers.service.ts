@@ -2,6 +2,7 @@ import { Op, type WhereOptions } from 'sequelize';
 import type { CustomerCreate, CustomerDto, CustomerUpdateInput, ListQuery, Page } from '@wingstage/shared';
 import { notFound, staleVersion } from '../errors/app-error.js';
 import { Customer, boundSequelize } from '../models/index.js';
+import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
 import { ownedRows, requireStaff, type Scope } from './scope.js';
@@ -60,7 +61,7 @@ export async function getCustomer(scope: Scope, id: string): Promise<CustomerDto
 }
 
 export async function createCustomer(scope: Scope, input: CustomerCreate): Promise<CustomerDto> {
-  const id = await boundSequelize().transaction(async (t) => {
+  const id = await inTransaction(async (t) => {
     const c = await Customer.create({ ...input, workshopId: scope.workshopId }, { transaction: t });
     await recordAudit(scope, t, { action: 'customer.created', summary: `Added owner ${c.name}`, detail: { customerId: c.id } });
     return c.id;
@@ -69,7 +70,7 @@ export async function createCustomer(scope: Scope, input: CustomerCreate): Promi
 }
 
 export async function updateCustomer(scope: Scope, id: string, input: CustomerUpdateInput): Promise<CustomerDto> {
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     const c = await Customer.findOne({ where: ownedRows(scope, 'id', { id }), transaction: t, lock: t.LOCK.UPDATE });
     if (!c) throw notFound('That owner');
     if (c.version !== input.version) throw staleVersion();

@@ -25,7 +25,8 @@ import { recordAudit } from './audit.js';
 import { quoteRequestFacts } from './approvals/repository.js';
 import { findingIdsIn, moveFindings } from './findings.repository.js';
 import { assertSuppliers, loadParts } from './catalogue.service.js';
-import { findJob, type JobRow } from './job-access.js';
+import { inTransaction } from '../db/transaction.js';
+import { findJob, lockJob, lockOpenRequests, type JobRow } from './job-access.js';
 import { labourRate, loadWorkshop, pricingOf } from './pricing.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
 
@@ -119,7 +120,7 @@ async function estimateDto(scope: Scope, jobId: string, t?: Transaction): Promis
     const p = priced(w, lines, accessTasks);
     return { jobId, version: est.version, currency: w.currency, lines, accessTasks, priced: p, quote: await quoteDto(jobId, p, tx) };
   };
-  return t ? run(t) : boundSequelize().transaction(run);
+  return t ? run(t) : inTransaction(run);
 }
 
 /** Inspection lines still awaiting the owner's agreement (work may not start while any does). */
@@ -181,6 +182,8 @@ function invalid(fields: Record<string, string>): AppError {
 /**
  * Replaces the inspection-scope and discovered lines and the access tasks. The estimate row is
  * locked and its version compared, so of two editors who loaded the same version exactly one saves.
+ * Locks in the server's one order: job, its open approval requests (a price change replaces them),
+ * then the estimate.
  */
 export async function saveEstimate(
   scope: Scope,
@@ -190,8 +193,9 @@ export async function saveEstimate(
   afterSave?: (job: JobRow, t: Transaction) => Promise<void>,
 ): Promise<EstimateDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
-    const job = await findJob(scope, jobId, t);
+  return inTransaction(async (t) => {
+    const job = await lockJob(scope, jobId, t);
+    await lockOpenRequests(job.id, t);
     const est = await ensureEstimate(scope, job.id, t, true);
     if (est.version !== input.version) {
       throw new AppError('stale_version', 409, 'Someone else changed this estimate since you opened it. Their version is shown now; make your change again on top of it.', {
@@ -225,6 +229,18 @@ export async function saveEstimate(
         const name = current.accessTasks.find((a) => a.id === l.accessTaskId)?.name ?? 'An access task';
         fields.accessTasks = `${name} is used by work the owner has decided on and must stay on the estimate.`;
       }
+    }
+    // An access task id is new or this job's own: the save upserts by id, so another job's id must never reach it.
+    if (input.accessTasks.length) {
+      const foreign = await boundSequelize().query<{ id: string }>(`SELECT id FROM access_tasks WHERE id = ANY($1::uuid[]) AND job_id <> $2`, {
+        bind: [input.accessTasks.map((a) => a.id), job.id],
+        type: QueryTypes.SELECT,
+        transaction: t,
+      });
+      const taken = new Set(foreign.map((r) => r.id));
+      input.accessTasks.forEach((a, i) => {
+        if (taken.has(a.id)) fields[`accessTasks.${i}.id`] = 'That id is already used elsewhere; give this access task a new one.';
+      });
     }
     if (Object.keys(fields).length) throw invalid(fields);
     await loadParts(scope, input.lines.map((l) => l.partId), (i) => `lines.${i}.partId`, t);

@@ -25,7 +25,8 @@ import { EstimateLine, Finding, JobChecklistItem, TimeLog, User, boundSequelize 
 import { recordAudit } from './audit.js';
 import { loadParts } from './catalogue.service.js';
 import { assertEstimateEditable, ensureEstimate } from './estimates.service.js';
-import { findJob, type JobRow } from './job-access.js';
+import { inTransaction } from '../db/transaction.js';
+import { findJob, lockJob, lockOpenRequests, type JobRow } from './job-access.js';
 import { loadWorkshop } from './pricing.js';
 import { photosByFinding } from './photos.service.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
@@ -107,8 +108,8 @@ async function checkRemedy(scope: Scope, remedy: FindingCreate['remedy'], t: Tra
 
 export async function createFinding(scope: Scope, jobId: string, input: FindingCreate): Promise<FindingDto> {
   requireStaff(scope);
-  const id = await boundSequelize().transaction(async (t) => {
-    const job = await findJob(scope, jobId, t);
+  const id = await inTransaction(async (t) => {
+    const job = await lockJob(scope, jobId, t);
     assertWorking(job, 'raising a finding');
     let item: JobChecklistItem | null = null;
     if (input.checklistItemId) {
@@ -154,8 +155,8 @@ export async function createFinding(scope: Scope, jobId: string, input: FindingC
 
 export async function updateFinding(scope: Scope, jobId: string, findingId: string, input: FindingUpdate): Promise<FindingDto> {
   requireStaff(scope);
-  await boundSequelize().transaction(async (t) => {
-    const job = await findJob(scope, jobId, t);
+  await inTransaction(async (t) => {
+    const job = await lockJob(scope, jobId, t);
     const f = await findFinding(scope, job.id, findingId, t, true);
     if (f.version !== input.version) throw staleVersion();
     if (f.state !== 'draft' && f.state !== 'priced') {
@@ -184,10 +185,11 @@ export async function withdrawFinding(
   afterWithdraw?: (job: JobRow, t: Transaction) => Promise<void>,
 ): Promise<FindingDto> {
   requireStaff(scope);
-  await boundSequelize().transaction(async (t) => {
-    const job = await findJob(scope, jobId, t);
+  await inTransaction(async (t) => {
+    const job = await lockJob(scope, jobId, t);
     assertEstimateEditable(job);
-    // Lock the estimate first, as a save does, so a withdrawal and a save cannot interleave.
+    // The server's one lock order (job-access.ts): job, its open requests (one may be replaced), estimate, finding.
+    await lockOpenRequests(job.id, t);
     const est = await ensureEstimate(scope, job.id, t, true);
     const f = await findFinding(scope, job.id, findingId, t, true);
     if (f.version !== input.version) throw staleVersion();
@@ -209,8 +211,8 @@ export async function withdrawFinding(
 
 export async function markRectified(scope: Scope, jobId: string, findingId: string, input: FindingAction): Promise<FindingDto> {
   requireStaff(scope);
-  await boundSequelize().transaction(async (t) => {
-    const job = await findJob(scope, jobId, t);
+  await inTransaction(async (t) => {
+    const job = await lockJob(scope, jobId, t);
     const f = await findFinding(scope, job.id, findingId, t, true);
     if (f.version !== input.version) throw staleVersion();
     if (f.state !== 'approved' && f.state !== 'approved_within_limit') {
@@ -296,8 +298,8 @@ export async function listChecklist(scope: Scope, jobId: string): Promise<JobChe
 
 export async function recordChecklist(scope: Scope, jobId: string, itemId: string, input: ChecklistRecord): Promise<JobChecklistItemDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
-    const job = await findJob(scope, jobId, t);
+  return inTransaction(async (t) => {
+    const job = await lockJob(scope, jobId, t);
     const item = await JobChecklistItem.findOne({ where: inWorkshop(scope, { jobId: job.id, id: itemId }), transaction: t, lock: t.LOCK.UPDATE });
     if (!item) throw notFound('That checklist item');
     if (item.version !== input.version) throw staleVersion();
@@ -342,8 +344,8 @@ export async function listTime(scope: Scope, jobId: string): Promise<TimeLogDto[
 
 export async function logTime(scope: Scope, jobId: string, input: TimeLogCreate): Promise<TimeLogDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
-    const job = await findJob(scope, jobId, t);
+  return inTransaction(async (t) => {
+    const job = await lockJob(scope, jobId, t);
     if (job.state === 'closed' || job.state === 'cancelled') throw conflict(`This job is ${job.state}; time can no longer be logged against it.`);
     let number = '';
     if (input.findingId) {

@@ -1,6 +1,6 @@
 import type { Includeable, Transaction } from 'sequelize';
 import { notFound } from '../errors/app-error.js';
-import { Aircraft, Customer, Job } from '../models/index.js';
+import { Aircraft, Customer, Job, boundSequelize } from '../models/index.js';
 import { inWorkshop, ownedRows, type Scope } from './scope.js';
 
 export type JobRow = Job & { aircraft: Aircraft & { customer: Customer } };
@@ -28,9 +28,46 @@ export async function findJob(scope: Scope, id: string, t?: Transaction, lock = 
     where: inWorkshop(scope, { id }),
     include: scopedInclude(scope),
     transaction: t,
-    // Lock only the job row; the joined rows are read, not changed.
-    lock: lock && t ? { level: t.LOCK.UPDATE, of: Job } : undefined,
+    // Lock only the job row; the joined rows are read, not changed. NO KEY UPDATE, not UPDATE: it
+    // still excludes every other writer of the job, but lets inserts that merely reference the job
+    // (history, findings, photos) check their foreign key without queueing behind it.
+    lock: lock && t ? { level: t.LOCK.NO_KEY_UPDATE, of: Job } : undefined,
   });
   if (!job) throw notFound('That job');
   return job as JobRow;
+}
+
+/*
+ * LOCK ORDER — the one order for the whole server (DEVELOPERS.md, "Locks"):
+ *
+ *   1. the job row                (lockJob / lockJobById)
+ *   2. its approval requests      (lockOpenRequests, or one request by id)
+ *   3. its estimate row           (ensureEstimate(..., lock = true), or UPDATE estimates)
+ *   4. lines, findings, photos, checklist items
+ *
+ * Every transaction that writes anything belonging to a job takes the job row first, so two
+ * writers of one job queue at step 1 and never hold anything the other waits for. A transaction
+ * that needs a later step without an earlier one (the decision page marking a request expired)
+ * simply skips it; it must never go back up the list.
+ */
+
+/** Step 1: the job, locked for the rest of the transaction (and checked against the caller's scope). */
+export function lockJob(scope: Scope, id: string, t: Transaction): Promise<JobRow> {
+  return findJob(scope, id, t, true);
+}
+
+/** Step 1 for the owner's decision link, which has no scope: the job of a request, by id. */
+export async function lockJobById(id: string, t: Transaction): Promise<void> {
+  await boundSequelize().query('SELECT id FROM jobs WHERE id = $1 FOR NO KEY UPDATE', { bind: [id], transaction: t });
+}
+
+/**
+ * Step 2: every approval request of the job still waiting for the owner, in id order. A save or a
+ * withdrawal may replace one of them, so it takes them before the estimate, as the decision does.
+ */
+export async function lockOpenRequests(jobId: string, t: Transaction): Promise<void> {
+  await boundSequelize().query(`SELECT id FROM approval_requests WHERE job_id = $1 AND state = 'sent' ORDER BY id FOR UPDATE`, {
+    bind: [jobId],
+    transaction: t,
+  });
 }

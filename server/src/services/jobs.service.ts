@@ -12,8 +12,9 @@ import {
 } from '@wingstage/shared';
 import type { z } from 'zod';
 import type { jobListQuerySchema, jobTransitionSchema, jobUpdateSchema } from '@wingstage/shared';
-import { AppError, forbidden, staleVersion } from '../errors/app-error.js';
-import { Aircraft, AuditEvent, Job, User, boundSequelize } from '../models/index.js';
+import { AppError, forbidden, notFound, staleVersion } from '../errors/app-error.js';
+import { Aircraft, AuditEvent, Customer, Job, User, boundSequelize } from '../models/index.js';
+import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
@@ -112,7 +113,7 @@ async function nextJobNumber(scope: Scope, t: Transaction): Promise<string> {
 
 export async function createJob(scope: Scope, input: JobCreate): Promise<JobDto> {
   requireStaff(scope);
-  const id = await boundSequelize().transaction(async (t) => {
+  const id = await inTransaction(async (t) => {
     const aircraft = await Aircraft.findOne({ where: inWorkshop(scope, { id: input.aircraftId }), transaction: t });
     if (!aircraft) throw new AppError('not_found', 404, 'That aircraft was not found.', { aircraftId: 'That aircraft was not found.' });
     const number = await nextJobNumber(scope, t);
@@ -133,7 +134,7 @@ export async function createJob(scope: Scope, input: JobCreate): Promise<JobDto>
 
 export async function updateJob(scope: Scope, id: string, input: JobUpdate): Promise<JobDto> {
   requireStaff(scope);
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     const job = await findJob(scope, id, t, true);
     if (job.version !== input.version) throw staleVersion();
     const state: JobState = job.state;
@@ -174,7 +175,7 @@ function mayMove(scope: Scope, from: JobState, to: JobState): boolean {
 
 export async function transitionJob(scope: Scope, id: string, input: JobTransition): Promise<JobDto> {
   requireStaff(scope);
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     const job = await findJob(scope, id, t, true);
     if (!mayMove(scope, job.state, input.to)) throw forbidden('Your role cannot make this change to a job.');
     if (job.version !== input.version) throw staleVersion();

@@ -8,6 +8,7 @@ import { ApprovalRequest, Finding, FindingPhoto, User, boundSequelize } from '..
 import type { PhotoStore } from '../storage/index.js';
 import { recordAudit } from './audit.js';
 import type { Deps } from './deps.js';
+import { inTransaction } from '../db/transaction.js';
 import { findJob, type JobRow } from './job-access.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
 
@@ -133,7 +134,8 @@ function assertOpenForPhotos(job: JobRow, f: Finding): void {
 }
 
 async function loadFinding(scope: Scope, jobId: string, findingId: string, t?: Transaction, lock = false): Promise<{ job: JobRow; f: Finding }> {
-  const job = await findJob(scope, jobId, t);
+  // Writing: the job row first, as every write to a job's records does (job-access.ts, lock order).
+  const job = await findJob(scope, jobId, t, lock);
   const f = await Finding.findOne({ where: inWorkshop(scope, { jobId: job.id, id: findingId }), transaction: t, lock: lock && t ? t.LOCK.UPDATE : undefined });
   if (!f) throw notFound('That finding');
   return { job, f };
@@ -194,7 +196,7 @@ export async function addPhotos(deps: Deps, scope: Scope, jobId: string, finding
       await deps.photos.put(r.thumbKey, r.e.thumb, 'image/jpeg');
       stored.push(r.thumbKey);
     }
-    const ids = await boundSequelize().transaction(async (t) => {
+    const ids = await inTransaction(async (t) => {
       // Again under a lock: another upload or a withdrawal may have landed meanwhile.
       const { job, f } = await loadFinding(scope, jobId, findingId, t, true);
       assertOpenForPhotos(job, f);
@@ -244,7 +246,7 @@ export async function addPhotos(deps: Deps, scope: Scope, jobId: string, finding
  */
 export async function removePhoto(scope: Scope, jobId: string, findingId: string, photoId: string): Promise<void> {
   requireStaff(scope);
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     const { job, f } = await loadFinding(scope, jobId, findingId, t, true);
     if (job.state === 'closed' || job.state === 'cancelled') throw conflict(`This job is ${job.state}; its photos can no longer be changed.`);
     const p = await FindingPhoto.findOne({ where: inWorkshop(scope, { id: photoId, jobId: job.id, findingId: f.id, removedAt: null }), transaction: t, lock: t.LOCK.UPDATE });

@@ -3,6 +3,7 @@ import type { TemplateDto, TemplateSummaryDto, templateSaveSchema, templateUpdat
 import type { Transaction } from 'sequelize';
 import { AppError, notFound, staleVersion } from '../errors/app-error.js';
 import { JobTemplate, boundSequelize } from '../models/index.js';
+import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import { assertSuppliers, loadParts } from './catalogue.service.js';
 import { loadWorkshop } from './pricing.js';
@@ -49,7 +50,7 @@ async function checkLines(scope: Scope, input: TemplateSave, t: Transaction): Pr
 
 export async function createTemplate(scope: Scope, input: TemplateSave): Promise<TemplateDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     await checkLines(scope, input, t);
     const row = await JobTemplate.create({ ...input, workshopId: scope.workshopId }, { transaction: t });
     await recordAudit(scope, t, { action: 'template.created', summary: `Added template ${row.name}`, detail: { templateId: row.id } });
@@ -59,7 +60,7 @@ export async function createTemplate(scope: Scope, input: TemplateSave): Promise
 
 export async function updateTemplate(scope: Scope, id: string, input: TemplateUpdate): Promise<TemplateDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const row = await JobTemplate.findOne({ where: inWorkshop(scope, { id }), transaction: t, lock: t.LOCK.UPDATE });
     if (!row) throw notFound('That template');
     if (row.version !== input.version) throw staleVersion();

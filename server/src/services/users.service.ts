@@ -5,6 +5,7 @@ import { AppError, conflict, forbidden, notFound } from '../errors/app-error.js'
 import { newOneTimeToken } from '../lib/session-tokens.js';
 import { invitationMail } from '../mail/templates.js';
 import { Customer, OneTimeToken, User, Workshop, boundSequelize } from '../models/index.js';
+import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import { INVITE_DAYS } from './auth.service.js';
 import type { Deps } from './deps.js';
@@ -58,7 +59,7 @@ async function sendInvitation(deps: Deps, scope: Scope, user: User, t: import('s
 export async function inviteUser(deps: Deps, scope: Scope, input: InvitationCreateInput): Promise<UserDto> {
   if (input.role === 'owner' && scope.role !== 'manager') throw forbidden('Owners are invited by a manager.');
   if (input.role !== 'owner' && scope.role !== 'admin') throw forbidden('Staff are invited by an admin.');
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     let customerId: string | null = null;
     if (input.role === 'owner') {
       const customer = await Customer.findOne({ where: inWorkshop(scope, { id: input.customerId }), transaction: t });
@@ -76,7 +77,7 @@ export async function inviteUser(deps: Deps, scope: Scope, input: InvitationCrea
 }
 
 export async function resendInvitation(deps: Deps, scope: Scope, id: string): Promise<void> {
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     const user = await User.findOne({ where: visibleUsers(scope, { id }), transaction: t, lock: t.LOCK.UPDATE });
     if (!user) throw notFound('That user');
     if (user.passwordHash !== null) throw conflict('This person has already accepted their invitation.');
@@ -87,7 +88,7 @@ export async function resendInvitation(deps: Deps, scope: Scope, id: string): Pr
 }
 
 export async function updateUser(scope: Scope, id: string, input: UserUpdateInput): Promise<UserDto> {
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const user = await User.findOne({ where: visibleUsers(scope, { id }), transaction: t, lock: t.LOCK.UPDATE });
     if (!user) throw notFound('That user');
     if (user.id === scope.userId) {

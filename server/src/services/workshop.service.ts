@@ -1,6 +1,7 @@
 import { workshopSettingsSchema, type WorkshopDto, type WorkshopUpdateInput } from '@wingstage/shared';
 import { notFound, staleVersion } from '../errors/app-error.js';
 import { Workshop, boundSequelize } from '../models/index.js';
+import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import type { Scope } from './scope.js';
 
@@ -26,7 +27,7 @@ export async function getWorkshop(scope: Scope): Promise<WorkshopDto> {
 }
 
 export async function updateWorkshop(scope: Scope, input: WorkshopUpdateInput): Promise<WorkshopDto> {
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const w = await Workshop.findByPk(scope.workshopId, { transaction: t, lock: t.LOCK.UPDATE });
     if (!w) throw notFound('The workshop');
     if (w.version !== input.version) throw staleVersion();

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { decimalString, idSchema, optionalText, patchOf } from './common.js';
+import { decimalString, idSchema, optionalText, patchOf, safeString } from './common.js';
 
 /** Registrations are stored upper-case; letters, digits and one or more hyphens. */
 export const registrationSchema = z
@@ -11,7 +11,7 @@ export const registrationSchema = z
 export const aircraftCreateSchema = z.object({
   customerId: idSchema,
   registration: registrationSchema,
-  type: z.string().trim().min(1, { message: 'Type is required.' }).max(120),
+  type: safeString('Type').trim().min(1, { message: 'Type is required.' }).max(120),
   serial: optionalText(60, 'Serial'),
   airframeHours: decimalString(1, 'Airframe hours').default('0'),
   engine: optionalText(160, 'Engine'),

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { decimalString, idSchema, optionalText } from './common.js';
+import { decimalString, idSchema, optionalText, safeString } from './common.js';
 import type { FindingCategory } from './findings.js';
 import type { ChecklistLimit } from './templates.js';
 import type { SnapshotPhoto } from './photos.js';
@@ -183,7 +183,7 @@ export const decisionSubmitSchema = z.object({
     )
     .min(1)
     .max(50),
-  typedName: z.string().trim().min(2, { message: 'Type your name to confirm.' }).max(120),
+  typedName: safeString('Your name').trim().min(2, { message: 'Type your name to confirm.' }).max(120),
 });
 export type DecisionSubmitInput = z.input<typeof decisionSubmitSchema>;
 

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { emailSchema } from './common.js';
+import { emailSchema, safeString } from './common.js';
 
 /**
  * OWASP Password Storage Cheat Sheet: bcrypt truncates input at 72 bytes, so longer passwords
@@ -8,8 +8,7 @@ import { emailSchema } from './common.js';
  */
 export const PASSWORD_MIN = 10;
 export const PASSWORD_MAX_BYTES = 72;
-export const passwordSchema = z
-  .string()
+export const passwordSchema = safeString('Password')
   .min(PASSWORD_MIN, { message: `Use at least ${PASSWORD_MIN} characters.` })
   .refine((p) => new TextEncoder().encode(p).length <= PASSWORD_MAX_BYTES, {
     message: `Use at most ${PASSWORD_MAX_BYTES} bytes (about ${PASSWORD_MAX_BYTES} plain letters).`,
@@ -17,7 +16,7 @@ export const passwordSchema = z
 
 export const signInSchema = z.object({
   email: emailSchema,
-  password: z.string().min(1, { message: 'Enter your password.' }).max(200),
+  password: safeString('Password').min(1, { message: 'Enter your password.' }).max(200),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
 
@@ -30,7 +29,7 @@ export const passwordResetCompleteSchema = z
   .object({
     token: tokenSchema,
     password: passwordSchema,
-    confirmPassword: z.string(),
+    confirmPassword: safeString('Repeated password'),
   })
   .refine((v) => v.password === v.confirmPassword, { path: ['confirmPassword'], message: 'The passwords do not match.' });
 export type PasswordResetCompleteInput = z.infer<typeof passwordResetCompleteSchema>;
@@ -38,9 +37,9 @@ export type PasswordResetCompleteInput = z.infer<typeof passwordResetCompleteSch
 export const invitationAcceptSchema = z
   .object({
     token: tokenSchema,
-    name: z.string().trim().min(1, { message: 'Your name is required.' }).max(120),
+    name: safeString('Your name').trim().min(1, { message: 'Your name is required.' }).max(120),
     password: passwordSchema,
-    confirmPassword: z.string(),
+    confirmPassword: safeString('Repeated password'),
   })
   .refine((v) => v.password === v.confirmPassword, { path: ['confirmPassword'], message: 'The passwords do not match.' });
 export type InvitationAcceptInput = z.infer<typeof invitationAcceptSchema>;

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { VAT_RATE_CODES } from '../pricing/types.js';
-import { decimalString, idSchema, optionalText } from './common.js';
+import { decimalString, idSchema, optionalText, safeString } from './common.js';
 
 /** What a supplier does for the workshop; sub-contract lines name a supplier. */
 export const SUPPLIER_KINDS = ['parts', 'sail_loft', 'propeller_shop', 'engine_shop', 'other'] as const;
@@ -14,7 +14,7 @@ export const SUPPLIER_KIND_LABELS: Record<SupplierKind, string> = {
 };
 
 export const supplierCreateSchema = z.object({
-  name: z.string().trim().min(1, { message: 'Name is required.' }).max(160),
+  name: safeString('Name').trim().min(1, { message: 'Name is required.' }).max(160),
   kind: z.enum(SUPPLIER_KINDS),
   email: z.union([z.literal(''), z.email({ message: 'Enter a valid e-mail address.' })]).optional().default(''),
   phone: optionalText(40, 'Phone'),
@@ -42,8 +42,8 @@ export interface SupplierDto {
  */
 export const partCreateSchema = z
   .object({
-    partNumber: z.string().trim().min(1, { message: 'Part number is required.' }).max(60),
-    description: z.string().trim().min(1, { message: 'Description is required.' }).max(300),
+    partNumber: safeString('Part number').trim().min(1, { message: 'Part number is required.' }).max(60),
+    description: safeString('Description').trim().min(1, { message: 'Description is required.' }).max(300),
     unitCost: decimalString(4, 'Unit cost'),
     unitPrice: decimalString(2, 'Sell price').nullable().optional().default(null),
     markupPercent: decimalString(2, 'Mark-up').nullable().optional().default(null),
@@ -58,8 +58,8 @@ export const partCreateSchema = z
 export type PartCreateInput = z.input<typeof partCreateSchema>;
 export const partUpdateSchema = z.object({
   version: z.number().int().min(0),
-  partNumber: z.string().trim().min(1).max(60).optional(),
-  description: z.string().trim().min(1).max(300).optional(),
+  partNumber: safeString('Part number').trim().min(1).max(60).optional(),
+  description: safeString('Description').trim().min(1).max(300).optional(),
   unitCost: decimalString(4, 'Unit cost').optional(),
   unitPrice: decimalString(2, 'Sell price').nullable().optional(),
   markupPercent: decimalString(2, 'Mark-up').nullable().optional(),

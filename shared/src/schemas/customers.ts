@@ -1,11 +1,11 @@
 import { z } from 'zod';
-import { emailSchema, optionalText, patchOf } from './common.js';
+import { emailSchema, optionalText, patchOf, safeString } from './common.js';
 
 export const CUSTOMER_KINDS = ['private', 'group'] as const;
 export const CUSTOMER_KIND_LABELS = { private: 'Private owner', group: 'Flying group' } as const;
 
 export const customerCreateSchema = z.object({
-  name: z.string().trim().min(1, { message: 'Name is required.' }).max(160),
+  name: safeString('Name').trim().min(1, { message: 'Name is required.' }).max(160),
   kind: z.enum(CUSTOMER_KINDS).default('private'),
   email: emailSchema,
   phone: z

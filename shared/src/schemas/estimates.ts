@@ -1,6 +1,6 @@
 import Decimal from 'decimal.js';
 import { z } from 'zod';
-import { decimalString, idSchema } from './common.js';
+import { decimalString, idSchema, safeString, shortText } from './common.js';
 import {
   ESTIMATE_STAGES,
   LINE_KINDS,
@@ -27,9 +27,9 @@ export const estimateLineSchema = z
     id: idSchema,
     stage: z.enum(['inspection', 'discovered']),
     kind: z.enum(LINE_KINDS),
-    description: z.string().trim().min(1, { message: 'Describe the line.' }).max(300),
+    description: safeString('Description').trim().min(1, { message: 'Describe the line.' }).max(300),
     quantity: decimalString(2, 'Quantity').default('1'),
-    labourRateCode: z.string().trim().max(20).nullable().default(null),
+    labourRateCode: shortText(20, 'Labour rate').nullable().default(null),
     ratePerHour: decimalString(2, 'Rate').nullable().default(null),
     partId: idSchema.nullable().default(null),
     supplierId: idSchema.nullable().default(null),
@@ -40,7 +40,11 @@ export const estimateLineSchema = z
     vatRate: z.enum(VAT_RATE_CODES).default('standard'),
     findingId: idSchema.nullable().default(null),
     accessTaskId: idSchema.nullable().default(null),
-    discountPercent: decimalString(2, 'Discount').nullable().default(null),
+    // Read as a number only after the format check passed (decimalString aborts on a bad format).
+    discountPercent: decimalString(2, 'Discount')
+      .refine((v) => new Decimal(v).lte(100), { message: 'A discount cannot be more than 100%.' })
+      .nullable()
+      .default(null),
   })
   .superRefine((l, ctx) => {
     const need = (field: keyof typeof l, message: string) => {
@@ -50,18 +54,15 @@ export const estimateLineSchema = z
     if (l.kind === 'part' && l.unitPrice === null) need('unitCost', 'Give the unit cost or a fixed sell price.');
     if (l.kind === 'subcontract') need('amount', "Give the supplier's cost.");
     if (l.kind === 'fee') need('amount', 'Give the fee.');
-    if (l.discountPercent !== null && new Decimal(l.discountPercent).gt(100)) {
-      ctx.addIssue({ code: 'custom', path: ['discountPercent'], message: 'A discount cannot be more than 100%.' });
-    }
   });
 export type EstimateLineInputForm = z.input<typeof estimateLineSchema>;
 export type EstimateLineSave = z.output<typeof estimateLineSchema>;
 
 export const accessTaskSchema = z.object({
   id: idSchema,
-  name: z.string().trim().min(1, { message: 'Name the access task.' }).max(120),
+  name: safeString('Access task').trim().min(1, { message: 'Name the access task.' }).max(120),
   hours: decimalString(2, 'Hours'),
-  labourRateCode: z.string().trim().max(20).nullable().default(null),
+  labourRateCode: shortText(20, 'Labour rate').nullable().default(null),
   ratePerHour: decimalString(2, 'Rate'),
   vatRate: z.enum(VAT_RATE_CODES).default('standard'),
 });
@@ -79,7 +80,11 @@ export const estimateSaveSchema = z
     accessTasks: z.array(accessTaskSchema).max(100).default([]),
   })
   .superRefine((v, ctx) => {
-    const tasks = new Set(v.accessTasks.map((t) => t.id));
+    const tasks = new Set<string>();
+    v.accessTasks.forEach((t, i) => {
+      if (tasks.has(t.id)) ctx.addIssue({ code: 'custom', path: ['accessTasks', i, 'id'], message: 'Each access task needs its own id; this one is listed twice.' });
+      tasks.add(t.id);
+    });
     const seen = new Set<string>();
     v.lines.forEach((l, i) => {
       if (seen.has(l.id)) ctx.addIssue({ code: 'custom', path: ['lines', i, 'id'], message: 'Each line needs its own id.' });

@@ -1,6 +1,6 @@
 import Decimal from 'decimal.js';
 import { z } from 'zod';
-import { decimalString, idSchema, isoDate, optionalText } from './common.js';
+import { decimalString, idSchema, isoDate, optionalText, safeString, shortText } from './common.js';
 import type { ChecklistLimit } from './templates.js';
 import type { FindingPhotoDto } from './photos.js';
 
@@ -33,18 +33,18 @@ export const remedyPartSchema = z.object({
 export const remedySchema = z.object({
   description: optionalText(1000, 'Remedy'),
   hours: decimalString(2, 'Hours').nullable().default(null),
-  labourRateCode: z.string().trim().max(20).nullable().default(null),
+  labourRateCode: shortText(20, 'Labour rate').nullable().default(null),
   parts: z.array(remedyPartSchema).max(30).default([]),
   /** The opening-up work this remedy needs, by name (e.g. "Gearbox off"); shared with other remedies. */
-  accessTask: z.string().trim().max(120).nullable().default(null),
+  accessTask: shortText(120, 'Access task').nullable().default(null),
 });
 export type RemedyInput = z.input<typeof remedySchema>;
 
 export const findingCreateSchema = z.object({
-  title: z.string().trim().min(1, { message: 'Give the finding a short title.' }).max(160),
-  location: z.string().trim().min(1, { message: 'Say where on the aircraft.' }).max(160),
+  title: safeString('Title').trim().min(1, { message: 'Give the finding a short title.' }).max(160),
+  location: safeString('Where on the aircraft').trim().min(1, { message: 'Say where on the aircraft.' }).max(160),
   category: z.enum(FINDING_CATEGORIES, { message: 'Choose airworthiness, recommended or advisory.' }),
-  seen: z.string().trim().min(1, { message: 'Say what was seen.' }).max(4000),
+  seen: safeString('What was seen').trim().min(1, { message: 'Say what was seen.' }).max(4000),
   checklistItemId: idSchema.nullable().optional().default(null),
   measuredValue: measuredValueSchema.nullable().optional().default(null),
   remedy: remedySchema.default({ description: '', hours: null, labourRateCode: null, parts: [], accessTask: null }),
@@ -53,17 +53,17 @@ export type FindingCreateInput = z.input<typeof findingCreateSchema>;
 
 export const findingUpdateSchema = z.object({
   version: z.number().int().min(0),
-  title: z.string().trim().min(1).max(160).optional(),
-  location: z.string().trim().min(1).max(160).optional(),
+  title: safeString('Title').trim().min(1).max(160).optional(),
+  location: safeString('Where on the aircraft').trim().min(1).max(160).optional(),
   category: z.enum(FINDING_CATEGORIES).optional(),
-  seen: z.string().trim().min(1).max(4000).optional(),
+  seen: safeString('What was seen').trim().min(1).max(4000).optional(),
   remedy: remedySchema.optional(),
 });
 export type FindingUpdateInput = z.input<typeof findingUpdateSchema>;
 
 export const findingActionSchema = z.object({
   version: z.number().int().min(0),
-  reason: z.string().trim().max(500).optional().default(''),
+  reason: shortText(500, 'Reason').optional().default(''),
 });
 export type FindingActionInput = z.input<typeof findingActionSchema>;
 

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { JOB_STATES, type JobState } from '../states.js';
-import { idSchema, isoDate, listQuerySchema, optionalText } from './common.js';
+import { idSchema, isoDate, listQuerySchema, optionalText, safeString, shortText } from './common.js';
 
 /** Kinds of visit. Templates with scope and checklist arrive with the estimates work. */
 export const JOB_TYPES = [
@@ -26,7 +26,7 @@ export const JOB_TYPE_LABELS: Record<JobType, string> = {
 export const jobCreateSchema = z
   .object({
     aircraftId: idSchema,
-    title: z.string().trim().min(1, { message: 'Title is required.' }).max(160),
+    title: safeString('Title').trim().min(1, { message: 'Title is required.' }).max(160),
     type: z.enum(JOB_TYPES),
     bookedInOn: isoDate,
     dueOn: isoDate.optional().nullable().default(null),
@@ -40,11 +40,11 @@ export type JobCreate = z.output<typeof jobCreateSchema>;
 
 export const jobUpdateSchema = z.object({
   version: z.number().int().min(0),
-  title: z.string().trim().min(1, { message: 'Title is required.' }).max(160).optional(),
+  title: safeString('Title').trim().min(1, { message: 'Title is required.' }).max(160).optional(),
   type: z.enum(JOB_TYPES).optional(),
   bookedInOn: isoDate.optional(),
   dueOn: isoDate.nullable().optional(),
-  notes: z.string().trim().max(4000).optional(),
+  notes: shortText(4000, 'Notes').optional(),
 });
 export type JobUpdateInput = z.input<typeof jobUpdateSchema>;
 
@@ -52,7 +52,7 @@ export const jobTransitionSchema = z
   .object({
     to: z.enum(JOB_STATES),
     version: z.number().int().min(0),
-    reason: z.string().trim().max(500).optional().default(''),
+    reason: shortText(500, 'Reason').optional().default(''),
   })
   .refine((v) => v.to !== 'cancelled' || v.reason !== '', { path: ['reason'], message: 'Say why the job is cancelled.' });
 export type JobTransitionInput = z.input<typeof jobTransitionSchema>;

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { JOB_TYPES, type JobType } from './jobs.js';
-import { decimalString, idSchema, optionalText } from './common.js';
+import { decimalString, idSchema, optionalText, safeString, shortText } from './common.js';
 import { LINE_KINDS, VAT_RATE_CODES, type LineKind, type VatRateCode } from '../pricing/types.js';
 
 /** Units a checklist limit may be measured in (SI where the trade uses it). */
@@ -22,8 +22,8 @@ export const checklistLimitSchema = z
 export type ChecklistLimit = z.output<typeof checklistLimitSchema>;
 
 export const templateChecklistItemSchema = z.object({
-  section: z.string().trim().max(80).default(''),
-  text: z.string().trim().min(1, { message: 'Say what to check.' }).max(300),
+  section: shortText(80, 'Section').default(''),
+  text: safeString('Check').trim().min(1, { message: 'Say what to check.' }).max(300),
   limit: checklistLimitSchema.nullable().default(null),
 });
 
@@ -33,10 +33,10 @@ export const templateChecklistItemSchema = z.object({
  */
 export const templateLineSchema = z.object({
   kind: z.enum(LINE_KINDS),
-  description: z.string().trim().min(1, { message: 'Describe the line.' }).max(300),
+  description: safeString('Description').trim().min(1, { message: 'Describe the line.' }).max(300),
   /** labour: hours; part: quantity; fee/subcontract: 1. */
   quantity: decimalString(2, 'Quantity').default('1'),
-  labourRateCode: z.string().trim().max(20).nullable().default(null),
+  labourRateCode: shortText(20, 'Labour rate').nullable().default(null),
   partId: idSchema.nullable().default(null),
   supplierId: idSchema.nullable().default(null),
   /** fee: the amount; subcontract: the supplier's cost; part without partId: unit cost. */
@@ -45,7 +45,7 @@ export const templateLineSchema = z.object({
 });
 
 export const templateSaveSchema = z.object({
-  name: z.string().trim().min(1, { message: 'Name is required.' }).max(160),
+  name: safeString('Name').trim().min(1, { message: 'Name is required.' }).max(160),
   jobType: z.enum(JOB_TYPES),
   description: optionalText(2000, 'Description'),
   lines: z.array(templateLineSchema).max(200),

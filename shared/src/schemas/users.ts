@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { ROLES, STAFF_ROLES, type Role } from '../roles.js';
-import { emailSchema, idSchema, listQuerySchema } from './common.js';
+import { emailSchema, idSchema, listQuerySchema, safeString } from './common.js';
 
 export interface UserDto {
   id: string;
@@ -27,12 +27,12 @@ export const invitationCreateSchema = z.discriminatedUnion('role', [
   z.object({
     role: z.enum(STAFF_ROLES),
     email: emailSchema,
-    name: z.string().trim().min(1, { message: 'Name is required.' }).max(120),
+    name: safeString('Name').trim().min(1, { message: 'Name is required.' }).max(120),
   }),
   z.object({
     role: z.literal('owner'),
     email: emailSchema,
-    name: z.string().trim().min(1, { message: 'Name is required.' }).max(120),
+    name: safeString('Name').trim().min(1, { message: 'Name is required.' }).max(120),
     customerId: idSchema,
   }),
 ]);
@@ -50,7 +50,7 @@ export const userUpdateSchema = z
   .object({
     role: z.enum(ROLES).optional(),
     active: z.boolean().optional(),
-    name: z.string().trim().min(1).max(120).optional(),
+    name: safeString('Name').trim().min(1).max(120).optional(),
   })
   .refine((v) => Object.keys(v).length > 0, { message: 'Nothing to change.' });
 export type UserUpdateInput = z.infer<typeof userUpdateSchema>;

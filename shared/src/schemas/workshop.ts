@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { decimalString, patchOf } from './common.js';
+import { decimalString, patchOf, safeString, shortText } from './common.js';
 
 export const VAT_ROUNDING_METHODS = ['invoice-down', 'invoice-nearest', 'line-nearest', 'line-down-tenth'] as const;
 
@@ -11,8 +11,8 @@ export const vatNumberSchema = z
   .regex(/^(GB)?\d{9}(\d{3})?$/, { message: 'Use a VAT number like GB123456789.' });
 
 export const labourRateSchema = z.object({
-  code: z.string().trim().min(1).max(20).regex(/^[a-z0-9-]+$/, { message: 'Use lower-case letters, digits and -.' }),
-  name: z.string().trim().min(1).max(60),
+  code: safeString('Code').trim().min(1).max(20).regex(/^[a-z0-9-]+$/, { message: 'Use lower-case letters, digits and -.' }),
+  name: safeString('Name').trim().min(1).max(60),
   ratePerHour: decimalString(2, 'Rate'),
 });
 
@@ -26,9 +26,9 @@ export const workshopSettingsSchema = z.object({
 
 export const workshopUpdateSchema = z.object({
   version: z.number().int().min(0),
-  name: z.string().trim().min(1).max(160).optional(),
-  addressLines: z.string().trim().max(300).optional(),
-  postcode: z.string().trim().max(16).optional(),
+  name: safeString('Name').trim().min(1).max(160).optional(),
+  addressLines: shortText(300, 'Address').optional(),
+  postcode: shortText(16, 'Postcode').optional(),
   vatNumber: vatNumberSchema.optional(),
   labourRates: z.array(labourRateSchema).min(1).max(20).optional(),
   settings: patchOf(workshopSettingsSchema).optional(),

@@ -133,7 +133,7 @@ export async function submitDecision(deps: Deps, token: string, input: DecisionI
       return { refused: supersededReason(req, old.newestAt), page: null };
     }
     // The job first, as every staff change does; then the request row, which serialises two submissions.
-    await Job.findOne({ where: { id: peek.jobId }, transaction: t, lock: t.LOCK.UPDATE });
+    await lockJobById(peek.jobId, t);
     const r = await byToken(token, t, true);
     if (!r) throw unknownLink();
     await expireIfDue(r, new Date(), t);
