@@ -97,7 +97,7 @@ export const DEMO_JOBS: DemoJob[] = [
   },
   {
     aircraft: 'Q-BRKE', title: '200-hour engine service', type: 'engine_service_200h', bookedDaysAgo: 55, dueInDays: null, notes: '',
-    path: [{ to: 'cancelled', by: 'declan', reason: 'Owner moved the service to the spring lay-up.' }],
+    path: [{ to: 'cancelled', by: 'declan', reason: 'Owner asked to move the service to the spring, after the winter lay-up.' }],
   },
   {
     aircraft: 'Q-MRLW', title: 'Exhaust spring replacement', type: 'repair', bookedDaysAgo: 30, dueInDays: null,

@@ -38,6 +38,7 @@ function toDto(j: JobRow): JobDto {
     bookedInOn: j.bookedInOn,
     dueOn: j.dueOn,
     notes: j.notes,
+    scopeCautions: j.scopeCautions ?? [],
     version: j.version,
     createdAt: j.createdAt.toISOString(),
     updatedAt: j.updatedAt.toISOString(),

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { decimalString, patchOf } from './common.js';
+import { TEXT_MAX, decimalString, patchOf } from './common.js';
 
 export const VAT_ROUNDING_METHODS = ['invoice-down', 'invoice-nearest', 'line-nearest', 'line-down-tenth'] as const;
 
@@ -27,7 +27,7 @@ export const workshopSettingsSchema = z.object({
 export const workshopUpdateSchema = z.object({
   version: z.number().int().min(0),
   name: z.string().trim().min(1).max(160).optional(),
-  addressLines: z.string().trim().max(300).optional(),
+  addressLines: z.string().trim().max(TEXT_MAX.address, { message: `Keep the address to ${TEXT_MAX.address} characters or fewer.` }).optional(),
   postcode: z.string().trim().max(16).optional(),
   vatNumber: vatNumberSchema.optional(),
   labourRates: z.array(labourRateSchema).min(1).max(20).optional(),

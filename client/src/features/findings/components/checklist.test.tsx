@@ -9,6 +9,7 @@ const item: JobChecklistItemDto = {
   section: 'Engine',
   text: 'Spark plug electrode gap, each plug',
   limit: { min: '0.6', max: '0.9', unit: 'mm', source: 'Example only' },
+  caution: '',
   result: 'measured',
   measuredValue: '0.9700',
   limitCheck: 'above',

@@ -33,6 +33,7 @@ const job = (id: string, aircraftId: string, title: string, state: JobDto['state
   bookedInOn: '2026-11-30',
   dueOn: null,
   notes: '',
+  scopeCautions: [],
   version: 0,
   createdAt: '',
   updatedAt: '',

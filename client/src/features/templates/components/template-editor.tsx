@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import {
+import { TEXT_MAX,
   JOB_TYPES,
   JOB_TYPE_LABELS,
   LIMIT_UNITS,
@@ -101,7 +101,7 @@ export function TemplateEditor({
           ))}
         </SelectField>
       </div>
-      <TextAreaField label={LABELS.description} rows={2} error={e.description?.message} {...register('description')} />
+      <TextAreaField label={LABELS.description} rows={2} maxChars={TEXT_MAX.templateDescription} error={e.description?.message} {...register('description')} />
       <label className="flex min-h-11 items-center gap-2">
         <input type="checkbox" className="size-5" {...register('active')} />
         Offered when booking in

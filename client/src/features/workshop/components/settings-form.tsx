@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { VAT_ROUNDING_METHODS, workshopUpdateSchema, type WorkshopDto } from '@wingstage/shared';
+import { TEXT_MAX, VAT_ROUNDING_METHODS, workshopUpdateSchema, type WorkshopDto } from '@wingstage/shared';
 import { useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import type { z } from 'zod';
@@ -84,7 +84,7 @@ export function SettingsForm({ workshop }: { workshop: WorkshopDto }) {
       <Card title="The workshop">
         <div className="flex flex-col gap-4">
           <TextField label={LABELS.name!} required error={e.name?.message} {...register('name')} />
-          <TextAreaField label={LABELS.addressLines!} rows={3} error={e.addressLines?.message} {...register('addressLines')} />
+          <TextAreaField label={LABELS.addressLines!} rows={3} maxChars={TEXT_MAX.address} error={e.addressLines?.message} {...register('addressLines')} />
           <div className="grid items-end gap-4 sm:grid-cols-2">
             <TextField label={LABELS.postcode!} error={e.postcode?.message} {...register('postcode')} />
             <TextField label={LABELS.vatNumber!} hint="Printed on every VAT invoice." error={e.vatNumber?.message} {...register('vatNumber')} />
