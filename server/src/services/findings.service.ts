@@ -412,6 +412,8 @@ export async function updateTime(scope: Scope, jobId: string, timeId: string, in
     if (before.findingId !== after.findingId) changes.push(number ? `now on ${number}` : 'no longer on a finding');
     if (before.note !== after.note) changes.push('note changed');
     await log.update(after, { transaction: t });
+    // Read back so the figures come as the database keeps them ("1.50"), like every other read.
+    await log.reload({ include: [{ model: User, as: 'user', required: false, attributes: ['name'] }], transaction: t });
     await recordAudit(scope, t, {
       jobId: job.id,
       action: 'time.changed',
