@@ -35,12 +35,12 @@ const STATE_ICON: Record<FindingState, Icon> = {
   withdrawn: SlashCircleIcon,
 };
 
-export function FindingStateBadge({ state }: { state: FindingState }) {
+export function FindingStateBadge({ state, words = FINDING_STATE_LABELS }: { state: FindingState; words?: Record<FindingState, string> }) {
   const Icon = STATE_ICON[state];
   return (
     <span data-finding-state={state} className="inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border border-seam-strong bg-cloth-raised px-2.5 py-0.5 text-sm">
       <Icon size={15} />
-      {FINDING_STATE_LABELS[state]}
+      {words[state]}
     </span>
   );
 }
