@@ -84,7 +84,7 @@ export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<s
   const brke = jobs.find((j) => j.registration === 'Q-BRKE' && j.job.title === '100-hour engine service');
   if (brke) {
     await agreeByPhone(brke, new Date(now.getTime() - 5 * day));
-    const { findings } = await make(brke, ['priced'], new Date(now.getTime() - day), 'We found these during the 100-hour service. The plugs and the hose can share the exhaust access work.');
+    const { findings } = await make(brke, ['priced'], new Date(now.getTime() - day), 'We found these during the 100-hour service. The exhaust gasket and the coolant hose can share the exhaust access work, so that opening-up is charged once.');
     await Finding.update({ state: 'sent' }, { where: { id: findings.map((f) => f.id) }, transaction: t });
   }
 

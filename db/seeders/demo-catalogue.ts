@@ -62,6 +62,7 @@ export interface DemoTemplateLine {
   part?: string;
   supplier?: string;
   amount?: string;
+  caution?: string;
 }
 
 export interface DemoTemplate {
@@ -70,10 +71,28 @@ export interface DemoTemplate {
   jobType: JobType;
   description: string;
   lines: DemoTemplateLine[];
-  checklist: { section: string; text: string; limit?: ChecklistLimit }[];
+  checklist: { section: string; text: string; limit?: ChecklistLimit; caution?: string }[];
 }
 
-const PLUG_CHECK = { section: 'Engine', text: 'Spark plug electrode gap, each plug', limit: PLUG_GAP_LIMIT };
+/*
+ * Cautions on the demo templates. They are common workshop practice for these tasks, written for
+ * the demo: they are not taken from any manufacturer's manual, and a workshop replaces them with
+ * its own procedures and the manufacturer's current data.
+ */
+const CAUTION = {
+  propellerLive:
+    'Treat the propeller as live: ignition off, plug leads removed and nobody at the controls before anyone turns the propeller. Stand clear of its arc.',
+  compression:
+    'Treat the propeller as live: ignition off and plug leads removed before turning the engine. Air pressure in the cylinder can turn the propeller, so hold it and keep clear of its arc.',
+  engineRun:
+    'Engine run: wheels chocked and the aircraft tied down, the propeller arc and the area behind it clear, a competent person at the controls, hearing protection on.',
+  fuel: 'Fuel: no ignition sources near (no smoking, no naked lights, no sparks), electrics off, fuel caught in a proper container, space ventilated, extinguisher to hand.',
+  hotEngine: 'Let the engine cool first: hot oil, coolant and exhaust burn. Open a coolant cap only when cold.',
+  plugs: 'Ignition off before the plug leads come off; with a plug out the engine can still kick if the propeller is turned.',
+  wingHandling: 'Two people to lift the wing; support it on padded trestles so the structure is not bent while stripped.',
+} as const;
+
+const PLUG_CHECK = { section: 'Engine', text: 'Spark plug electrode gap, each plug', limit: PLUG_GAP_LIMIT, caution: CAUTION.plugs };
 
 export const DEMO_TEMPLATES: DemoTemplate[] = [
   {
@@ -82,7 +101,7 @@ export const DEMO_TEMPLATES: DemoTemplate[] = [
     jobType: 'annual_permit_inspection',
     description: 'The yearly inspection for the permit renewal: airframe, engine, controls and paperwork.',
     lines: [
-      { kind: 'labour', description: 'Annual inspection: airframe, engine, controls and records', quantity: '6', labourRateCode: 'standard' },
+      { kind: 'labour', description: 'Annual inspection: airframe, engine, controls and records', quantity: '6', labourRateCode: 'standard', caution: CAUTION.propellerLive },
       { kind: 'part', description: 'Oil filter', quantity: '1', part: 'oilFilter' },
       { kind: 'part', description: 'Engine oil', quantity: '3', part: 'oil' },
       { kind: 'fee', description: 'Permit paperwork and logbook entries', quantity: '1', amount: '45.00' },
@@ -93,8 +112,8 @@ export const DEMO_TEMPLATES: DemoTemplate[] = [
       { section: 'Controls', text: 'Control cables: tension, routing, end fittings and locking' },
       { section: 'Controls', text: 'Full and free movement, correct sense' },
       PLUG_CHECK,
-      { section: 'Engine', text: 'Coolant hoses and clamps' },
-      { section: 'Engine', text: 'Exhaust flanges, springs and mounts' },
+      { section: 'Engine', text: 'Coolant hoses and clamps', caution: CAUTION.hotEngine },
+      { section: 'Engine', text: 'Exhaust flanges, springs and mounts', caution: CAUTION.hotEngine },
       { section: 'Records', text: 'Logbooks and modification record up to date' },
     ],
   },
@@ -104,17 +123,17 @@ export const DEMO_TEMPLATES: DemoTemplate[] = [
     jobType: 'engine_service_100h',
     description: 'Oil and filter, inspection of the ignition, cooling, fuel and exhaust systems.',
     lines: [
-      { kind: 'labour', description: '100-hour engine service', quantity: '3', labourRateCode: 'standard' },
+      { kind: 'labour', description: '100-hour engine service', quantity: '3', labourRateCode: 'standard', caution: CAUTION.engineRun },
       { kind: 'part', description: 'Oil filter', quantity: '1', part: 'oilFilter' },
       { kind: 'part', description: 'Engine oil', quantity: '3', part: 'oil' },
     ],
     checklist: [
-      { section: 'Engine', text: 'Oil filter element cut open: no metal' },
+      { section: 'Engine', text: 'Oil filter element cut open: no metal', caution: CAUTION.hotEngine },
       PLUG_CHECK,
-      { section: 'Engine', text: 'Carburettor balance and idle' },
-      { section: 'Engine', text: 'Coolant hoses and clamps' },
-      { section: 'Engine', text: 'Exhaust flanges, springs and mounts' },
-      { section: 'Engine', text: 'Fuel hoses: age, chafe and clamps' },
+      { section: 'Engine', text: 'Carburettor balance and idle (engine run)', caution: CAUTION.engineRun },
+      { section: 'Engine', text: 'Coolant hoses and clamps', caution: CAUTION.hotEngine },
+      { section: 'Engine', text: 'Exhaust flanges, springs and mounts', caution: CAUTION.hotEngine },
+      { section: 'Engine', text: 'Fuel hoses: age, chafe and clamps', caution: CAUTION.fuel },
     ],
   },
   {
@@ -123,17 +142,17 @@ export const DEMO_TEMPLATES: DemoTemplate[] = [
     jobType: 'engine_service_200h',
     description: 'The 100-hour work plus new plugs, air filter and a gearbox check.',
     lines: [
-      { kind: 'labour', description: '200-hour engine service', quantity: '5', labourRateCode: 'standard' },
+      { kind: 'labour', description: '200-hour engine service', quantity: '5', labourRateCode: 'standard', caution: CAUTION.engineRun },
       { kind: 'part', description: 'Oil filter', quantity: '1', part: 'oilFilter' },
       { kind: 'part', description: 'Engine oil', quantity: '3', part: 'oil' },
       { kind: 'part', description: 'Spark plugs', quantity: '4', part: 'plug' },
       { kind: 'part', description: 'Air filter element', quantity: '1', part: 'airFilter' },
     ],
     checklist: [
-      { section: 'Engine', text: 'Oil filter element cut open: no metal' },
+      { section: 'Engine', text: 'Oil filter element cut open: no metal', caution: CAUTION.hotEngine },
       PLUG_CHECK,
-      { section: 'Engine', text: 'Compression, each cylinder' },
-      { section: 'Engine', text: 'Coolant hoses and clamps' },
+      { section: 'Engine', text: 'Compression, each cylinder', caution: CAUTION.compression },
+      { section: 'Engine', text: 'Coolant hoses and clamps', caution: CAUTION.hotEngine },
       { section: 'Gearbox', text: 'Drive-gear nut torque', limit: DRIVE_GEAR_NUT_LIMIT },
     ],
   },
@@ -143,7 +162,7 @@ export const DEMO_TEMPLATES: DemoTemplate[] = [
     jobType: 'wing_strip_recover',
     description: 'Strip the wing covering, inspect the structure, re-cover through the sail loft and refit.',
     lines: [
-      { kind: 'labour', description: 'Strip covering, inspect structure, refit', quantity: '14', labourRateCode: 'sailcloth' },
+      { kind: 'labour', description: 'Strip covering, inspect structure, refit', quantity: '14', labourRateCode: 'sailcloth', caution: CAUTION.wingHandling },
       { kind: 'subcontract', description: 'Re-cover wing in new polyester cloth', quantity: '1', supplier: 'loft', amount: '680.00' },
       { kind: 'fee', description: 'Transport to and from the sail loft', quantity: '1', amount: '60.00' },
     ],
@@ -165,9 +184,9 @@ export const DEMO_TEMPLATES: DemoTemplate[] = [
       { kind: 'part', description: 'Locking wire', quantity: '1', part: 'wire' },
     ],
     checklist: [
-      { section: 'Gearbox', text: 'Magnetic drain plug: no metal' },
-      { section: 'Gearbox', text: 'Drive-gear nut torque', limit: DRIVE_GEAR_NUT_LIMIT },
-      { section: 'Gearbox', text: 'Backlash at the propeller flange' },
+      { section: 'Gearbox', text: 'Magnetic drain plug: no metal', caution: CAUTION.hotEngine },
+      { section: 'Gearbox', text: 'Drive-gear nut torque', limit: DRIVE_GEAR_NUT_LIMIT, caution: CAUTION.propellerLive },
+      { section: 'Gearbox', text: 'Backlash at the propeller flange', caution: CAUTION.propellerLive },
     ],
   },
 ];

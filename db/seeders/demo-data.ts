@@ -17,7 +17,16 @@ export const DEMO_WORKSHOP = {
     { code: 'standard', name: 'Workshop labour', ratePerHour: '62.00' },
     { code: 'sailcloth', name: 'Sail and fabric work', ratePerHour: '70.00' },
   ],
-  settings: { vatRounding: 'invoice-nearest', partsMarkupPercent: '20', subcontractMarkupPercent: '10', approvalLinkDays: 14, chaseAfterHours: 48 },
+  // 01632 960xxx is a range set aside for drama and examples; the .example domain is reserved too.
+  settings: {
+    vatRounding: 'invoice-nearest',
+    partsMarkupPercent: '20',
+    subcontractMarkupPercent: '10',
+    approvalLinkDays: 14,
+    chaseAfterHours: 48,
+    contactPhone: '01632 960418',
+    contactEmail: 'office@brackenfold.example',
+  },
 };
 
 export interface DemoStaff {
@@ -97,7 +106,7 @@ export const DEMO_JOBS: DemoJob[] = [
   },
   {
     aircraft: 'Q-BRKE', title: '200-hour engine service', type: 'engine_service_200h', bookedDaysAgo: 55, dueInDays: null, notes: '',
-    path: [{ to: 'cancelled', by: 'declan', reason: 'Owner moved the service to the spring lay-up.' }],
+    path: [{ to: 'cancelled', by: 'declan', reason: 'Owner asked to move the service to the spring, after the winter lay-up.' }],
   },
   {
     aircraft: 'Q-MRLW', title: 'Exhaust spring replacement', type: 'repair', bookedDaysAgo: 30, dueInDays: null,

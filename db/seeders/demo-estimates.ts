@@ -42,8 +42,9 @@ export async function seedCatalogue(w: Workshop, t: Transaction): Promise<Catalo
           supplierId: l.supplier ? suppliers.get(l.supplier)!.id : null,
           amount: l.amount ?? null,
           vatRate: 'standard' as const,
+          caution: l.caution ?? '',
         })),
-        checklist: tp.checklist.map((c) => ({ section: c.section, text: c.text, limit: c.limit ?? null })),
+        checklist: tp.checklist.map((c) => ({ section: c.section, text: c.text, limit: c.limit ?? null, caution: c.caution ?? '' })),
       },
       { transaction: t },
     );

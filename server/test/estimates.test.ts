@@ -113,7 +113,7 @@ describe('booking from a template', () => {
     const second = await admin.put(`/api/templates/${tpl.body.id}`, { ...body, checklist: [{ text: 'Check B' }] });
     expect(second.status).toBe(409);
     expect(second.body.error.code).toBe('stale_version');
-    expect((await manager.get(`/api/templates/${tpl.body.id}`)).body.checklist).toEqual([{ section: '', text: 'Check A', limit: null }]);
+    expect((await manager.get(`/api/templates/${tpl.body.id}`)).body.checklist).toEqual([{ section: '', text: 'Check A', limit: null, caution: '' }]);
   });
 });
 
@@ -451,7 +451,7 @@ describe('workshop boundary for the estimate routes', () => {
     expect(byIds.body.items.map((p: { id: string }) => p.id)).toEqual([own.id]);
     const badIds = await admin.get('/api/parts?ids=not-an-id');
     expect(badIds.status).toBe(400);
-    expect(badIds.body.error.fields['ids.0']).toMatch(/valid id/);
+    expect(badIds.body.error.fields['ids.0']).toBe('Choose one from the list.');
     const aSupplier = (await admin.get('/api/suppliers?pageSize=1')).body.items[0] as { id: string };
     const suppliersById = await admin.get(`/api/suppliers?ids=${aSupplier.id},${randomUUID()}`);
     expect(suppliersById.body.items.map((s: { id: string }) => s.id)).toEqual([aSupplier.id]);

@@ -28,6 +28,22 @@ export const JOB_STATE_LABELS: Record<JobState, string> = {
   cancelled: 'Cancelled',
 };
 
+/**
+ * The same states said from the owner's side (vocabulary.md, "Job states"): the owner's pages use
+ * these, never the staff words above.
+ */
+export const OWNER_JOB_STATE_LABELS: Record<JobState, string> = {
+  booked_in: 'Booked in',
+  inspecting: 'Being inspected',
+  awaiting_owner: 'Waiting for your decision',
+  in_work: 'Work under way',
+  ready_for_release: 'Work finished',
+  invoiced: 'Invoice ready',
+  paid: 'Paid',
+  closed: 'Closed',
+  cancelled: 'Cancelled',
+};
+
 /** from → the states it may move to. Cancelled is possible only before invoicing. */
 export const JOB_TRANSITIONS: Record<JobState, readonly JobState[]> = {
   booked_in: ['inspecting', 'cancelled'],
@@ -45,7 +61,7 @@ export const JOB_TRANSITIONS: Record<JobState, readonly JobState[]> = {
 export const JOB_TRANSITION_ACTIONS: Record<JobState, string> = {
   booked_in: 'Book in',
   inspecting: 'Start inspection',
-  awaiting_owner: 'Wait for owner',
+  awaiting_owner: 'Hold for owner',
   in_work: 'Start work',
   ready_for_release: 'Mark ready for release',
   invoiced: 'Mark invoiced',
@@ -89,9 +105,23 @@ export const FINDING_STATE_LABELS: Record<FindingState, string> = {
   priced: 'Priced',
   sent: 'Sent to owner',
   approved: 'Approved',
-  approved_within_limit: 'Approved within limit',
+  approved_within_limit: 'Approved under standing go-ahead',
   declined: 'Declined',
   withdrawn: 'Withdrawn',
+};
+
+/**
+ * Finding states from the owner's side. "Within limit" is the owner's standing go-ahead (their
+ * pre-authorised limit), never to be confused with a measured limit.
+ */
+export const OWNER_FINDING_STATE_LABELS: Record<FindingState, string> = {
+  draft: 'Being priced',
+  priced: 'Being priced',
+  sent: 'Waiting for your decision',
+  approved: 'You approved',
+  approved_within_limit: 'Approved under your standing go-ahead',
+  declined: 'You declined',
+  withdrawn: 'Withdrawn by the workshop',
 };
 
 export const FINDING_TRANSITIONS: Record<FindingState, readonly FindingState[]> = {
@@ -132,6 +162,14 @@ export const APPROVAL_REQUEST_STATE_LABELS: Record<ApprovalRequestState, string>
   expired: 'Expired',
   revoked: 'Link revoked',
   replaced: 'Replaced',
+};
+/** Approval request states from the owner's side. */
+export const OWNER_APPROVAL_REQUEST_STATE_LABELS: Record<ApprovalRequestState, string> = {
+  sent: 'Waiting for your decision',
+  decided: 'You decided',
+  expired: 'Link expired',
+  revoked: 'Link revoked by the workshop',
+  replaced: 'A newer link was sent',
 };
 export const APPROVAL_REQUEST_TRANSITIONS: Record<ApprovalRequestState, readonly ApprovalRequestState[]> = {
   sent: ['decided', 'expired', 'revoked', 'replaced'],

@@ -82,7 +82,7 @@ describe('owners, aircraft and jobs', () => {
 
   it('when hours are given as a float-looking string with too many decimals, then they are refused', () => {
     const r = aircraftCreateSchema.safeParse({ customerId: uuid, registration: 'Q-BRKA', type: 'T', airframeHours: '812.25' });
-    expect(fieldErrors(r).airframeHours).toBe('Airframe hours must be a number with at most one decimal.');
+    expect(fieldErrors(r).airframeHours).toBe('Airframe hours can have at most one decimal place.');
   });
 
   it('when hours are sent as a number, then they are refused (decimals travel as strings)', () => {

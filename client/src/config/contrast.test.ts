@@ -32,10 +32,13 @@ const PAIRS: [text: string, background: string, where: string][] = [
   ['dusk', 'dusk-tint', 'awaiting-owner badge'],
   ['slate-deep', 'cloth-raised', 'invoiced and paid badges'],
   ['on-harbour', 'slate-deep', 'closed badge'],
-  ['ember', 'cloth-raised', 'field error messages'],
   ['ember', 'cloth', 'airworthiness signal on the page'],
-  ['slate', 'ember-tint', 'problem notices'],
-  ['ember', 'ember-tint', 'problem notice icon'],
+  ['ember', 'ember-tint', 'airworthiness badge and release guard'],
+  ['slate', 'ember-tint', 'release guard text'],
+  ['fault', 'cloth-raised', 'field error messages'],
+  ['fault', 'cloth', 'error messages on the page'],
+  ['slate', 'fault-tint', 'problem notices'],
+  ['fault', 'fault-tint', 'problem notice icon'],
 ];
 
 describe('theme contrast (WCAG 2.2 AA)', () => {

@@ -156,7 +156,7 @@ export const api = {
   get: <T>(path: string, query?: RequestOptions['query'], signal?: AbortSignal) => apiRequest<T>(path, { query, signal }),
   post: <T>(path: string, body?: unknown, extra?: Partial<RequestOptions>) => apiRequest<T>(path, { ...extra, method: 'POST', body: body ?? {} }),
   patch: <T>(path: string, body: unknown) => apiRequest<T>(path, { method: 'PATCH', body }),
-  delete: <T = void>(path: string) => apiRequest<T>(path, { method: 'DELETE' }),
+  delete: <T = void>(path: string, body?: unknown) => apiRequest<T>(path, { method: 'DELETE', body }),
   /** Posts files as multipart/form-data, each under `field`; CSRF and errors as for any other write. */
   upload: <T>(path: string, files: readonly File[], field = 'photos', extra?: Partial<Pick<RequestOptions, 'signal'>>) => {
     const form = new FormData();

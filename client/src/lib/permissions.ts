@@ -44,6 +44,9 @@ export function navFor(role: Role): NavItem[] {
   return items;
 }
 
+/** Where each role starts: owners on their aircraft, engineers in the hangar, the office on the jobs. */
 export function homeFor(role: Role): string {
-  return role === 'owner' ? '/my-aircraft' : '/jobs';
+  if (role === 'owner') return '/my-aircraft';
+  if (role === 'engineer') return '/hangar';
+  return '/jobs';
 }

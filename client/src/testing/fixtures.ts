@@ -18,6 +18,7 @@ export function aJob(overrides: Partial<JobDto> = {}): JobDto {
     bookedInOn: '2026-11-30',
     dueOn: null,
     notes: '',
+    scopeCautions: [],
     version: 3,
     createdAt: '2026-11-30T09:00:00Z',
     updatedAt: '2026-11-30T09:00:00Z',

@@ -10,6 +10,7 @@ export class JobChecklistItem extends Model<InferAttributes<JobChecklistItem>, I
   declare section: CreationOptional<string>;
   declare text: string;
   declare limit: ChecklistLimit | null;
+  declare caution: CreationOptional<string>;
   declare result: CreationOptional<ChecklistResult | null>;
   declare measuredValue: CreationOptional<string | null>;
   declare note: CreationOptional<string>;
@@ -30,6 +31,7 @@ export class JobChecklistItem extends Model<InferAttributes<JobChecklistItem>, I
         section: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         text: { type: DataTypes.TEXT, allowNull: false },
         limit: { type: DataTypes.JSONB, allowNull: true },
+        caution: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         result: { type: DataTypes.TEXT, allowNull: true },
         measuredValue: { type: DataTypes.DECIMAL(12, 4), allowNull: true },
         note: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },

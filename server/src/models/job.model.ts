@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type NonAttribute, type Sequelize } from 'sequelize';
-import type { JobState, JobType } from '@wingstage/shared';
+import type { JobState, JobType, ScopeCaution } from '@wingstage/shared';
 import type { Aircraft } from './aircraft.model.js';
 
 export class Job extends Model<InferAttributes<Job>, InferCreationAttributes<Job>> {
@@ -13,6 +13,8 @@ export class Job extends Model<InferAttributes<Job>, InferCreationAttributes<Job
   declare bookedInOn: string;
   declare dueOn: string | null;
   declare notes: CreationOptional<string>;
+  /** The cautions of the template's scope lines, copied at booking in. */
+  declare scopeCautions: CreationOptional<ScopeCaution[]>;
   /** The owner's pre-authorised limit, incl. VAT; null means none of that kind. */
   declare preAuthPerFinding: CreationOptional<string | null>;
   declare preAuthPerJob: CreationOptional<string | null>;
@@ -35,6 +37,7 @@ export class Job extends Model<InferAttributes<Job>, InferCreationAttributes<Job
         bookedInOn: { type: DataTypes.DATEONLY, allowNull: false },
         dueOn: { type: DataTypes.DATEONLY, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        scopeCautions: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
         preAuthPerFinding: { type: DataTypes.DECIMAL(14, 2), allowNull: true },
         preAuthPerJob: { type: DataTypes.DECIMAL(14, 2), allowNull: true },
         preAuthAgreedHow: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },

@@ -10,7 +10,9 @@ export class TimeLog extends Model<InferAttributes<TimeLog>, InferCreationAttrib
   declare workedOn: string;
   declare note: CreationOptional<string>;
   declare findingId: string | null;
+  declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
   declare user?: NonAttribute<User | null>;
 
   static initModel(sequelize: Sequelize) {
@@ -24,9 +26,11 @@ export class TimeLog extends Model<InferAttributes<TimeLog>, InferCreationAttrib
         workedOn: { type: DataTypes.DATEONLY, allowNull: false },
         note: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         findingId: { type: DataTypes.UUID, allowNull: true },
+        version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
       },
-      { sequelize, tableName: 'time_logs', updatedAt: false },
+      { sequelize, tableName: 'time_logs', version: true },
     );
   }
 }

@@ -11,6 +11,8 @@ import {
   idParamsSchema,
   idSchema,
   timeLogCreateSchema,
+  timeLogRemoveSchema,
+  timeLogUpdateSchema,
 } from '@wingstage/shared';
 import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validParams, validate } from '../middleware/validate.js';
@@ -21,6 +23,7 @@ import * as approvals from '../services/approvals/index.js';
 
 const itemParams = z.object({ id: idSchema, itemId: idSchema });
 const findingParams = z.object({ id: idSchema, findingId: idSchema });
+const timeParams = z.object({ id: idSchema, timeId: idSchema });
 
 /** What hangs off one job: its estimate, checklist, findings and time. Mounted under /api/jobs. */
 export function jobWorkRoutes(deps: Deps): Router {
@@ -71,6 +74,15 @@ export function jobWorkRoutes(deps: Deps): Router {
   });
   router.post('/:id/time', hands, validate({ params: idParamsSchema, body: timeLogCreateSchema }), async (req, res) => {
     res.status(201).json(await findings.logTime(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, timeLogCreateSchema)));
+  });
+  router.patch('/:id/time/:timeId', hands, validate({ params: timeParams, body: timeLogUpdateSchema }), async (req, res) => {
+    const p = validParams(req, timeParams);
+    res.json(await findings.updateTime(scopeOf(req), p.id, p.timeId, validBody(req, timeLogUpdateSchema)));
+  });
+  router.delete('/:id/time/:timeId', hands, validate({ params: timeParams, body: timeLogRemoveSchema }), async (req, res) => {
+    const p = validParams(req, timeParams);
+    await findings.removeTime(scopeOf(req), p.id, p.timeId, validBody(req, timeLogRemoveSchema));
+    res.status(204).end();
   });
   return router;
 }

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { STAFF_ROLES, idParamsSchema, templateSaveSchema, templateUpdateSchema } from '@wingstage/shared';
+import { STAFF_ROLES, idParamsSchema, templateCreateSchema, templateUpdateSchema } from '@wingstage/shared';
 import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validParams, validate } from '../middleware/validate.js';
 import type { Deps } from '../services/deps.js';
@@ -10,8 +10,8 @@ export function templatesRoutes({ config }: Deps): Router {
   router.get('/', authorize(config, ...STAFF_ROLES), async (req, res) => {
     res.json(await templates.listTemplates(scopeOf(req)));
   });
-  router.post('/', authorize(config, 'admin', 'manager'), validate({ body: templateSaveSchema }), async (req, res) => {
-    res.status(201).json(await templates.createTemplate(scopeOf(req), validBody(req, templateSaveSchema)));
+  router.post('/', authorize(config, 'admin', 'manager'), validate({ body: templateCreateSchema }), async (req, res) => {
+    res.status(201).json(await templates.createTemplate(scopeOf(req), validBody(req, templateCreateSchema)));
   });
   router.get('/:id', authorize(config, ...STAFF_ROLES), validate({ params: idParamsSchema }), async (req, res) => {
     res.json(await templates.getTemplate(scopeOf(req), validParams(req, idParamsSchema).id));

@@ -29,12 +29,19 @@ export interface IssuedSession {
 
 const tokenInvalid = () => new AppError('token_invalid', 401, 'This link has expired or was already used. Ask for a new one.');
 
+/** What a session says about its workshop, including how owners reach it. */
+function sessionWorkshop(workshop: Workshop): SessionDto['workshop'] {
+  const settings = (workshop.settings ?? {}) as { contactPhone?: unknown; contactEmail?: unknown };
+  const text = (v: unknown) => (typeof v === 'string' ? v : '');
+  return { id: workshop.id, name: workshop.name, currency: workshop.currency, contact: { phone: text(settings.contactPhone), email: text(settings.contactEmail) } };
+}
+
 function sessionFor(deps: Deps, user: User, workshop: Workshop): IssuedSession {
   const { token, csrf } = issueSession(deps.config, user);
   return {
     token,
     csrf,
-    dto: { user: toUserDto(user), workshop: { id: workshop.id, name: workshop.name, currency: workshop.currency }, csrfToken: csrf },
+    dto: { user: toUserDto(user), workshop: sessionWorkshop(workshop), csrfToken: csrf },
   };
 }
 
@@ -78,7 +85,7 @@ export async function signOut(userId: string, sid: string, expiresAt: Date): Pro
 }
 
 export function currentSession(deps: Deps, user: User, workshop: Workshop, csrf: string): SessionDto {
-  return { user: toUserDto(user), workshop: { id: workshop.id, name: workshop.name, currency: workshop.currency }, csrfToken: csrf };
+  return { user: toUserDto(user), workshop: sessionWorkshop(workshop), csrfToken: csrf };
 }
 
 export async function requestPasswordReset(deps: Deps, email: string): Promise<void> {

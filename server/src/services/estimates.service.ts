@@ -20,7 +20,7 @@ import {
   type estimateSaveSchema,
 } from '@wingstage/shared';
 import { AppError, conflict } from '../errors/app-error.js';
-import { AccessTask, Estimate, EstimateLine, Finding, JobChecklistItem, JobTemplate, type Workshop, boundSequelize } from '../models/index.js';
+import { AccessTask, Estimate, EstimateLine, Finding, Job, JobChecklistItem, JobTemplate, type Workshop, boundSequelize } from '../models/index.js';
 import { recordAudit } from './audit.js';
 import { quoteRequestFacts } from './approvals/repository.js';
 import { findingIdsIn, moveFindings } from './findings.repository.js';
@@ -425,9 +425,11 @@ export async function applyTemplate(scope: Scope, jobId: string, templateId: str
   if (lines.length) await EstimateLine.bulkCreate(lines, { transaction: t });
   if (template.checklist.length) {
     await JobChecklistItem.bulkCreate(
-      template.checklist.map((c, i) => ({ workshopId: scope.workshopId, jobId, sortOrder: i, section: c.section, text: c.text, limit: c.limit })),
+      template.checklist.map((c, i) => ({ workshopId: scope.workshopId, jobId, sortOrder: i, section: c.section, text: c.text, limit: c.limit, caution: c.caution ?? '' })),
       { transaction: t },
     );
   }
+  const cautions = template.lines.filter((l) => (l.caution ?? '').trim() !== '').map((l) => ({ line: l.description, caution: l.caution }));
+  if (cautions.length) await Job.update({ scopeCautions: cautions }, { where: inWorkshop(scope, { id: jobId }), transaction: t });
   return { name: template.name, lines: lines.length, checks: template.checklist.length };
 }

@@ -1,3 +1,4 @@
+import Decimal from 'decimal.js';
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { z } from 'zod';
 import {
@@ -19,6 +20,9 @@ import {
   type findingCreateSchema,
   type findingUpdateSchema,
   type timeLogCreateSchema,
+  type timeLogRemoveSchema,
+  type timeLogUpdateSchema,
+  HOURS_IN_A_DAY,
 } from '@wingstage/shared';
 import { AppError, conflict, notFound, staleVersion } from '../errors/app-error.js';
 import { EstimateLine, Finding, JobChecklistItem, TimeLog, User, boundSequelize } from '../models/index.js';
@@ -36,6 +40,8 @@ type FindingUpdate = z.output<typeof findingUpdateSchema>;
 type FindingAction = z.output<typeof findingActionSchema>;
 type ChecklistRecord = z.output<typeof checklistRecordSchema>;
 type TimeLogCreate = z.output<typeof timeLogCreateSchema>;
+type TimeLogUpdate = z.output<typeof timeLogUpdateSchema>;
+type TimeLogRemove = z.output<typeof timeLogRemoveSchema>;
 
 /** The hangar works on a job between starting the inspection and finishing the work. */
 const WORKING: readonly JobState[] = ['inspecting', 'awaiting_owner', 'in_work'];
@@ -268,6 +274,7 @@ function checklistDto(i: JobChecklistItem, findingId: string | null): JobCheckli
     section: i.section,
     text: i.text,
     limit: i.limit,
+    caution: i.caution,
     result: i.result,
     measuredValue: i.measuredValue,
     limitCheck: i.measuredValue !== null && i.limit ? checkLimit(i.measuredValue, i.limit) : null,
@@ -328,7 +335,110 @@ export async function recordChecklist(scope: Scope, jobId: string, itemId: strin
 // ─── Time ────────────────────────────────────────────────────────────────────
 
 function timeDto(l: TimeLog): TimeLogDto {
-  return { id: l.id, userName: l.user?.name ?? '', hours: l.hours, workedOn: l.workedOn, note: l.note, findingId: l.findingId, createdAt: l.createdAt.toISOString() };
+  return {
+    id: l.id,
+    userName: l.user?.name ?? '',
+    hours: l.hours,
+    workedOn: l.workedOn,
+    note: l.note,
+    findingId: l.findingId,
+    createdAt: l.createdAt.toISOString(),
+    userId: l.userId,
+    version: l.version,
+  };
+}
+
+const trimHours = (h: string) => new Decimal(h).toString();
+
+/**
+ * A day has 24 hours: one person's entries on one day (on any job of the workshop) may not add up
+ * to more. `except` leaves out the entry being corrected.
+ */
+async function assertDayHasRoom(scope: Scope, userId: string | null, workedOn: string, hours: string, except: string | null, t: Transaction): Promise<void> {
+  if (!userId) return;
+  const [row] = await boundSequelize().query<{ total: string | null }>(
+    `SELECT sum(hours)::text AS total FROM time_logs WHERE workshop_id = $1 AND user_id = $2 AND worked_on = $3 AND ($4::uuid IS NULL OR id <> $4::uuid)`,
+    { bind: [scope.workshopId, userId, workedOn, except], type: QueryTypes.SELECT, transaction: t },
+  );
+  const already = new Decimal(row?.total ?? '0');
+  if (already.plus(hours).gt(HOURS_IN_A_DAY)) {
+    const room = Decimal.max(0, new Decimal(HOURS_IN_A_DAY).minus(already));
+    const message = room.isZero()
+      ? `${trimHours(already.toString())} hours are already logged for ${workedOn}, and a day has ${HOURS_IN_A_DAY} hours. Check the date, or correct the earlier entries.`
+      : `${trimHours(already.toString())} hours are already logged for ${workedOn}, and a day has ${HOURS_IN_A_DAY} hours: at most ${trimHours(room.toString())} more can be logged for that day.`;
+    throw new AppError('validation_failed', 400, message, { hours: message });
+  }
+}
+
+async function findingNumber(scope: Scope, jobId: string, findingId: string | null, t: Transaction): Promise<string> {
+  if (!findingId) return '';
+  const f = await Finding.findOne({ where: inWorkshop(scope, { jobId, id: findingId }), transaction: t });
+  if (!f) throw new AppError('validation_failed', 400, 'Some fields need attention.', { findingId: 'That finding is not on this job.' });
+  return `F-${f.seq}`;
+}
+
+/** An engineer corrects their own entries; a manager or admin anyone's. Closed and cancelled jobs keep theirs. */
+async function loadOwnEntry(scope: Scope, jobId: string, timeId: string, version: number, t: Transaction): Promise<{ job: JobRow; log: TimeLog }> {
+  const job = await findJob(scope, jobId, t);
+  if (job.state === 'closed' || job.state === 'cancelled') throw conflict(`This job is ${job.state}; its time entries can no longer be changed.`);
+  const log = await TimeLog.findOne({
+    where: inWorkshop(scope, { jobId: job.id, id: timeId }),
+    include: [{ model: User, as: 'user', required: false, attributes: ['name'] }],
+    transaction: t,
+    lock: { level: t.LOCK.UPDATE, of: TimeLog },
+  });
+  if (!log) throw notFound('That time entry');
+  if (scope.role !== 'admin' && scope.role !== 'manager' && log.userId !== scope.userId) {
+    throw new AppError('forbidden', 403, 'Only the person who logged this time, a manager or an admin can change it.');
+  }
+  if (log.version !== version) throw staleVersion();
+  return { job, log };
+}
+
+export async function updateTime(scope: Scope, jobId: string, timeId: string, input: TimeLogUpdate): Promise<TimeLogDto> {
+  requireStaff(scope);
+  return boundSequelize().transaction(async (t) => {
+    const { job, log } = await loadOwnEntry(scope, jobId, timeId, input.version, t);
+    const before = { hours: log.hours, workedOn: log.workedOn, note: log.note, findingId: log.findingId };
+    const after = {
+      hours: input.hours ?? log.hours,
+      workedOn: input.workedOn ?? log.workedOn,
+      note: input.note ?? log.note,
+      findingId: input.findingId === undefined ? log.findingId : input.findingId,
+    };
+    await assertDayHasRoom(scope, log.userId, after.workedOn, after.hours, log.id, t);
+    const number = await findingNumber(scope, job.id, after.findingId, t);
+    const changes: string[] = [];
+    if (!new Decimal(before.hours).eq(after.hours)) changes.push(`${trimHours(before.hours)} h → ${trimHours(after.hours)} h`);
+    if (before.workedOn !== after.workedOn) changes.push(`${before.workedOn} → ${after.workedOn}`);
+    if (before.findingId !== after.findingId) changes.push(number ? `now on ${number}` : 'no longer on a finding');
+    if (before.note !== after.note) changes.push('note changed');
+    await log.update(after, { transaction: t });
+    // Read back so the figures come as the database keeps them ("1.50"), like every other read.
+    await log.reload({ include: [{ model: User, as: 'user', required: false, attributes: ['name'] }], transaction: t });
+    await recordAudit(scope, t, {
+      jobId: job.id,
+      action: 'time.changed',
+      summary: `Corrected ${log.user?.name ? `${log.user.name}'s` : 'a'} time entry for ${before.workedOn}: ${changes.length ? changes.join(', ') : 'nothing changed'}`,
+      detail: { timeLogId: log.id, before, after },
+    });
+    return timeDto(log);
+  });
+}
+
+export async function removeTime(scope: Scope, jobId: string, timeId: string, input: TimeLogRemove): Promise<void> {
+  requireStaff(scope);
+  await boundSequelize().transaction(async (t) => {
+    const { job, log } = await loadOwnEntry(scope, jobId, timeId, input.version, t);
+    const was = { hours: log.hours, workedOn: log.workedOn, note: log.note, findingId: log.findingId, userName: log.user?.name ?? null };
+    await log.destroy({ transaction: t });
+    await recordAudit(scope, t, {
+      jobId: job.id,
+      action: 'time.removed',
+      summary: `Removed ${was.userName ? `${was.userName}'s` : 'a'} time entry of ${trimHours(was.hours)} h for ${was.workedOn}${input.reason ? `: ${input.reason}` : ''}`,
+      detail: { timeLogId: log.id, was, reason: input.reason },
+    });
+  });
 }
 
 export async function listTime(scope: Scope, jobId: string): Promise<TimeLogDto[]> {
@@ -347,12 +457,9 @@ export async function logTime(scope: Scope, jobId: string, input: TimeLogCreate)
   return inTransaction(async (t) => {
     const job = await lockJob(scope, jobId, t);
     if (job.state === 'closed' || job.state === 'cancelled') throw conflict(`This job is ${job.state}; time can no longer be logged against it.`);
-    let number = '';
-    if (input.findingId) {
-      const f = await Finding.findOne({ where: inWorkshop(scope, { jobId: job.id, id: input.findingId }), transaction: t });
-      if (!f) throw new AppError('validation_failed', 400, 'Some fields need attention.', { findingId: 'That finding is not on this job.' });
-      number = ` on F-${f.seq}`;
-    }
+    const seq = await findingNumber(scope, job.id, input.findingId, t);
+    const number = seq ? ` on ${seq}` : '';
+    await assertDayHasRoom(scope, scope.userId, input.workedOn, input.hours, null, t);
     const log = await TimeLog.create({ ...input, workshopId: scope.workshopId, jobId: job.id, userId: scope.userId }, { transaction: t });
     await log.reload({ include: [{ model: User, as: 'user', required: false, attributes: ['name'] }], transaction: t });
     await recordAudit(scope, t, {

@@ -43,6 +43,7 @@ function toDto(j: JobRow, seen: Map<string, JobDecisionsToSee> = new Map()): Job
     bookedInOn: j.bookedInOn,
     dueOn: j.dueOn,
     notes: j.notes,
+    scopeCautions: j.scopeCautions ?? [],
     version: j.version,
     createdAt: j.createdAt.toISOString(),
     updatedAt: j.updatedAt.toISOString(),

@@ -12,8 +12,18 @@ import { inWorkshop, requireStaff, type Scope } from './scope.js';
 type TemplateSave = z.output<typeof templateSaveSchema>;
 type TemplateUpdate = z.output<typeof templateUpdateSchema>;
 
+/** Templates saved before cautions existed have none: read as an empty caution. */
 function toDto(t: JobTemplate): TemplateDto {
-  return { id: t.id, name: t.name, jobType: t.jobType, description: t.description, lines: t.lines, checklist: t.checklist, active: t.active, version: t.version };
+  return {
+    id: t.id,
+    name: t.name,
+    jobType: t.jobType,
+    description: t.description,
+    lines: t.lines.map((l) => ({ ...l, caution: l.caution ?? '' })),
+    checklist: t.checklist.map((c) => ({ ...c, caution: c.caution ?? '' })),
+    active: t.active,
+    version: t.version,
+  };
 }
 
 export async function listTemplates(scope: Scope): Promise<TemplateSummaryDto[]> {
@@ -34,7 +44,7 @@ export async function getTemplate(scope: Scope, id: string): Promise<TemplateDto
 }
 
 /** Lines may name only this workshop's parts, suppliers and labour rates; each kind needs its own figures. */
-async function checkLines(scope: Scope, input: TemplateSave, t: Transaction): Promise<void> {
+async function checkLines(scope: Scope, input: Pick<TemplateSave, 'lines'>, t: Transaction): Promise<void> {
   await loadParts(scope, input.lines.map((l) => l.partId), (i) => `lines.${i}.partId`, t);
   await assertSuppliers(scope, input.lines.map((l) => l.supplierId), (i) => `lines.${i}.supplierId`, t);
   const w = await loadWorkshop(scope, t);
@@ -52,7 +62,8 @@ export async function createTemplate(scope: Scope, input: TemplateSave): Promise
   requireStaff(scope);
   return inTransaction(async (t) => {
     await checkLines(scope, input, t);
-    const row = await JobTemplate.create({ ...input, workshopId: scope.workshopId }, { transaction: t });
+    const { confirmLarge: _confirmed, ...fields } = input;
+    const row = await JobTemplate.create({ ...fields, workshopId: scope.workshopId }, { transaction: t });
     await recordAudit(scope, t, { action: 'template.created', summary: `Added template ${row.name}`, detail: { templateId: row.id } });
     return toDto(row);
   });
@@ -64,7 +75,7 @@ export async function updateTemplate(scope: Scope, id: string, input: TemplateUp
     const row = await JobTemplate.findOne({ where: inWorkshop(scope, { id }), transaction: t, lock: t.LOCK.UPDATE });
     if (!row) throw notFound('That template');
     if (row.version !== input.version) throw staleVersion();
-    const { version: _v, ...whole } = input;
+    const { version: _v, confirmLarge: _confirmed, ...whole } = input;
     await checkLines(scope, whole, t);
     await row.update(whole, { transaction: t });
     await recordAudit(scope, t, { action: 'template.updated', summary: `Changed template ${row.name}`, detail: { templateId: row.id, lines: whole.lines.length, checklist: whole.checklist.length } });

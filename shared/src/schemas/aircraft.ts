@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { decimalString, idSchema, optionalText, patchOf, safeString } from './common.js';
+import { decimalString, idSchema, optionalText, patchOf, safeString, TEXT_MAX } from './common.js';
 
 /** Registrations are stored upper-case; letters, digits and one or more hyphens. */
 export const registrationSchema = z
@@ -16,7 +16,7 @@ export const aircraftCreateSchema = z.object({
   airframeHours: decimalString(1, 'Airframe hours').default('0'),
   engine: optionalText(160, 'Engine'),
   engineHours: decimalString(1, 'Engine hours').default('0'),
-  notes: optionalText(2000, 'Notes'),
+  notes: optionalText(TEXT_MAX.notes, 'Notes'),
 });
 export type AircraftCreateInput = z.input<typeof aircraftCreateSchema>;
 export type AircraftCreate = z.output<typeof aircraftCreateSchema>;

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { VAT_RATE_CODES } from '../pricing/types.js';
-import { decimalString, idSchema, optionalText, safeString } from './common.js';
+import { decimalString, idSchema, optionalText, safeString, TEXT_MAX } from './common.js';
 
 /** What a supplier does for the workshop; sub-contract lines name a supplier. */
 export const SUPPLIER_KINDS = ['parts', 'sail_loft', 'propeller_shop', 'engine_shop', 'other'] as const;
@@ -18,7 +18,7 @@ export const supplierCreateSchema = z.object({
   kind: z.enum(SUPPLIER_KINDS),
   email: z.union([z.literal(''), z.email({ message: 'Enter a valid e-mail address.' })]).optional().default(''),
   phone: optionalText(40, 'Phone'),
-  notes: optionalText(2000, 'Notes'),
+  notes: optionalText(TEXT_MAX.notes, 'Notes'),
 });
 export type SupplierCreateInput = z.input<typeof supplierCreateSchema>;
 export const supplierUpdateSchema = supplierCreateSchema.partial().extend({ version: z.number().int().min(0), active: z.boolean().optional() });

@@ -1,6 +1,41 @@
 import { z } from 'zod';
 
-export const idSchema = z.uuid({ message: 'Must be a valid id.' });
+/**
+ * Messages for people. zod's own defaults ("Too big: expected string to have <=300 characters",
+ * "Invalid UUID") leak how the program is built; every check without its own message falls back
+ * to these, which say what to do in plain words. A schema's own message always wins.
+ */
+z.config({
+  customError: (iss) => {
+    switch (iss.code) {
+      case 'too_big':
+        if (iss.origin === 'string') return `This is too long: keep it to ${String(iss.maximum)} characters or fewer.`;
+        if (iss.origin === 'array' || iss.origin === 'set') return `There are too many here: at most ${String(iss.maximum)}.`;
+        return `This is too large: at most ${String(iss.maximum)}.`;
+      case 'too_small':
+        if (iss.origin === 'string') return Number(iss.minimum) <= 1 ? 'This cannot be left empty.' : `This needs at least ${String(iss.minimum)} characters.`;
+        if (iss.origin === 'array' || iss.origin === 'set') return Number(iss.minimum) <= 1 ? 'Add at least one.' : `Add at least ${String(iss.minimum)}.`;
+        return `This is too small: at least ${String(iss.minimum)}.`;
+      case 'invalid_type':
+        if (iss.input === undefined || iss.input === null) return 'This is required.';
+        return iss.expected === 'number' ? 'Enter a number.' : iss.expected === 'boolean' ? 'Choose yes or no.' : 'This is not in the expected form.';
+      case 'invalid_format':
+        if (iss.format === 'uuid' || iss.format === 'guid') return 'Choose one from the list.';
+        if (iss.format === 'email') return 'Enter a valid e-mail address.';
+        if (iss.format === 'date') return 'Use a date like 2026-12-01.';
+        return 'This is not in the expected form.';
+      case 'invalid_value':
+        return 'Choose one of the options offered.';
+      case 'unrecognized_keys':
+        return 'Some of what was sent is not expected here.';
+      default:
+        return undefined;
+    }
+  },
+});
+
+/** An id picked from a list: the person never types one, so the message says to choose. */
+export const idSchema = z.uuid({ message: 'Choose one from the list.' });
 export const idParamsSchema = z.object({ id: idSchema });
 
 /**
@@ -32,17 +67,38 @@ export const safeString = (label: string) =>
     });
 
 /**
- * A non-negative decimal written as a string, with at most `dp` decimals: never a float. The format
- * check aborts, so refinements that read the value as a number only ever see a well-formed one.
+ * A non-negative decimal written as a string, with at most `dp` decimals: never a float. Each way
+ * it can be wrong gets its own message (empty, negative, not a number, too many decimals, too big),
+ * so a person who typed -3 reads "cannot be negative", not a rule about decimals. Every refusal
+ * aborts, so refinements that read the value as a number only ever see a well-formed one.
  */
 export const decimalString = (dp: number, label = 'Value') =>
   z
-    .string()
+    .string({ message: `Enter ${label.toLowerCase()} as a number.` })
     .trim()
-    .regex(dp === 0 ? /^\d{1,12}$/ : new RegExp(`^\\d{1,12}(\\.\\d{1,${dp}})?$`), {
-      message: dp === 0 ? `${label} must be a whole number.` : `${label} must be a number with at most ${dp === 1 ? 'one decimal' : `${dp} decimals`}.`,
-      abort: true,
+    .superRefine((v, ctx) => {
+      const say = (message: string) => ctx.addIssue({ code: 'custom', message, continue: false });
+      if (v === '') return say(`Enter ${label.toLowerCase()} as a number.`);
+      if (/^-\s*\d/.test(v)) return say(`${label} cannot be negative.`);
+      if (!/^\d+(\.\d+)?$/.test(v)) return say(dp === 0 ? `${label} must be a whole number, e.g. 3.` : `${label} must be a number, e.g. 2.5.`);
+      const [whole = '', frac = ''] = v.split('.');
+      if (whole.replace(/^0+(?=\d)/, '').length > 12) return say(`${label} is far larger than anything Wingstage can store.`);
+      if (dp === 0 && frac !== '') return say(`${label} must be a whole number, e.g. 3.`);
+      if (frac.length > dp) return say(`${label} can have at most ${dp === 1 ? 'one decimal place' : `${dp} decimal places`}.`);
+      return undefined;
     });
+
+/** The longest text each kind of box takes; the schemas and the forms' counters read the same numbers. */
+export const TEXT_MAX = {
+  address: 300,
+  notes: 2000,
+  jobNotes: 4000,
+  reason: 500,
+  seen: 4000,
+  remedy: 1000,
+  templateDescription: 2000,
+  ownerMessage: 1000,
+} as const;
 
 export const isoDate = z.iso.date({ message: 'Use a date like 2026-12-01.' });
 

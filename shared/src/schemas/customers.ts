@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { emailSchema, optionalText, patchOf, safeString } from './common.js';
+import { emailSchema, optionalText, patchOf, safeString, TEXT_MAX } from './common.js';
 
 export const CUSTOMER_KINDS = ['private', 'group'] as const;
 export const CUSTOMER_KIND_LABELS = { private: 'Private owner', group: 'Flying group' } as const;
@@ -15,9 +15,9 @@ export const customerCreateSchema = z.object({
     .regex(/^[0-9 +()-]*$/, { message: 'Use digits, spaces and + ( ) - only.' })
     .optional()
     .default(''),
-  addressLines: optionalText(300, 'Address'),
+  addressLines: optionalText(TEXT_MAX.address, 'Address'),
   postcode: optionalText(16, 'Postcode'),
-  notes: optionalText(2000, 'Notes'),
+  notes: optionalText(TEXT_MAX.notes, 'Notes'),
 });
 export type CustomerCreateInput = z.input<typeof customerCreateSchema>;
 export type CustomerCreate = z.output<typeof customerCreateSchema>;

@@ -1,6 +1,7 @@
 import Decimal from 'decimal.js';
 import { z } from 'zod';
 import { decimalString, idSchema, safeString, shortText } from './common.js';
+import { confirmLargeMessage, largeFigures, type LargeFigure } from '../bounds.js';
 import {
   ESTIMATE_STAGES,
   LINE_KINDS,
@@ -78,6 +79,8 @@ export const estimateSaveSchema = z
     version: z.number().int().min(0),
     lines: z.array(estimateLineSchema).max(2000),
     accessTasks: z.array(accessTaskSchema).max(100).default([]),
+    /** Sent after the person confirmed figures larger than a light-aircraft job usually needs (bounds.ts). */
+    confirmLarge: z.boolean().optional().default(false),
   })
   .superRefine((v, ctx) => {
     const tasks = new Set<string>();
@@ -93,7 +96,20 @@ export const estimateSaveSchema = z
         ctx.addIssue({ code: 'custom', path: ['lines', i, 'accessTaskId'], message: 'That access task is not on this estimate.' });
       }
     });
+    if (!v.confirmLarge) {
+      const large = estimateLargeFigures(v);
+      if (large.length > 0) ctx.addIssue({ code: 'custom', path: ['confirmLarge'], message: confirmLargeMessage(large) });
+    }
   });
+
+/** Figures on the lines and access tasks of an estimate save that need the person's confirmation. */
+export function estimateLargeFigures(v: {
+  lines: readonly { kind: string; description: string; quantity?: string | null; ratePerHour?: string | null; unitCost?: string | null; unitPrice?: string | null; amount?: string | null }[];
+  accessTasks?: readonly { name: string; hours: string; ratePerHour: string }[];
+}): LargeFigure[] {
+  const tasks = (v.accessTasks ?? []).map((t) => ({ kind: 'labour', description: t.name, quantity: t.hours, ratePerHour: t.ratePerHour }));
+  return [...largeFigures(v.lines), ...largeFigures(tasks)];
+}
 export type EstimateSaveInput = z.input<typeof estimateSaveSchema>;
 
 export interface EstimateLineDto {

@@ -1,10 +1,14 @@
 import Decimal from 'decimal.js';
 import { z } from 'zod';
-import { decimalString, idSchema, isoDate, optionalText, safeString, shortText } from './common.js';
+import { TEXT_MAX, decimalString, idSchema, isoDate, optionalText, safeString, shortText } from './common.js';
+import { HOURS_IN_A_DAY } from '../bounds.js';
 import type { ChecklistLimit } from './templates.js';
 import type { FindingPhotoDto } from './photos.js';
 
-/** The trade's three categories (product brief, "Findings and approvals"). */
+/**
+ * The trade's three categories, framed as the trade frames them: an airworthiness item or not,
+ * plus information (vocabulary.md). Never an urgency scale and never a prediction.
+ */
 export const FINDING_CATEGORIES = ['airworthiness', 'recommended', 'advisory'] as const;
 export type FindingCategory = (typeof FINDING_CATEGORIES)[number];
 export const FINDING_CATEGORY_LABELS: Record<FindingCategory, string> = {
@@ -13,9 +17,9 @@ export const FINDING_CATEGORY_LABELS: Record<FindingCategory, string> = {
   advisory: 'Advisory',
 };
 export const FINDING_CATEGORY_MEANINGS: Record<FindingCategory, string> = {
-  airworthiness: 'Must be rectified before the aircraft flies.',
-  recommended: 'Should be rectified now; will become an airworthiness item if left.',
-  advisory: 'Noted for the owner; monitor at the next inspection.',
+  airworthiness: 'Judged to affect airworthiness. The inspector decides when the aircraft may fly.',
+  recommended: 'Not an airworthiness item. Advised while the aircraft is open.',
+  advisory: 'Nothing needed now. Looked at again at the next inspection.',
 };
 
 /** A measured value may be negative (a temperature) and carries up to 4 decimals. */
@@ -31,7 +35,7 @@ export const remedyPartSchema = z.object({
 
 /** What the engineer proposes; the manager turns it into priced estimate lines. */
 export const remedySchema = z.object({
-  description: optionalText(1000, 'Remedy'),
+  description: optionalText(TEXT_MAX.remedy, 'Remedy'),
   hours: decimalString(2, 'Hours').nullable().default(null),
   labourRateCode: shortText(20, 'Labour rate').nullable().default(null),
   parts: z.array(remedyPartSchema).max(30).default([]),
@@ -44,7 +48,7 @@ export const findingCreateSchema = z.object({
   title: safeString('Title').trim().min(1, { message: 'Give the finding a short title.' }).max(160),
   location: safeString('Where on the aircraft').trim().min(1, { message: 'Say where on the aircraft.' }).max(160),
   category: z.enum(FINDING_CATEGORIES, { message: 'Choose airworthiness, recommended or advisory.' }),
-  seen: safeString('What was seen').trim().min(1, { message: 'Say what was seen.' }).max(4000),
+  seen: safeString('What was seen').trim().min(1, { message: 'Say what was seen.' }).max(TEXT_MAX.seen, { message: `Keep what was seen to ${TEXT_MAX.seen} characters or fewer.` }),
   checklistItemId: idSchema.nullable().optional().default(null),
   measuredValue: measuredValueSchema.nullable().optional().default(null),
   remedy: remedySchema.default({ description: '', hours: null, labourRateCode: null, parts: [], accessTask: null }),
@@ -118,6 +122,8 @@ export interface JobChecklistItemDto {
   section: string;
   text: string;
   limit: ChecklistLimit | null;
+  /** A hazard note shown beside the item (propeller live, fuel, engine runs); empty when none. */
+  caution: string;
   result: ChecklistResult | null;
   measuredValue: string | null;
   /** 'within' | 'below' | 'above' for a measured value against its limit; null when not measured or no limit. */
@@ -130,13 +136,38 @@ export interface JobChecklistItemDto {
   version: number;
 }
 
+/**
+ * Hours worked on one day: more than zero and, since a day has 24 hours (bounds.ts), never more
+ * than 24. The server also refuses a person's entries for one day adding up past 24.
+ */
+export const timeLogHoursSchema = decimalString(2, 'Hours')
+  .refine((h) => !/^\d+(\.\d+)?$/.test(h) || new Decimal(h).gt(0), { message: 'Log more than zero hours.' })
+  .refine((h) => !/^\d+(\.\d+)?$/.test(h) || new Decimal(h).lte(HOURS_IN_A_DAY), { message: `A day has ${HOURS_IN_A_DAY} hours: log at most ${HOURS_IN_A_DAY} hours for one day.` });
+
 export const timeLogCreateSchema = z.object({
-  hours: decimalString(2, 'Hours').refine((h) => new Decimal(h).gt(0), { message: 'Log more than zero hours.' }),
+  hours: timeLogHoursSchema,
   workedOn: isoDate,
   note: optionalText(500, 'Note'),
   findingId: idSchema.nullable().optional().default(null),
 });
 export type TimeLogCreateInput = z.input<typeof timeLogCreateSchema>;
+
+/** Correcting a time entry: any of its fields, with the version it was read at. */
+export const timeLogUpdateSchema = z.object({
+  version: z.number().int().min(0),
+  hours: timeLogHoursSchema.optional(),
+  workedOn: isoDate.optional(),
+  note: z.string().trim().max(500, { message: 'Keep the note to 500 characters or fewer.' }).optional(),
+  findingId: idSchema.nullable().optional(),
+});
+export type TimeLogUpdateInput = z.input<typeof timeLogUpdateSchema>;
+
+/** Removing a time entry: the version it was read at and, optionally, why (kept in history). */
+export const timeLogRemoveSchema = z.object({
+  version: z.number().int().min(0),
+  reason: z.string().trim().max(500, { message: 'Keep the reason to 500 characters or fewer.' }).optional().default(''),
+});
+export type TimeLogRemoveInput = z.input<typeof timeLogRemoveSchema>;
 
 export interface TimeLogDto {
   id: string;
@@ -146,4 +177,7 @@ export interface TimeLogDto {
   note: string;
   findingId: string | null;
   createdAt: string;
+  /** Who logged it, so the hangar offers changes only on one's own entries (managers and admins: any). */
+  userId: string | null;
+  version: number;
 }

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { JOB_STATES, type JobState } from '../states.js';
-import { idSchema, isoDate, listQuerySchema, optionalText, safeString, shortText } from './common.js';
+import { idSchema, isoDate, listQuerySchema, optionalText, safeString, shortText, TEXT_MAX } from './common.js';
 
 /** Kinds of visit. Templates with scope and checklist arrive with the estimates work. */
 export const JOB_TYPES = [
@@ -30,7 +30,7 @@ export const jobCreateSchema = z
     type: z.enum(JOB_TYPES),
     bookedInOn: isoDate,
     dueOn: isoDate.optional().nullable().default(null),
-    notes: optionalText(4000, 'Notes'),
+    notes: optionalText(TEXT_MAX.jobNotes, 'Notes'),
     /** Book in from a job template: its scope becomes the inspection stage, its checklist the job's. */
     templateId: idSchema.nullable().optional().default(null),
   })
@@ -44,7 +44,7 @@ export const jobUpdateSchema = z.object({
   type: z.enum(JOB_TYPES).optional(),
   bookedInOn: isoDate.optional(),
   dueOn: isoDate.nullable().optional(),
-  notes: shortText(4000, 'Notes').optional(),
+  notes: safeString('Notes').trim().max(TEXT_MAX.jobNotes, { message: `Keep the notes to ${TEXT_MAX.jobNotes} characters or fewer.` }).optional(),
 });
 export type JobUpdateInput = z.input<typeof jobUpdateSchema>;
 
@@ -52,7 +52,7 @@ export const jobTransitionSchema = z
   .object({
     to: z.enum(JOB_STATES),
     version: z.number().int().min(0),
-    reason: shortText(500, 'Reason').optional().default(''),
+    reason: safeString('Reason').trim().max(TEXT_MAX.reason, { message: `Keep the reason to ${TEXT_MAX.reason} characters or fewer.` }).optional().default(''),
   })
   .refine((v) => v.to !== 'cancelled' || v.reason !== '', { path: ['reason'], message: 'Say why the job is cancelled.' });
 export type JobTransitionInput = z.input<typeof jobTransitionSchema>;
@@ -61,6 +61,12 @@ export const jobListQuerySchema = listQuerySchema.extend({
   state: z.enum(JOB_STATES).optional(),
   aircraftId: idSchema.optional(),
 });
+
+/** A hazard note for a piece of the job's scope, copied from the template line it came with. */
+export interface ScopeCaution {
+  line: string;
+  caution: string;
+}
 
 export interface JobDto {
   id: string;
@@ -76,6 +82,8 @@ export interface JobDto {
   bookedInOn: string;
   dueOn: string | null;
   notes: string;
+  /** Cautions for the scheduled work (from the template's lines), shown to the engineer in the hangar. */
+  scopeCautions: ScopeCaution[];
   version: number;
   createdAt: string;
   updatedAt: string;

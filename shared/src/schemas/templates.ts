@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { JOB_TYPES, type JobType } from './jobs.js';
-import { decimalString, idSchema, optionalText, safeString, shortText } from './common.js';
+import { TEXT_MAX, decimalString, idSchema, optionalText, safeString, shortText } from './common.js';
+import { confirmLargeMessage, largeFigures } from '../bounds.js';
 import { LINE_KINDS, VAT_RATE_CODES, type LineKind, type VatRateCode } from '../pricing/types.js';
 
 /** Units a checklist limit may be measured in (SI where the trade uses it). */
@@ -21,10 +22,15 @@ export const checklistLimitSchema = z
   .refine((l) => l.min !== null || l.max !== null, { path: ['max'], message: 'Give a minimum, a maximum or both.' });
 export type ChecklistLimit = z.output<typeof checklistLimitSchema>;
 
+/** Longest caution: a few sentences the engineer can read at a glance. */
+export const CAUTION_MAX = 500;
+
 export const templateChecklistItemSchema = z.object({
   section: shortText(80, 'Section').default(''),
-  text: safeString('Check').trim().min(1, { message: 'Say what to check.' }).max(300),
+  text: safeString('Check').trim().min(1, { message: 'Say what to check.' }).max(300, { message: 'Keep the check to 300 characters or fewer.' }),
   limit: checklistLimitSchema.nullable().default(null),
+  /** A hazard note shown to the engineer beside the item (vocabulary.md, "caution"). */
+  caution: optionalText(CAUTION_MAX, 'Caution'),
 });
 
 /**
@@ -33,7 +39,7 @@ export const templateChecklistItemSchema = z.object({
  */
 export const templateLineSchema = z.object({
   kind: z.enum(LINE_KINDS),
-  description: safeString('Description').trim().min(1, { message: 'Describe the line.' }).max(300),
+  description: safeString('Description').trim().min(1, { message: 'Describe the line.' }).max(300, { message: 'Keep the description to 300 characters or fewer.' }),
   /** labour: hours; part: quantity; fee/subcontract: 1. */
   quantity: decimalString(2, 'Quantity').default('1'),
   labourRateCode: shortText(20, 'Labour rate').nullable().default(null),
@@ -42,19 +48,31 @@ export const templateLineSchema = z.object({
   /** fee: the amount; subcontract: the supplier's cost; part without partId: unit cost. */
   amount: decimalString(2, 'Amount').nullable().default(null),
   vatRate: z.enum(VAT_RATE_CODES).default('standard'),
+  /** A hazard note for the work this line covers; copied to the job and shown to the engineer. */
+  caution: optionalText(CAUTION_MAX, 'Caution'),
 });
 
 export const templateSaveSchema = z.object({
   name: safeString('Name').trim().min(1, { message: 'Name is required.' }).max(160),
   jobType: z.enum(JOB_TYPES),
-  description: optionalText(2000, 'Description'),
+  description: optionalText(TEXT_MAX.templateDescription, 'Description'),
   lines: z.array(templateLineSchema).max(200),
   checklist: z.array(templateChecklistItemSchema).max(300),
   active: z.boolean().default(true),
+  /** Sent after the person confirmed figures larger than a light-aircraft job usually needs (bounds.ts). */
+  confirmLarge: z.boolean().optional().default(false),
 });
 export type TemplateSaveInput = z.input<typeof templateSaveSchema>;
+
+function askForLarge(v: { lines: z.output<typeof templateLineSchema>[]; confirmLarge: boolean }, ctx: z.RefinementCtx): void {
+  if (v.confirmLarge) return;
+  const large = largeFigures(v.lines);
+  if (large.length > 0) ctx.addIssue({ code: 'custom', path: ['confirmLarge'], message: confirmLargeMessage(large) });
+}
+/** Creating a template: the same fields, with large figures confirmed. */
+export const templateCreateSchema = templateSaveSchema.superRefine(askForLarge);
 /** PUT replaces the whole template; `version` guards against a concurrent edit. */
-export const templateUpdateSchema = templateSaveSchema.extend({ version: z.number().int().min(0) });
+export const templateUpdateSchema = templateSaveSchema.extend({ version: z.number().int().min(0) }).superRefine(askForLarge);
 export type TemplateUpdateInput = z.input<typeof templateUpdateSchema>;
 
 export interface TemplateLineDto {
@@ -66,11 +84,13 @@ export interface TemplateLineDto {
   supplierId: string | null;
   amount: string | null;
   vatRate: VatRateCode;
+  caution: string;
 }
 export interface TemplateChecklistItemDto {
   section: string;
   text: string;
   limit: ChecklistLimit | null;
+  caution: string;
 }
 export interface TemplateDto {
   id: string;

@@ -17,7 +17,8 @@ export interface UserDto {
 
 export interface SessionDto {
   user: UserDto;
-  workshop: { id: string; name: string; currency: string };
+  /** `contact`: the workshop's phone and e-mail for owners (empty strings when not set). */
+  workshop: { id: string; name: string; currency: string; contact: { phone: string; email: string } };
   /** Echo in the X-CSRF-Token header on every write. Also set as the readable cookie ws_csrf. */
   csrfToken: string;
 }

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { decimalString, patchOf, safeString, shortText } from './common.js';
+import { decimalString, patchOf, safeString, shortText, TEXT_MAX } from './common.js';
 
 export const VAT_ROUNDING_METHODS = ['invoice-down', 'invoice-nearest', 'line-nearest', 'line-down-tenth'] as const;
 
@@ -16,18 +16,42 @@ export const labourRateSchema = z.object({
   ratePerHour: decimalString(2, 'Rate'),
 });
 
+export const APPROVAL_LINK_DAYS = { min: 1, max: 60 } as const;
+export const CHASE_AFTER_HOURS = { min: 1, max: 720 } as const;
+
 export const workshopSettingsSchema = z.object({
   vatRounding: z.enum(VAT_ROUNDING_METHODS).default('invoice-nearest'),
   partsMarkupPercent: decimalString(2, 'Mark-up').default('20'),
   subcontractMarkupPercent: decimalString(2, 'Mark-up').default('10'),
-  approvalLinkDays: z.number().int().min(1).max(60).default(14),
-  chaseAfterHours: z.number().int().min(1).max(720).default(48),
+  /** How long an approval link opens the owner's decision page: 1 to 60 days. */
+  approvalLinkDays: z
+    .number({ message: 'Enter the number of days, e.g. 14.' })
+    .int({ message: 'Give whole days.' })
+    .min(APPROVAL_LINK_DAYS.min, { message: `A link has to last at least ${APPROVAL_LINK_DAYS.min} day.` })
+    .max(APPROVAL_LINK_DAYS.max, { message: `A link can last at most ${APPROVAL_LINK_DAYS.max} days; send a new one after that.` })
+    .default(14),
+  /** Hours after sending (or the last reminder) before an undecided request is chased: 1 hour to 30 days. */
+  chaseAfterHours: z
+    .number({ message: 'Enter the number of hours, e.g. 48.' })
+    .int({ message: 'Give whole hours.' })
+    .min(CHASE_AFTER_HOURS.min, { message: `Wait at least ${CHASE_AFTER_HOURS.min} hour before a reminder.` })
+    .max(CHASE_AFTER_HOURS.max, { message: `Send a reminder within ${CHASE_AFTER_HOURS.max} hours (30 days).` })
+    .default(48),
+  /** The workshop's phone and e-mail, shown to owners wherever a page says to contact the workshop. */
+  contactPhone: z
+    .string()
+    .trim()
+    .max(40, { message: 'Keep the phone number to 40 characters or fewer.' })
+    .regex(/^[0-9+()\s-]*$/, { message: 'Use digits, spaces and + ( ) - only, e.g. 01632 960123.' })
+    .default(''),
+  contactEmail: z.union([z.literal(''), z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address.' }))]).default(''),
 });
+
 
 export const workshopUpdateSchema = z.object({
   version: z.number().int().min(0),
   name: safeString('Name').trim().min(1).max(160).optional(),
-  addressLines: shortText(300, 'Address').optional(),
+  addressLines: safeString('Address').trim().max(TEXT_MAX.address, { message: `Keep the address to ${TEXT_MAX.address} characters or fewer.` }).optional(),
   postcode: shortText(16, 'Postcode').optional(),
   vatNumber: vatNumberSchema.optional(),
   labourRates: z.array(labourRateSchema).min(1).max(20).optional(),

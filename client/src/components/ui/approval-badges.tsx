@@ -11,12 +11,12 @@ const LOOK: Record<ApprovalRequestState, { Icon: ComponentType<{ size?: number }
   replaced: { Icon: ArrowUpIcon, tone: 'border-seam-strong border-dashed bg-transparent text-slate-soft' },
 };
 
-export function ApprovalRequestBadge({ state }: { state: ApprovalRequestState }) {
+export function ApprovalRequestBadge({ state, words = APPROVAL_REQUEST_STATE_LABELS }: { state: ApprovalRequestState; words?: Record<ApprovalRequestState, string> }) {
   const { Icon, tone } = LOOK[state];
   return (
     <span data-request-state={state} className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border px-2.5 py-0.5 text-sm font-semibold ${tone}`}>
       <Icon size={15} />
-      {APPROVAL_REQUEST_STATE_LABELS[state]}
+      {words[state]}
     </span>
   );
 }

@@ -1,7 +1,8 @@
-import { forwardRef, useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
+import { forwardRef, useCallback, useEffect, useId, useRef, useState, type ForwardedRef, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
+import { FaultIcon } from './icons';
 
 const control =
-  'block w-full rounded-control border border-seam-strong bg-cloth-raised px-3 py-2 text-base text-slate min-h-11 placeholder:text-slate-soft aria-[invalid=true]:border-2 aria-[invalid=true]:border-ember';
+  'block w-full rounded-control border border-seam-strong bg-cloth-raised px-3 py-2 text-base text-slate min-h-11 placeholder:text-slate-soft aria-[invalid=true]:border-2 aria-[invalid=true]:border-fault';
 
 interface FieldShellProps {
   id: string;
@@ -48,8 +49,10 @@ function FieldShell({ id, label, hint, error, required, children }: FieldShellPr
       <FieldHint id={id} hint={hint} />
       {children}
       {error ? (
-        <p id={`${id}-error`} className="flex items-start gap-1 text-sm font-semibold text-ember" role="alert">
-          <span aria-hidden="true">▲</span>
+        <p id={`${id}-error`} className="flex items-start gap-1 text-sm font-semibold text-fault" role="alert">
+          <span className="mt-0.5 shrink-0">
+            <FaultIcon size={16} />
+          </span>
           {error}
         </p>
       ) : null}
@@ -57,14 +60,14 @@ function FieldShell({ id, label, hint, error, required, children }: FieldShellPr
   );
 }
 
-function describedBy(id: string, hint?: ReactNode, error?: string): string | undefined {
-  const ids = [hint ? `${id}-hint` : '', error ? `${id}-error` : ''].filter(Boolean).join(' ');
+function describedBy(id: string, hint?: ReactNode, error?: string, counter = false): string | undefined {
+  const ids = [hint ? `${id}-hint` : '', error ? `${id}-error` : '', counter ? `${id}-count` : ''].filter(Boolean).join(' ');
   return ids || undefined;
 }
 
 /** What every control carries: its id, whether it is in error, and the hint and error that describe it. */
-function controlAria(id: string, hint: ReactNode, error: string | undefined, required: boolean | undefined) {
-  return { id, 'aria-invalid': error ? true : undefined, 'aria-describedby': describedBy(id, hint, error), 'aria-required': required || undefined };
+function controlAria(id: string, hint: ReactNode, error: string | undefined, required: boolean | undefined, counter = false) {
+  return { id, 'aria-invalid': error ? true : undefined, 'aria-describedby': describedBy(id, hint, error, counter), 'aria-required': required || undefined };
 }
 
 type Common = { label: string; hint?: ReactNode; error?: string };
@@ -107,21 +110,58 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HT
   );
 });
 
-export const TextAreaField = forwardRef<HTMLTextAreaElement, TextareaHTMLAttributes<HTMLTextAreaElement> & Common>(function TextAreaField(
-  { label, hint, error, id: idProp, className = '', required, ...rest },
+function assignRef<T>(ref: ForwardedRef<T>, el: T | null): void {
+  if (typeof ref === 'function') ref(el);
+  else if (ref) ref.current = el;
+}
+
+/**
+ * "120 of 4,000 characters": shown under a long text box so the limit is known before it is
+ * reached; past the limit it says by how much (the schema's message says the rest on saving).
+ */
+export function CharacterCount({ id, count, max }: { id: string; count: number; max: number }) {
+  const over = count - max;
+  return (
+    <p id={`${id}-count`} data-counter className={`text-xs tabular-nums ${over > 0 ? 'font-semibold text-fault' : 'text-slate-soft'}`} aria-live={over > 0 ? 'polite' : 'off'}>
+      {over > 0 ? `${over.toLocaleString('en-GB')} characters over the ${max.toLocaleString('en-GB')} that fit` : `${count.toLocaleString('en-GB')} of ${max.toLocaleString('en-GB')} characters`}
+    </p>
+  );
+}
+
+export const TextAreaField = forwardRef<HTMLTextAreaElement, TextareaHTMLAttributes<HTMLTextAreaElement> & Common & { maxChars?: number }>(function TextAreaField(
+  { label, hint, error, id: idProp, className = '', required, maxChars, onInput, ...rest },
   ref,
 ) {
   const auto = useId();
   const id = idProp ?? auto;
+  const inner = useRef<HTMLTextAreaElement | null>(null);
+  const [count, setCount] = useState(0);
+  const setRefs = useCallback(
+    (el: HTMLTextAreaElement | null) => {
+      inner.current = el;
+      assignRef(ref, el);
+    },
+    [ref],
+  );
+  // Forms set the value through the ref (and on reset), not only by typing: read it after each render.
+  useEffect(() => {
+    const n = inner.current?.value.length ?? 0;
+    setCount((c) => (c === n ? c : n));
+  });
   return (
     <FieldShell id={id} label={label} hint={hint} error={error} required={required}>
       <textarea
-        ref={ref}
+        ref={setRefs}
         rows={4}
-        {...controlAria(id, hint, error, required)}
+        {...controlAria(id, hint, error, required, maxChars !== undefined)}
         className={`${control} ${className}`}
+        onInput={(e) => {
+          setCount(e.currentTarget.value.length);
+          onInput?.(e);
+        }}
         {...rest}
       />
+      {maxChars !== undefined ? <CharacterCount id={id} count={count} max={maxChars} /> : null}
     </FieldShell>
   );
 });

@@ -1,6 +1,6 @@
 import { FINDING_CATEGORY_LABELS, FINDING_STATE_LABELS, type FindingCategory, type FindingState } from '@wingstage/shared';
 import type { ComponentType } from 'react';
-import { CheckIcon, CrossIcon, EnvelopeIcon, EyeIcon, HourglassIcon, PencilIcon, ShieldBarIcon, SlashCircleIcon, TagIcon } from './icons';
+import { AdviceIcon, CheckIcon, CrossIcon, EnvelopeIcon, EyeIcon, PencilIcon, ShieldBarIcon, SlashCircleIcon, TagIcon } from './icons';
 
 type Icon = ComponentType<{ size?: number }>;
 
@@ -11,7 +11,7 @@ type Icon = ComponentType<{ size?: number }>;
  */
 export const CATEGORY_LOOK: Record<FindingCategory, { Icon: Icon; tone: string }> = {
   airworthiness: { Icon: ShieldBarIcon, tone: 'border-ember bg-ember-tint text-ember border-2' },
-  recommended: { Icon: HourglassIcon, tone: 'border-slate-deep bg-cloth-raised text-slate-deep' },
+  recommended: { Icon: AdviceIcon, tone: 'border-slate-deep bg-cloth-raised text-slate-deep' },
   advisory: { Icon: EyeIcon, tone: 'border-seam-strong border-dashed bg-transparent text-slate-soft' },
 };
 
@@ -35,12 +35,12 @@ const STATE_ICON: Record<FindingState, Icon> = {
   withdrawn: SlashCircleIcon,
 };
 
-export function FindingStateBadge({ state }: { state: FindingState }) {
+export function FindingStateBadge({ state, words = FINDING_STATE_LABELS }: { state: FindingState; words?: Record<FindingState, string> }) {
   const Icon = STATE_ICON[state];
   return (
     <span data-finding-state={state} className="inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border border-seam-strong bg-cloth-raised px-2.5 py-0.5 text-sm">
       <Icon size={15} />
-      {FINDING_STATE_LABELS[state]}
+      {words[state]}
     </span>
   );
 }

@@ -102,6 +102,19 @@ export const AlertIcon = (p: IconProps) => (
     <path d="M12 10v4.5M12 17.5v.01" />
   </Svg>
 );
+/** A caution (hazard to people doing the work): a raised open hand. */
+export const HandStopIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <path d="M8 12V5.5a1.5 1.5 0 0 1 3 0V11M11 10.5V4a1.5 1.5 0 0 1 3 0v6.5M14 10.5V5.5a1.5 1.5 0 0 1 3 0V13M8 12V9a1.5 1.5 0 0 0-3 0v4.5C5 18 8 21 12 21s6-3 5-8" />
+  </Svg>
+);
+/** An error or failure: a crossed circle, never the airworthiness shield. */
+export const FaultIcon = (p: IconProps) => (
+  <Svg {...p}>
+    <circle cx="12" cy="12" r="8.5" />
+    <path d="m9 9 6 6M15 9l-6 6" />
+  </Svg>
+);
 export const InfoIcon = (p: IconProps) => (
   <Svg {...p}>
     <circle cx="12" cy="12" r="9" />
@@ -118,20 +131,21 @@ export const CheckIcon = (p: IconProps) => (
     <path d="m5 12.5 4.5 4.5L19 7.5" />
   </Svg>
 );
-/** Airworthiness: a shield with a bar — the aircraft must not fly until it is dealt with. */
+/** Airworthiness: a shield with a bar — judged to affect airworthiness; the inspector decides. */
 export const ShieldBarIcon = (p: IconProps) => (
   <Svg {...p}>
     <path d="M12 3 4.5 6v5.5c0 4.5 3.2 8 7.5 9.5 4.3-1.5 7.5-5 7.5-9.5V6Z" />
     <path d="M12 8v5M12 16.5v.01" />
   </Svg>
 );
-/** Recommended: an hourglass — it should be done now, before it becomes pressing. */
-export const HourglassIcon = (p: IconProps) => (
+/** Recommended: a speech bubble with a tick — the workshop's advice, not an airworthiness item. */
+export const AdviceIcon = (p: IconProps) => (
   <Svg {...p}>
-    <path d="M6.5 3h11M6.5 21h11M7.5 3c0 5 9 5 9 9s-9 4-9 9M16.5 3c0 5-9 5-9 9" />
+    <path d="M4 5.5h16v10H10l-4.5 3.5V15.5H4Z" />
+    <path d="m8.5 10.5 2.5 2.5 4.5-5" />
   </Svg>
 );
-/** Advisory: an eye — watch it at the next inspection. */
+/** Advisory: an eye — information, looked at again at the next inspection. */
 export const EyeIcon = (p: IconProps) => (
   <Svg {...p}>
     <path d="M2.5 12s3.5-6.5 9.5-6.5 9.5 6.5 9.5 6.5-3.5 6.5-9.5 6.5S2.5 12 2.5 12Z" />

@@ -1,14 +1,14 @@
 import type { ReactNode } from 'react';
-import { AlertIcon, InfoIcon } from './icons';
+import { FaultIcon, InfoIcon } from './icons';
 
 export function Notice({ tone = 'info', title, children }: { tone?: 'info' | 'problem'; title?: string; children?: ReactNode }) {
   const problem = tone === 'problem';
   return (
     <div
       role={problem ? 'alert' : 'status'}
-      className={`flex gap-3 rounded-card border p-3 text-sm ${problem ? 'border-ember bg-ember-tint text-slate' : 'border-harbour bg-harbour-tint text-slate'}`}
+      className={`flex gap-3 rounded-card border p-3 text-sm ${problem ? 'border-fault bg-fault-tint text-slate' : 'border-harbour bg-harbour-tint text-slate'}`}
     >
-      <span className={problem ? 'text-ember' : 'text-harbour-deep'}>{problem ? <AlertIcon /> : <InfoIcon />}</span>
+      <span className={problem ? 'text-fault' : 'text-harbour-deep'}>{problem ? <FaultIcon /> : <InfoIcon />}</span>
       <div className="flex flex-col gap-1">
         {title ? <p className="font-semibold">{title}</p> : null}
         {children}

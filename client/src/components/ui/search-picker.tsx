@@ -63,7 +63,7 @@ export interface SearchPickerProps<T> {
 }
 
 const controlClass =
-  'block w-full min-h-tap rounded-control border border-seam-strong bg-cloth-raised py-2 pl-3 text-base text-slate placeholder:text-slate-soft aria-[invalid=true]:border-2 aria-[invalid=true]:border-ember';
+  'block w-full min-h-tap rounded-control border border-seam-strong bg-cloth-raised py-2 pl-3 text-base text-slate placeholder:text-slate-soft aria-[invalid=true]:border-2 aria-[invalid=true]:border-fault';
 
 /**
  * A text box that searches one list endpoint as you type and offers the first matches in a
@@ -266,7 +266,7 @@ export function SearchPicker<T>({
         {status}
       </p>
       {error ? (
-        <p id={`${id}-error`} className="flex items-start gap-1 text-sm font-semibold text-ember" role="alert">
+        <p id={`${id}-error`} className="flex items-start gap-1 text-sm font-semibold text-fault" role="alert">
           <span aria-hidden="true">▲</span>
           {error}
         </p>

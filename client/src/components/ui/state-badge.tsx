@@ -28,7 +28,8 @@ const LOOK: Record<JobState, { Icon: ComponentType<{ size?: number }>; tone: str
   cancelled: { Icon: SlashCircleIcon, tone: 'bg-transparent text-slate-soft border-slate-soft border-dashed' },
 };
 
-export function StateBadge({ state, size = 'md' }: { state: JobState; size?: 'md' | 'lg' }) {
+/** `words`: the labels to use — the owner's pages pass the owner's own (OWNER_JOB_STATE_LABELS). */
+export function StateBadge({ state, size = 'md', words = JOB_STATE_LABELS }: { state: JobState; size?: 'md' | 'lg'; words?: Record<JobState, string> }) {
   const { Icon, tone } = LOOK[state];
   return (
     <span
@@ -38,7 +39,7 @@ export function StateBadge({ state, size = 'md' }: { state: JobState; size?: 'md
       }`}
     >
       <Icon size={size === 'lg' ? 18 : 15} />
-      {JOB_STATE_LABELS[state]}
+      {words[state]}
     </span>
   );
 }

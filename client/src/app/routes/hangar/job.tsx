@@ -12,6 +12,8 @@ import { describeRaise, RaiseFinding, type UnsentPhotos } from '@/features/findi
 import { FindingActions } from '@/features/findings/components/finding-actions';
 import { FindingsList } from '@/features/findings/components/findings-list';
 import { TimeLog } from '@/features/findings/components/time-log';
+import { JobCautions } from '@/features/findings/components/job-cautions';
+import { HANGAR_WORDS } from '@/features/findings/words';
 import { jobQueryOptions } from '@/features/jobs/api/get-job';
 import { workshopQueryOptions } from '@/features/workshop/api/get-workshop';
 import { SAFETY_CAUTION } from '@/lib/cautions';
@@ -71,8 +73,9 @@ export function Component() {
           </span>
         }
       />
-      <div className="mb-4">
-        <Notice title="Safety">
+      <div className="mb-4 flex flex-col gap-3">
+        <JobCautions checklist={checklist} scopeCautions={job.scopeCautions} />
+        <Notice title={HANGAR_WORDS.whoCertifiesTitle}>
           <p>{SAFETY_CAUTION}</p>
         </Notice>
       </div>
@@ -162,8 +165,8 @@ export function Component() {
               />
             ) : findings.isError ? <p>Findings could not be loaded.</p> : <Loading />}
           </Card>
-          <Card title="Time">
-            {time.data ? <TimeLog jobId={id} entries={time.data} canLog={canWork} /> : time.isError ? <p>Time could not be loaded.</p> : <Loading />}
+          <Card title={HANGAR_WORDS.timeTitle}>
+            {time.data ? <TimeLog jobId={id} entries={time.data} canLog={canWork} canChangeAll={role === 'admin' || role === 'manager'} userId={session.user.id} /> : time.isError ? <p>Time could not be loaded.</p> : <Loading />}
           </Card>
         </div>
       </div>

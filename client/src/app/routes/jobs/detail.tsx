@@ -34,6 +34,7 @@ import { can } from '@/lib/permissions';
 import { queryClient } from '@/lib/query-client';
 import { requireSession, STAFF } from '../../guards';
 import { useCurrentSession } from '../../use-current-session';
+import { GO_AHEAD } from '@/features/approvals/words';
 
 export async function loader({ request, params }: LoaderFunctionArgs) {
   await requireSession(request, STAFF);
@@ -267,11 +268,11 @@ function JobEstimate({ job, role, estimate, workshop, findings }: { job: JobDto;
             <Loading />
           )}
         </Card>
-        <Card title="Pre-authorised limit">
+        <Card title={GO_AHEAD.title}>
           {limit.data ? (
             <PreAuthorisation jobId={job.id} jobVersion={job.version} limit={limit.data} currency={workshop.currency} canEdit={canSend} />
           ) : limit.isError ? (
-            <p>The pre-authorised limit could not be loaded.</p>
+            <p>{GO_AHEAD.loadFailed}</p>
           ) : (
             <Loading />
           )}

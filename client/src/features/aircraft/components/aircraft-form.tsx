@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { aircraftCreateSchema, type AircraftCreate, type AircraftDto } from '@wingstage/shared';
+import { TEXT_MAX, aircraftCreateSchema, type AircraftCreate, type AircraftDto } from '@wingstage/shared';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
@@ -70,7 +70,7 @@ export function AircraftForm<O>({
         <TextField label={AIRCRAFT_LABELS.airframeHours} inputMode="decimal" autoComplete="off" error={e.airframeHours?.message} {...register('airframeHours')} />
         <TextField label={AIRCRAFT_LABELS.engineHours} inputMode="decimal" autoComplete="off" error={e.engineHours?.message} {...register('engineHours')} />
       </div>
-      <TextAreaField label={AIRCRAFT_LABELS.notes} rows={3} error={e.notes?.message} {...register('notes')} />
+      <TextAreaField label={AIRCRAFT_LABELS.notes} rows={3} maxChars={TEXT_MAX.notes} error={e.notes?.message} {...register('notes')} />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" busy={formState.isSubmitting}>
           {submitLabel}

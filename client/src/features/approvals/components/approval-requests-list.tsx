@@ -81,7 +81,7 @@ export function ApprovalRequestsList({ jobId, requests, findings, currency, canA
             </p>
           ) : null}
           {problem?.id === r.id ? (
-            <p role="alert" className="text-sm font-semibold text-ember">
+            <p role="alert" className="text-sm font-semibold text-fault">
               {problem.message}
             </p>
           ) : null}

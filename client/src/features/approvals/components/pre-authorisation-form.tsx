@@ -11,8 +11,9 @@ import { isApiError } from '@/lib/api-client';
 import { withServerErrors } from '@/lib/form-errors';
 import { formatMoney } from '@/lib/format';
 import { useSavePreAuthorisation } from '../api/pre-authorisation';
+import { GO_AHEAD } from '../words';
 
-const LABELS = { perFinding: 'Up to, per finding (incl. VAT)', perJob: 'Up to, in total on this job (incl. VAT)', agreedHow: 'How the owner agreed it' };
+const LABELS = { perFinding: GO_AHEAD.fieldPerFinding, perJob: GO_AHEAD.fieldPerJob, agreedHow: GO_AHEAD.fieldAgreedHow };
 const blankToNull = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v);
 
 /** The owner's standing go-ahead, shown with what is left of it; the office may change it. */
@@ -37,26 +38,23 @@ export function PreAuthorisation({ jobId, jobVersion, limit, currency, canEdit }
       ) : (
         <>
           {none ? (
-            <p>No pre-authorised limit: every finding goes to the owner for a decision.</p>
+            <p>{GO_AHEAD.none}</p>
           ) : (
             <Facts
               items={[
-                { label: 'Per finding', value: limit.perFinding ? formatMoney(limit.perFinding, currency, { vat: 'incl' }) : 'No limit of this kind' },
-                { label: 'On this job in total', value: limit.perJob ? formatMoney(limit.perJob, currency, { vat: 'incl' }) : 'No limit of this kind' },
-                { label: 'Used so far', value: formatMoney(limit.usedSoFar, currency, { vat: 'incl' }) },
-                { label: 'Headroom left', value: limit.headroom === null ? 'No job total set' : formatMoney(limit.headroom, currency, { vat: 'incl' }) },
-                { label: 'Agreed', value: limit.agreedHow },
+                { label: GO_AHEAD.perFinding, value: limit.perFinding ? formatMoney(limit.perFinding, currency, { vat: 'incl' }) : GO_AHEAD.noneOfKind },
+                { label: GO_AHEAD.perJob, value: limit.perJob ? formatMoney(limit.perJob, currency, { vat: 'incl' }) : GO_AHEAD.noneOfKind },
+                { label: GO_AHEAD.usedSoFar, value: formatMoney(limit.usedSoFar, currency, { vat: 'incl' }) },
+                { label: GO_AHEAD.headroom, value: limit.headroom === null ? GO_AHEAD.noJobTotal : formatMoney(limit.headroom, currency, { vat: 'incl' }) },
+                { label: GO_AHEAD.agreed, value: limit.agreedHow },
               ]}
             />
           )}
-          <p className="text-xs text-slate-soft">
-            Findings inside the limit are approved on the owner's behalf when you send, marked so, and reported to the owner. An airworthiness finding still has to be put
-            right before release, whoever approves it.
-          </p>
+          <p className="text-xs text-slate-soft">{GO_AHEAD.explain}</p>
           {canEdit ? (
             <div>
               <Button variant="secondary" onClick={() => { setNotice(null); setEditing(true); }}>
-                {none ? 'Set a limit' : 'Change the limit'}
+                {none ? GO_AHEAD.set : GO_AHEAD.change}
               </Button>
             </div>
           ) : null}
@@ -81,26 +79,26 @@ function LimitForm({ jobId, jobVersion, limit, onDone }: { jobId: string; jobVer
       Object.keys(LABELS),
       async (values) => {
         await save.mutateAsync(values);
-        onDone('Limit saved.');
+        onDone(GO_AHEAD.saved);
       },
       (err) => {
         if (!(isApiError(err) && err.code === 'stale_version')) return false;
-        onDone('Someone else changed this job meanwhile, so the limit was not saved. The page now shows the latest; set it again.');
+        onDone(GO_AHEAD.stale);
         return true;
       },
     ),
   );
   return (
-    <form onSubmit={submit} noValidate aria-label="Pre-authorised limit" className="flex flex-col gap-3">
+    <form onSubmit={submit} noValidate aria-label={GO_AHEAD.formLabel} className="flex flex-col gap-3">
       <FormErrorSummary message={summary} errors={e} labels={LABELS} />
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField label={LABELS.perFinding} inputMode="decimal" hint="Leave empty for no per-finding limit." error={e.perFinding?.message} {...register('perFinding', { setValueAs: blankToNull })} />
-        <TextField label={LABELS.perJob} inputMode="decimal" hint="Leave empty for no job total." error={e.perJob?.message} {...register('perJob', { setValueAs: blankToNull })} />
+        <TextField label={LABELS.perFinding} inputMode="decimal" hint={GO_AHEAD.hintPerFinding} error={e.perFinding?.message} {...register('perFinding', { setValueAs: blankToNull })} />
+        <TextField label={LABELS.perJob} inputMode="decimal" hint={GO_AHEAD.hintPerJob} error={e.perJob?.message} {...register('perJob', { setValueAs: blankToNull })} />
       </div>
       <TextField label={LABELS.agreedHow} placeholder="e.g. Phone call with the owner, 26 Nov" error={e.agreedHow?.message} {...register('agreedHow')} />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" busy={formState.isSubmitting}>
-          Save limit
+          {GO_AHEAD.save}
         </Button>
         <Button variant="secondary" onClick={() => onDone()}>
           Cancel

@@ -162,7 +162,7 @@ describe('SendForApproval', () => {
     renderPanel();
     fireEvent.change(screen.getByLabelText('A short message to the owner (optional)'), { target: { value: 'Two things turned up.' } });
     fireEvent.click(screen.getByRole('button', { name: 'Send for approval' }));
-    expect(await screen.findByText(/Approved within the pre-authorised limit, and reported to the owner: F-1 \(£76\.37 incl\. VAT\)/)).toBeTruthy();
+    expect(await screen.findByText(/Approved under the owner's standing go-ahead, and reported to the owner: F-1 \(£76\.37 incl\. VAT\)/)).toBeTruthy();
     expect(screen.getByTestId('request-sent').textContent).toContain('Request sent to Saltmarsh Flyers Group with F-2, £37.20 incl. VAT');
     await waitFor(() => expect(fetchMock).toHaveBeenCalled());
     const [url, init] = fetchMock.mock.calls[0]!;

@@ -15,6 +15,7 @@ import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
 import { formatDateTime, formatMoney } from '@/lib/format';
 import { useSendForApproval } from '../api/approval-requests';
+import { SENDING } from '../words';
 
 /** A priced finding may be ticked and sent; anything else waits or has been decided. */
 export const sendable = (f: FindingDto) => f.state === 'priced';
@@ -118,7 +119,7 @@ export function SendForApproval({
         <Notice title="Done">
           {result.approvedWithinLimit.length > 0 ? (
             <p>
-              Approved within the pre-authorised limit, and reported to the owner:{' '}
+              {SENDING.approvedUnderGoAhead}{' '}
               {result.approvedWithinLimit.map((a) => `${a.number} (${formatMoney(a.gross, currency, { vat: 'incl' })})`).join(', ')}.
             </p>
           ) : null}
@@ -129,7 +130,7 @@ export function SendForApproval({
               {formatMoney(result.request.gross, currency, { vat: 'incl' })}. The link works until {formatDateTime(result.request.expiresAt)}.
             </p>
           ) : (
-            <p>Nothing was left to send: every finding fell inside the limit.</p>
+            <p>{SENDING.nothingLeft}</p>
           )}
         </Notice>
       ) : null}
@@ -166,13 +167,11 @@ export function SendForApproval({
             />
           </div>
           {chosen.some((f) => f.category === 'airworthiness') ? (
-            <p className="text-sm">
-              An airworthiness finding is ticked: if the owner declines it, the aircraft cannot be released while it is open, and the page tells them so.
-            </p>
+            <p className="text-sm">{SENDING.airworthinessTicked}</p>
           ) : null}
           {unsaved ? <p className="text-sm font-semibold">Save the estimate first: the owner is sent the prices as saved.</p> : null}
           {problem ? (
-            <p role="alert" className="text-sm font-semibold text-ember">
+            <p role="alert" className="text-sm font-semibold text-fault">
               {problem}
             </p>
           ) : null}

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { SUPPLIER_KINDS, SUPPLIER_KIND_LABELS, supplierCreateSchema, type SupplierDto } from '@wingstage/shared';
+import { TEXT_MAX, SUPPLIER_KINDS, SUPPLIER_KIND_LABELS, supplierCreateSchema, type SupplierDto } from '@wingstage/shared';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
@@ -53,7 +53,7 @@ export function SupplierForm({ supplier, onDone }: { supplier: SupplierDto | nul
         <TextField label={LABELS.email} type="email" autoComplete="off" error={e.email?.message} {...register('email')} />
         <TextField label={LABELS.phone} type="tel" autoComplete="off" error={e.phone?.message} {...register('phone')} />
       </div>
-      <TextAreaField label={LABELS.notes} rows={2} error={e.notes?.message} {...register('notes')} />
+      <TextAreaField label={LABELS.notes} rows={2} maxChars={TEXT_MAX.notes} error={e.notes?.message} {...register('notes')} />
       {supplier ? (
         <label className="flex min-h-11 items-center gap-2">
           <input type="checkbox" className="size-5" checked={active} onChange={(ev) => setActive(ev.target.checked)} />

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { CUSTOMER_KINDS, CUSTOMER_KIND_LABELS, customerCreateSchema, type CustomerCreate, type CustomerDto } from '@wingstage/shared';
+import { TEXT_MAX, CUSTOMER_KINDS, CUSTOMER_KIND_LABELS, customerCreateSchema, type CustomerCreate, type CustomerDto } from '@wingstage/shared';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
@@ -54,9 +54,9 @@ export function CustomerForm({
         <TextField label={CUSTOMER_LABELS.email} type="email" inputMode="email" required autoComplete="off" error={e.email?.message} {...register('email')} />
         <TextField label={CUSTOMER_LABELS.phone} type="tel" inputMode="tel" autoComplete="off" error={e.phone?.message} {...register('phone')} />
       </div>
-      <TextAreaField label={CUSTOMER_LABELS.addressLines} rows={3} error={e.addressLines?.message} {...register('addressLines')} />
+      <TextAreaField label={CUSTOMER_LABELS.addressLines} rows={3} maxChars={TEXT_MAX.address} error={e.addressLines?.message} {...register('addressLines')} />
       <TextField label={CUSTOMER_LABELS.postcode} className="sm:max-w-40" autoComplete="off" error={e.postcode?.message} {...register('postcode')} />
-      <TextAreaField label={CUSTOMER_LABELS.notes} rows={3} error={e.notes?.message} {...register('notes')} />
+      <TextAreaField label={CUSTOMER_LABELS.notes} rows={3} maxChars={TEXT_MAX.notes} error={e.notes?.message} {...register('notes')} />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" busy={formState.isSubmitting}>
           {submitLabel}

@@ -22,6 +22,7 @@ import { LINE_KIND_LABELS, STAGE_LABELS } from '@/lib/line-kinds';
 import { VAT_RATE_LABELS } from '@/lib/pricing-preview';
 import { EstimateTotals } from './estimate-totals';
 import { EDITABLE_STAGES, newId, type EstimateDraftApi } from './use-estimate-draft';
+import { UnsavedChangesGuard } from '@/components/ui/unsaved-changes';
 
 export interface FindingRef {
   id: string;
@@ -154,6 +155,27 @@ export function EstimateBuilder({
           </Notice>
         </div>
       ) : null}
+      {api.large ? (
+        <div className="mb-4" data-testid="confirm-large">
+          <Notice title="Check these figures before saving">
+            <p>These are larger than a light-aircraft job usually needs, so nothing is saved until you confirm them:</p>
+            <ul className="list-disc pl-5">
+              {api.large.map((f) => (
+                <li key={`${f.index}-${f.field}-${f.message}`}>{f.message}</li>
+              ))}
+            </ul>
+            <div className="mt-2 flex flex-wrap gap-2">
+              <Button onClick={() => void api.save({ confirmLarge: true, over: conflict?.theirVersion })} busy={api.saving}>
+                They are right: save
+              </Button>
+              <Button variant="secondary" onClick={api.dismissLarge}>
+                Let me correct them
+              </Button>
+            </div>
+          </Notice>
+        </div>
+      ) : null}
+      {editable ? <UnsavedChangesGuard when={draft.dirty} what="the estimate" /> : null}
 
       <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_20rem]">
         <div className="flex min-w-0 flex-col gap-5">
@@ -288,7 +310,7 @@ function EditableLine({
   const set = (patch: Partial<EstimateLineDto>) => api.updateLine(l.id, patch);
   const opt = (v: string) => (v.trim() === '' ? null : v.trim());
   return (
-    <div className={`flex flex-col gap-2 rounded-control border bg-cloth p-2.5 ${error ? 'border-2 border-ember' : 'border-seam'}`} data-line-kind={l.kind}>
+    <div className={`flex flex-col gap-2 rounded-control border bg-cloth p-2.5 ${error ? 'border-2 border-fault' : 'border-seam'}`} data-line-kind={l.kind}>
       <div className="flex flex-wrap items-center justify-between gap-2">
         <span className="text-xs font-semibold uppercase tracking-wide text-slate-soft">{LINE_KIND_LABELS[l.kind]}</span>
         {finding ? <FindingTag finding={finding} /> : null}
@@ -395,7 +417,7 @@ function EditableLine({
         ) : null}
       </div>
       {error ? (
-        <p className="text-sm font-semibold text-ember" role="alert">
+        <p className="text-sm font-semibold text-fault" role="alert">
           <span aria-hidden="true">▲ </span>
           {error}
         </p>
@@ -450,7 +472,7 @@ function AccessTasks({ api, workshop, editable, currency }: { api: EstimateDraft
         {tasks.map((t) => {
           const p = pricedTasks.get(t.id);
           return (
-            <li key={t.id} className={`flex flex-col gap-2 rounded-control border bg-cloth p-2.5 ${api.lineErrors[t.id] ? 'border-2 border-ember' : 'border-seam'}`}>
+            <li key={t.id} className={`flex flex-col gap-2 rounded-control border bg-cloth p-2.5 ${api.lineErrors[t.id] ? 'border-2 border-fault' : 'border-seam'}`}>
               {editable ? (
                 <div className="flex flex-wrap gap-2">
                   <Small label="Access task" wide>
@@ -485,7 +507,7 @@ function AccessTasks({ api, workshop, editable, currency }: { api: EstimateDraft
                   {p && p.committedRemedies > 1 ? ` · shared by ${p.committedRemedies}, saving ${formatMoney(p.savingGross, currency, { vat: 'incl' })}` : ''}
                 </span>
                 {api.lineErrors[t.id] ? (
-                  <span className="font-semibold text-ember" role="alert">
+                  <span className="font-semibold text-fault" role="alert">
                     ▲ {api.lineErrors[t.id]}
                   </span>
                 ) : null}

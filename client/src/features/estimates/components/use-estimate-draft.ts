@@ -1,6 +1,9 @@
 import {
   estimateEngineInput,
+  estimateLargeFigures,
+  estimateLineSchema,
   estimateSaveSchema,
+  type LargeFigure,
   priceEstimate,
   type AccessTaskDto,
   type EstimateDto,
@@ -46,6 +49,23 @@ export function newId(): string {
 
 const fromServer = (e: EstimateDto): Draft => ({ lines: e.lines, accessTasks: e.accessTasks, baseVersion: e.version, dirty: false });
 
+const FIGURES = new Set(['quantity', 'ratePerHour', 'unitCost', 'unitPrice', 'markupPercent', 'amount', 'discountPercent']);
+
+/**
+ * Why the totals cannot be worked out, in the person's words: the first line whose figure the
+ * shared schema refuses, named by its description. The engine's own messages name fields by their
+ * place in its input (`lines[1].quantity`), which is for programmers, not for the manager.
+ */
+export function figureProblem(lines: readonly EstimateLineDto[]): string {
+  for (const l of lines) {
+    if (!EDITABLE_STAGES.has(l.stage)) continue;
+    const checked = estimateLineSchema.safeParse(l);
+    const issue = checked.success ? undefined : checked.error.issues.find((i) => FIGURES.has(String(i.path[0])));
+    if (issue) return `"${l.description || 'A new line'}": ${issue.message}`;
+  }
+  return 'a figure on one of the lines is not a number yet.';
+}
+
 /** Only these stages are the manager's to change; approved and declined lines are the owner's decisions. */
 export const EDITABLE_STAGES = new Set(['inspection', 'discovered']);
 
@@ -61,6 +81,8 @@ export function useEstimateDraft(jobId: string, estimate: EstimateDto, pricing: 
   const [problem, setProblem] = useState<string | null>(null);
   const [lineErrors, setLineErrors] = useState<Record<string, string>>({});
   const [savedAt, setSavedAt] = useState<number | null>(null);
+  /** Figures larger than a light-aircraft job usually needs, waiting for the person to confirm them. */
+  const [large, setLarge] = useState<LargeFigure[] | null>(null);
 
   // A newer version from the server replaces the view only when nothing here is unsaved;
   // otherwise the manager's lines stay and the save will say what happened.
@@ -74,8 +96,8 @@ export function useEstimateDraft(jobId: string, estimate: EstimateDto, pricing: 
       const priced = priceEstimate(estimateEngineInput(draft.lines, draft.accessTasks), pricing);
       lastGood.current = priced;
       return { ok: true, priced };
-    } catch (e) {
-      return { ok: false, priced: lastGood.current, problem: (e as Error).message };
+    } catch {
+      return { ok: false, priced: lastGood.current, problem: figureProblem(draft.lines) };
     }
   }, [draft.lines, draft.accessTasks, pricing]);
 
@@ -116,13 +138,21 @@ export function useEstimateDraft(jobId: string, estimate: EstimateDto, pricing: 
   );
 
   const save = useCallback(
-    async (opts: { over?: number } = {}) => {
+    async (opts: { over?: number; confirmLarge?: boolean } = {}) => {
       setProblem(null);
       setLineErrors({});
+      setLarge(null);
       const version = opts.over ?? draft.baseVersion;
-      const body = { version, lines: draft.lines.filter((l) => EDITABLE_STAGES.has(l.stage)), accessTasks: draft.accessTasks };
+      const confirmLarge = opts.confirmLarge ?? false;
+      const body = { version, lines: draft.lines.filter((l) => EDITABLE_STAGES.has(l.stage)), accessTasks: draft.accessTasks, confirmLarge };
       const parsed = estimateSaveSchema.safeParse(body);
       if (!parsed.success) {
+        const onlyLarge = parsed.error.issues.every((i) => i.path[0] === 'confirmLarge');
+        if (onlyLarge) {
+          // Nothing is wrong, only large: ask, and save when the person confirms.
+          setLarge(estimateLargeFigures(body));
+          return false;
+        }
         const errs: Record<string, string> = {};
         for (const issue of parsed.error.issues) {
           const [where, index] = issue.path;
@@ -156,6 +186,10 @@ export function useEstimateDraft(jobId: string, estimate: EstimateDto, pricing: 
           }
           return false;
         }
+        if (isApiError(e) && e.fields.confirmLarge) {
+          setLarge(estimateLargeFigures(body));
+          return false;
+        }
         if (isApiError(e) && Object.keys(e.fields).length > 0) {
           const errs: Record<string, string> = {};
           for (const [path, message] of Object.entries(e.fields)) {
@@ -174,7 +208,7 @@ export function useEstimateDraft(jobId: string, estimate: EstimateDto, pricing: 
     [draft, jobId, qc],
   );
 
-  return { draft, live, conflict, saving, problem, lineErrors, savedAt, updateLine, addLines, removeLine, updateTask, removeTask, discard, save };
+  return { draft, live, conflict, saving, problem, lineErrors, savedAt, large, dismissLarge: () => setLarge(null), updateLine, addLines, removeLine, updateTask, removeTask, discard, save };
 }
 
 export type EstimateDraftApi = ReturnType<typeof useEstimateDraft>;

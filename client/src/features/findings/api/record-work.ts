@@ -1,4 +1,4 @@
-import type { ChecklistRecordInput, FindingCreateInput, FindingDto, JobChecklistItemDto, TimeLogCreateInput, TimeLogDto } from '@wingstage/shared';
+import type { ChecklistRecordInput, FindingCreateInput, FindingDto, JobChecklistItemDto, TimeLogCreateInput, TimeLogDto, TimeLogRemoveInput, TimeLogUpdateInput } from '@wingstage/shared';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, isApiError } from '@/lib/api-client';
 import { jobKeysBase } from '@/lib/job-keys';
@@ -32,4 +32,19 @@ export function useLogTime(jobId: string) {
     mutationFn: (body: TimeLogCreateInput) => api.post<TimeLogDto>(`/jobs/${jobId}/time`, body),
     onSuccess: () => qc.invalidateQueries({ queryKey: jobWorkKeys.time(jobId) }),
   });
+}
+
+/** Correcting or removing a time entry; the list (and the job's history) are read again after. */
+export function useChangeTime(jobId: string) {
+  const qc = useQueryClient();
+  const settle = () => qc.invalidateQueries({ queryKey: jobKeysBase.detail(jobId), predicate: (q) => q.queryKey[3] !== 'estimate' });
+  const update = useMutation({
+    mutationFn: (v: { timeId: string; body: TimeLogUpdateInput }) => api.patch<TimeLogDto>(`/jobs/${jobId}/time/${v.timeId}`, v.body),
+    onSettled: settle,
+  });
+  const remove = useMutation({
+    mutationFn: (v: { timeId: string; body: TimeLogRemoveInput }) => api.delete(`/jobs/${jobId}/time/${v.timeId}`, v.body),
+    onSettled: settle,
+  });
+  return { update, remove };
 }

@@ -42,7 +42,7 @@ export const CategoryChoice = forwardRef<HTMLInputElement, Omit<InputHTMLAttribu
           })}
         </div>
         {error ? (
-          <p id={errId} role="alert" className="text-sm font-semibold text-ember">
+          <p id={errId} role="alert" className="text-sm font-semibold text-fault">
             <span aria-hidden="true">▲ </span>
             {error}
           </p>

@@ -1,5 +1,5 @@
 import type { JobChecklistItemDto } from '@wingstage/shared';
-import { fireEvent, screen } from '@testing-library/react';
+import { fireEvent, screen, within } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
 import { renderWithApp } from '@/testing/render';
 import { Checklist } from './checklist';
@@ -9,6 +9,7 @@ const item: JobChecklistItemDto = {
   section: 'Engine',
   text: 'Spark plug electrode gap, each plug',
   limit: { min: '0.6', max: '0.9', unit: 'mm', source: 'Example only' },
+  caution: '',
   result: 'measured',
   measuredValue: '0.9700',
   limitCheck: 'above',
@@ -38,5 +39,22 @@ describe('Checklist', () => {
     renderWithApp(<Checklist jobId="j" items={[{ ...item, findingId: '1b2c3d4e-5f6a-4b7c-8d9e-0f1a2b3c4d5e' }]} canRecord onRaise={vi.fn()} />);
     expect(screen.queryByRole('button', { name: 'Raise finding' })).toBeNull();
     expect(screen.getByText('A finding has been raised for this item.')).toBeTruthy();
+  });
+
+  it('when an item carries a caution, then it is shown beside the item with the word "Caution", apart from errors', () => {
+    const caution = 'Treat the propeller as live: ignition off, plug leads removed, clear the arc.';
+    renderWithApp(<Checklist jobId="j" items={[{ ...item, caution }]} canRecord onRaise={vi.fn()} />);
+    const note = document.querySelector('[data-caution]');
+    expect(note?.textContent).toBe(`Caution: ${caution}`);
+    expect(note?.getAttribute('role')).toBeNull();
+  });
+
+  it('when an item has no measured limit, then "Record value" is not offered; an item with a limit offers it', () => {
+    const logbook = { ...item, id: '2b0c1d7e-8f3a-4b61-9d2e-0a1b2c3d4e5f', text: 'Logbooks up to date', section: 'Records', limit: null, result: null, measuredValue: null, limitCheck: null };
+    renderWithApp(<Checklist jobId="j" items={[logbook, { ...item, result: null, measuredValue: null, limitCheck: null }]} canRecord onRaise={vi.fn()} />);
+    const records = screen.getByRole('group', { name: 'Record Logbooks up to date' });
+    expect(within(records).queryByRole('button', { name: /Record value/ })).toBeNull();
+    expect(within(records).getAllByRole('button').map((b) => b.textContent)).toEqual(['Pass', 'Fail', 'N/A']);
+    expect(within(screen.getByRole('group', { name: `Record ${item.text}` })).getByRole('button', { name: /Record value/ })).toBeTruthy();
   });
 });

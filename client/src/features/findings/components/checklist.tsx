@@ -6,6 +6,7 @@ import { isApiError } from '@/lib/api-client';
 import { trimDecimal } from '@/lib/format';
 import { useRecordChecklist } from '../api/record-work';
 import type { FindingPrefill } from './finding-form';
+import { HazardNote } from './hazard-note';
 
 /** What an out-of-limit measurement proposes as a finding: the item, the value and the limit. */
 export function prefillFromItem(item: JobChecklistItemDto): FindingPrefill {
@@ -85,6 +86,8 @@ function ChecklistItem({ jobId, item, canRecord, onRaise }: { jobId: string; ite
   };
 
   const ResultIcon = item.result ? RESULT_ICON[item.result] : null;
+  // Only an item with a measured limit can be measured; a logbook check is passed or failed.
+  const measurable = item.limit !== null || item.result === 'measured';
 
   return (
     <article
@@ -111,6 +114,7 @@ function ChecklistItem({ jobId, item, canRecord, onRaise }: { jobId: string; ite
             <span className="text-slate-soft">Not yet recorded</span>
           )}
         </p>
+        {item.caution ? <HazardNote text={item.caution} /> : null}
       </div>
 
       {outside && item.limit ? (
@@ -144,7 +148,7 @@ function ChecklistItem({ jobId, item, canRecord, onRaise }: { jobId: string; ite
       ) : null}
 
       {problem ? (
-        <p role="alert" className="text-sm font-semibold text-ember">
+        <p role="alert" className="text-sm font-semibold text-fault">
           <span aria-hidden="true">▲ </span>
           {problem}
         </p>
@@ -181,7 +185,7 @@ function ChecklistItem({ jobId, item, canRecord, onRaise }: { jobId: string; ite
             </Button>
           </form>
         ) : (
-          <div className="grid grid-cols-2 gap-2 sm:grid-cols-4" role="group" aria-label={`Record ${item.text}`}>
+          <div className={`grid grid-cols-2 gap-2 ${measurable ? 'sm:grid-cols-4' : 'sm:grid-cols-3'}`} role="group" aria-label={`Record ${item.text}`}>
             {(['pass', 'fail', 'na'] as const).map((r) => {
               const Icon = RESULT_ICON[r];
               const current = item.result === r;
@@ -199,10 +203,12 @@ function ChecklistItem({ jobId, item, canRecord, onRaise }: { jobId: string; ite
                 </Button>
               );
             })}
-            <Button size="lg" variant={item.result === 'measured' ? 'primary' : 'secondary'} aria-pressed={item.result === 'measured'} onClick={() => setMeasuring(true)}>
-              <GaugeIcon size={18} />
-              Record value
-            </Button>
+            {measurable ? (
+              <Button size="lg" variant={item.result === 'measured' ? 'primary' : 'secondary'} aria-pressed={item.result === 'measured'} onClick={() => setMeasuring(true)}>
+                <GaugeIcon size={18} />
+                Record value
+              </Button>
+            ) : null}
           </div>
         )
       ) : null}

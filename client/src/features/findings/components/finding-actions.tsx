@@ -41,7 +41,7 @@ export function FindingActions({ jobId, finding, role }: { jobId: string; findin
         </Button>
       ) : null}
       {problem ? (
-        <p role="alert" className="w-full text-sm font-semibold text-ember">
+        <p role="alert" className="w-full text-sm font-semibold text-fault">
           {problem}
         </p>
       ) : null}

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { describeLimit, findingCreateSchema, type ChecklistLimit, type FindingCategory, type FindingCreateInput, type PartDto, type WorkshopDto } from '@wingstage/shared';
+import { TEXT_MAX, describeLimit, findingCreateSchema, type ChecklistLimit, type FindingCategory, type FindingCreateInput, type PartDto, type WorkshopDto } from '@wingstage/shared';
 import { useState, type ReactNode } from 'react';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
@@ -76,7 +76,7 @@ export function FindingForm({
       <TextField label={LABELS.title} required autoComplete="off" error={e.title?.message} {...register('title')} />
       <TextField label={LABELS.location} required autoComplete="off" hint="e.g. Engine, cylinder 2, lower plug" error={e.location?.message} {...register('location')} />
       <CategoryChoice current={category ?? null} error={e.category?.message} {...register('category')} />
-      <TextAreaField label={LABELS.seen} required rows={4} error={e.seen?.message} {...register('seen')} />
+      <TextAreaField label={LABELS.seen} required rows={4} maxChars={TEXT_MAX.seen} error={e.seen?.message} {...register('seen')} />
 
       <fieldset className="flex flex-col gap-3 rounded-card border border-seam p-3">
         <legend className="px-1 font-semibold">Photos</legend>
@@ -85,7 +85,7 @@ export function FindingForm({
 
       <fieldset className="flex flex-col gap-3 rounded-card border border-seam p-3">
         <legend className="px-1 font-semibold">Proposed remedy</legend>
-        <TextAreaField label="What should be done" rows={2} error={e.remedy?.description?.message} {...register('remedy.description')} />
+        <TextAreaField label="What should be done" rows={2} maxChars={TEXT_MAX.remedy} error={e.remedy?.description?.message} {...register('remedy.description')} />
         <div className="grid grid-cols-2 gap-3">
           <TextField label={LABELS['remedy.hours']} inputMode="decimal" error={e.remedy?.hours?.message} {...register('remedy.hours', nullable)} />
           <SelectField label="Labour rate" {...register('remedy.labourRateCode', nullable)}>

@@ -137,7 +137,7 @@ export function FindingPhotos({
         </p>
       ) : null}
       {problem && !adding ? (
-        <p role="alert" className="text-sm font-semibold text-ember">
+        <p role="alert" className="text-sm font-semibold text-fault">
           {problem}
         </p>
       ) : null}

@@ -18,7 +18,7 @@ describe('JobActions', () => {
   it('offers the next states from the shared table, labelled with their actions', () => {
     renderWithApp(<JobActions job={job} role="manager" />);
     const labels = screen.getAllByRole('button').map((b) => b.textContent);
-    expect(labels).toEqual(['Wait for owner', 'Mark ready for release', 'Cancel job']);
+    expect(labels).toEqual(['Hold for owner', 'Mark ready for release', 'Cancel job']);
   });
 
   it('offers an engineer only the start of an inspection', () => {
@@ -51,7 +51,7 @@ describe('JobActions', () => {
     );
     fetchMock.mockResolvedValue(new Response(JSON.stringify(job), { status: 200, headers: { 'Content-Type': 'application/json' } }));
     renderWithApp(<JobActions job={job} role="manager" />);
-    fireEvent.click(screen.getByRole('button', { name: 'Wait for owner' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Hold for owner' }));
     expect(await screen.findByText(/Someone else moved this job a moment ago/)).toBeTruthy();
   });
 
@@ -74,5 +74,29 @@ describe('JobActions', () => {
     await waitFor(() => expect(fetchMock).toHaveBeenCalled());
     const [, init] = fetchMock.mock.calls[0]!;
     expect(JSON.parse(String(init?.body))).toEqual({ to: 'cancelled', version: 3, reason: 'Owner sold the aircraft' });
+  });
+
+  it('when "Mark invoiced" is pressed, then nothing is sent until the person confirms, and "Not now" sends nothing', async () => {
+    const ready = aJob({ state: 'ready_for_release' });
+    fetchMock.mockResolvedValue(new Response(JSON.stringify({ ...ready, state: 'invoiced', version: 4 }), { status: 200, headers: { 'Content-Type': 'application/json' } }));
+    renderWithApp(<JobActions job={ready} role="manager" />);
+    fireEvent.click(screen.getByRole('button', { name: 'Mark invoiced' }));
+    expect(screen.getByText(/it does not issue one/)).toBeTruthy();
+    expect(fetchMock).not.toHaveBeenCalled();
+    fireEvent.click(screen.getByRole('button', { name: 'Not now' }));
+    expect(screen.queryByText(/it does not issue one/)).toBeNull();
+    expect(fetchMock).not.toHaveBeenCalled();
+
+    fireEvent.click(screen.getByRole('button', { name: 'Mark invoiced' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Yes, mark invoiced' }));
+    await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
+    expect(JSON.parse(String(fetchMock.mock.calls[0]![1]?.body))).toEqual({ to: 'invoiced', version: 3 });
+  });
+
+  it('when "Mark paid" is pressed, then it asks first too', () => {
+    renderWithApp(<JobActions job={aJob({ state: 'invoiced' })} role="accounts" />);
+    fireEvent.click(screen.getByRole('button', { name: 'Mark paid' }));
+    expect(screen.getByRole('button', { name: 'Yes, mark paid' })).toBeTruthy();
+    expect(fetchMock).not.toHaveBeenCalled();
   });
 });

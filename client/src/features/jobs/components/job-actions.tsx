@@ -6,6 +6,21 @@ import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
 import { useTransitionJob } from '../api/transition-job';
 
+/**
+ * Moves that stand for money are asked twice: they record that an invoice went out or that the
+ * money arrived, and cannot be taken back from this page.
+ */
+const ASK_FIRST: Partial<Record<JobState, { question: string; yes: string }>> = {
+  invoiced: {
+    question: 'Mark this job invoiced? It records that the invoice has gone to the owner; it does not issue one, and the job cannot go back to work afterwards.',
+    yes: 'Yes, mark invoiced',
+  },
+  paid: {
+    question: 'Mark this job paid? It records that the owner has paid in full; only do this once the money has arrived.',
+    yes: 'Yes, mark paid',
+  },
+};
+
 /** Engineers may only start an inspection; the rest of the moves belong to the office. */
 function offered(role: Role, from: JobState): readonly JobState[] {
   const next = nextJobStates(from);
@@ -21,6 +36,7 @@ export function JobActions({ job, role }: { job: JobDto; role: Role }) {
   const [cancelling, setCancelling] = useState(false);
   const [reason, setReason] = useState('');
   const [reasonError, setReasonError] = useState<string | undefined>();
+  const [confirming, setConfirming] = useState<JobState | null>(null);
   const states = offered(role, job.state);
 
   if (states.length === 0) {
@@ -33,6 +49,7 @@ export function JobActions({ job, role }: { job: JobDto; role: Role }) {
     try {
       await transition.mutateAsync(why ? { to, version: job.version, reason: why } : { to, version: job.version });
       setCancelling(false);
+      setConfirming(null);
       setReason('');
     } catch (e) {
       if (isApiError(e) && e.fields?.reason) {
@@ -59,12 +76,25 @@ export function JobActions({ job, role }: { job: JobDto; role: Role }) {
             variant={s !== 'cancelled' && JOB_STATES.indexOf(s) > JOB_STATES.indexOf(job.state) ? 'primary' : 'secondary'}
             busy={pending === s}
             disabled={pending !== null}
-            onClick={() => (s === 'cancelled' ? setCancelling(true) : void move(s))}
+            onClick={() => (s === 'cancelled' ? setCancelling(true) : ASK_FIRST[s] ? setConfirming(s) : void move(s))}
           >
             {JOB_TRANSITION_ACTIONS[s]}
           </Button>
         ))}
       </div>
+      {confirming && ASK_FIRST[confirming] ? (
+        <div role="group" aria-label={`Confirm: ${JOB_TRANSITION_ACTIONS[confirming]}`} className="flex flex-col gap-3 rounded-card border border-seam-strong bg-cloth-raised p-4">
+          <p>{ASK_FIRST[confirming].question}</p>
+          <div className="flex flex-wrap gap-2">
+            <Button busy={pending === confirming} disabled={pending !== null} onClick={() => void move(confirming)}>
+              {ASK_FIRST[confirming].yes}
+            </Button>
+            <Button variant="quiet" onClick={() => setConfirming(null)}>
+              Not now
+            </Button>
+          </div>
+        </div>
+      ) : null}
       {cancelling ? (
         <form
           className="flex flex-col gap-3 rounded-card border border-seam-strong bg-cloth-raised p-4"
@@ -82,7 +112,7 @@ export function JobActions({ job, role }: { job: JobDto; role: Role }) {
             hint="A cancelled job cannot be reopened. The reason is kept in the job's history."
             required
             rows={2}
-            maxLength={500}
+            maxChars={500}
             value={reason}
             error={reasonError}
             onChange={(e) => {

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { JOB_TYPES, JOB_TYPE_LABELS, jobUpdateSchema, type JobDto } from '@wingstage/shared';
+import { TEXT_MAX, JOB_TYPES, JOB_TYPE_LABELS, jobUpdateSchema, type JobDto } from '@wingstage/shared';
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
@@ -93,7 +93,7 @@ export function JobEditForm({ job, onDone }: { job: JobDto; onDone: (notice?: st
         <TextField label={LABELS.bookedInOn} type="date" error={e.bookedInOn?.message} {...register('bookedInOn')} />
         <TextField label={LABELS.dueOn} type="date" error={e.dueOn?.message} {...register('dueOn', { setValueAs: (v: unknown) => (v === '' || v == null ? null : v) })} />
       </div>
-      <TextAreaField label={LABELS.notes} rows={3} error={e.notes?.message} {...register('notes')} />
+      <TextAreaField label={LABELS.notes} rows={3} maxChars={TEXT_MAX.jobNotes} error={e.notes?.message} {...register('notes')} />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" busy={formState.isSubmitting}>
           Save changes

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { JOB_TYPES, JOB_TYPE_LABELS, jobCreateSchema, type JobCreate, type JobType, type TemplateSummaryDto } from '@wingstage/shared';
+import { TEXT_MAX, JOB_TYPES, JOB_TYPE_LABELS, jobCreateSchema, type JobCreate, type JobType, type TemplateSummaryDto } from '@wingstage/shared';
 import { useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
@@ -108,7 +108,7 @@ export function BookInForm<A>({
           {...register('dueOn', { setValueAs: (v: unknown) => (v === '' || v == null ? null : v) })}
         />
       </div>
-      <TextAreaField label={LABELS.notes} rows={3} error={e.notes?.message} {...register('notes')} />
+      <TextAreaField label={LABELS.notes} rows={3} maxChars={TEXT_MAX.jobNotes} error={e.notes?.message} {...register('notes')} />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" busy={formState.isSubmitting}>
           Book in

@@ -2,6 +2,7 @@ import type { AircraftDto, ApprovalRequestDto, EstimateDto, FindingDto, JobDto, 
 import { fireEvent, render, screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { MyAircraftLetter } from './my-aircraft-letter';
+import { STAFF_ONLY_WORDS } from '../words';
 
 const aircraft = (id: string, registration: string): AircraftDto => ({
   id,
@@ -33,6 +34,7 @@ const job = (id: string, aircraftId: string, title: string, state: JobDto['state
   bookedInOn: '2026-11-30',
   dueOn: null,
   notes: '',
+  scopeCautions: [],
   version: 0,
   createdAt: '',
   updatedAt: '',
@@ -50,10 +52,10 @@ describe('MyAircraftLetter', () => {
       />,
     );
     expect(screen.getByText('Dear Orla,')).toBeTruthy();
-    expect(screen.getByText(/One job is open/)).toBeTruthy();
+    expect(screen.getByText(/One job is in the hangar now\. Finished and cancelled jobs are listed too\./)).toBeTruthy();
     const first = within(screen.getByRole('list', { name: 'Jobs for Q-ORLA' }));
     expect(first.getByRole('heading', { name: 'Wing re-cover' })).toBeTruthy();
-    expect(first.getByText('Awaiting owner')).toBeTruthy();
+    expect(first.getByText('Waiting for your decision')).toBeTruthy();
     expect(first.getByText(/Nothing extra is done without your say-so/)).toBeTruthy();
     expect(first.queryByText('Carburettor balance')).toBeNull();
     expect(within(screen.getByRole('list', { name: 'Jobs for Q-ORLB' })).getByText('Closed')).toBeTruthy();
@@ -95,7 +97,8 @@ describe('MyAircraftLetter', () => {
     );
     const waiting = screen.getByTestId('decision-waiting');
     expect(waiting.textContent).toContain('Your decision is needed');
-    expect(waiting.textContent).toContain('Sent');
+    expect(waiting.textContent).toContain('Waiting for your decision');
+    expect(waiting.textContent).not.toContain('Sent');
     expect(waiting.textContent).toContain('two findings to approve or decline, £113.57 incl. VAT if you approve them all');
     expect(waiting.textContent).toContain('works until 8 Dec 2026');
     expect(screen.getByText('£600.00 incl. VAT', { selector: '[data-owner-total="committed"]' })).toBeTruthy();
@@ -130,5 +133,58 @@ describe('MyAircraftLetter', () => {
     expect(thumb.getAttribute('src')).toBe('/api/photos/ph-1?size=thumb');
     fireEvent.click(within(found).getByRole('button', { name: 'Photo 1 of F-1: Worn sail stitching' }));
     expect(within(screen.getByRole('dialog')).getByRole('img').getAttribute('src')).toBe('/api/photos/ph-1?size=full');
+  });
+
+  it('when jobs are paid or cancelled, then they are not counted as in the hangar, and the ready-for-release words leave flying to the inspector', () => {
+    render(
+      <MyAircraftLetter
+        firstName="Orla"
+        workshopName="Brackenfold Light Aircraft Engineering"
+        aircraft={[aircraft('a1', 'Q-ORLA')]}
+        jobs={[job('0001', 'a1', 'Annual', 'ready_for_release'), job('0002', 'a1', 'Prop', 'paid'), job('0003', 'a1', 'Gearbox', 'cancelled')]}
+      />,
+    );
+    expect(screen.getByText(/One job is in the hangar now/)).toBeTruthy();
+    expect(screen.getByText('Work finished')).toBeTruthy();
+    expect(screen.getByText(/whether the aircraft may fly is their decision/)).toBeTruthy();
+    expect(document.body.textContent).not.toMatch(/ready for the paperwork and release/);
+  });
+
+  it("when the workshop has a phone and e-mail, then the letter gives them where it asks the owner to get in touch", () => {
+    render(
+      <MyAircraftLetter
+        firstName="Orla"
+        workshopName="Brackenfold Light Aircraft Engineering"
+        contact={{ phone: '01632 960418', email: 'office@brackenfold.example' }}
+        aircraft={[]}
+        jobs={[]}
+      />,
+    );
+    const contact = screen.getByTestId('workshop-contact');
+    expect(within(contact).getByRole('link', { name: '01632 960418' }).getAttribute('href')).toBe('tel:01632960418');
+    expect(within(contact).getByRole('link', { name: 'office@brackenfold.example' }).getAttribute('href')).toBe('mailto:office@brackenfold.example');
+  });
+
+  it("shows none of the staff-only words, whatever state the jobs, findings and requests are in", () => {
+    const states: JobDto['state'][] = ['booked_in', 'inspecting', 'awaiting_owner', 'in_work', 'ready_for_release', 'invoiced', 'paid', 'closed', 'cancelled'];
+    const findingStates: FindingDto['state'][] = ['draft', 'priced', 'sent', 'approved', 'approved_within_limit', 'declined', 'withdrawn'];
+    const requestStates: ApprovalRequestDto['state'][] = ['sent', 'decided', 'expired', 'revoked', 'replaced'];
+    const t = (gross: string): Totals => ({ net: gross, vat: '0.00', gross, byRate: [] });
+    const estimate = { currency: 'GBP', priced: { quoted: t('556.13'), committed: t('600.00'), undecided: { ...t('113.57'), findings: 2 } } } as unknown as EstimateDto;
+    const jobs = states.map((s, i) => job(`j${i}`, 'a1', `Job ${i}`, s));
+    const money = Object.fromEntries(
+      jobs.map((j, i) => [
+        j.id,
+        {
+          estimate,
+          findings: findingStates.map((fs, k) => ({ id: `f${i}-${k}`, jobId: j.id, number: `F-${k + 1}`, title: `Finding ${k}`, category: 'advisory', state: fs, photos: [] }) as unknown as FindingDto),
+          requests: [{ id: `r${i}`, jobId: j.id, state: requestStates[i % requestStates.length]!, findingIds: ['x'], sentAt: '2026-12-01T10:00:00Z', expiresAt: '2026-12-08T10:00:00Z', gross: '10.00' } as ApprovalRequestDto],
+        },
+      ]),
+    );
+    render(<MyAircraftLetter firstName="Orla" workshopName="Brackenfold Light Aircraft Engineering" aircraft={[aircraft('a1', 'Q-ORLA')]} jobs={jobs} money={money} />);
+    const text = document.body.textContent ?? '';
+    for (const word of STAFF_ONLY_WORDS) expect(text, word).not.toContain(word);
+    expect(text).toContain('Approved under your standing go-ahead');
   });
 });

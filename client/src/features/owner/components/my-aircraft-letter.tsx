@@ -1,10 +1,11 @@
-import { JOB_TYPE_LABELS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto, type JobState } from '@wingstage/shared';
+import { JOB_TYPE_LABELS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto } from '@wingstage/shared';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { CategoryBadge, FindingStateBadge } from '@/components/ui/finding-badges';
 import { PhotoStrip } from '@/components/ui/photo-strip';
 import { EnvelopeIcon } from '@/components/ui/icons';
 import { StateBadge } from '@/components/ui/state-badge';
 import { formatDate, formatDateTime, formatHours, formatMoney } from '@/lib/format';
+import { IN_THE_HANGAR, OWNER_JOB_MEANING, OWNER_WORDS as W } from '../words';
 
 /** What the letter knows about the money on one job; either part may still be loading. */
 export interface JobMoney {
@@ -13,19 +14,6 @@ export interface JobMoney {
   /** What was found on the job, as the server lets the owner see it. */
   findings?: FindingDto[];
 }
-
-/** What each state means for the owner, in the workshop's words rather than the system's. */
-const MEANING: Record<JobState, string> = {
-  booked_in: 'We have it booked in and will start soon.',
-  inspecting: 'Our engineers are inspecting it now. If we find anything, we will price it and ask you before doing the work.',
-  awaiting_owner: 'We are waiting for your decision on some work. Nothing extra is done without your say-so.',
-  in_work: 'The agreed work is under way.',
-  ready_for_release: 'The work is finished and it is ready for the paperwork and release.',
-  invoiced: 'The invoice is ready for you.',
-  paid: 'Paid in full. Thank you.',
-  closed: 'All done and closed.',
-  cancelled: 'This job was cancelled.',
-};
 
 const WORDS = ['No', 'One', 'Two', 'Three', 'Four', 'Five', 'Six', 'Seven', 'Eight', 'Nine', 'Ten'];
 /** A letter spells out small numbers. */
@@ -42,7 +30,7 @@ function DecisionWaiting({ request, currency }: { request: ApprovalRequestDto; c
       </span>
       <div className="flex flex-col gap-1">
         <p className="flex flex-wrap items-center gap-2 font-semibold">
-          Your decision is needed <ApprovalRequestBadge state={request.state} />
+          {W.decisionNeeded} <ApprovalRequestBadge state={request.state} words={W.requestState} />
         </p>
         <p>
           On {formatDateTime(request.sentAt)} we e-mailed you {count(n, 'finding', 'findings').toLowerCase()} to approve or decline,{' '}
@@ -59,18 +47,18 @@ function MoneySoFar({ estimate }: { estimate: EstimateDto }) {
   const m = (a: string) => formatMoney(a, estimate.currency, { vat: 'incl' });
   const undecided = compareAmounts(p.undecided.gross, '0') > 0;
   return (
-    <dl className="mt-3 grid grid-cols-[1fr_auto] gap-x-4 gap-y-1 text-sm tabular-nums" aria-label="The money so far">
-      <dt>First quoted</dt>
+    <dl className="mt-3 grid grid-cols-[1fr_auto] gap-x-4 gap-y-1 text-sm tabular-nums" aria-label={W.moneyLabel}>
+      <dt>{W.quoted}</dt>
       <dd className="text-right" data-owner-total="quoted">
         {m(p.quoted.gross)}
       </dd>
-      <dt className="font-semibold">Agreed so far</dt>
+      <dt className="font-semibold">{W.agreed}</dt>
       <dd className="text-right font-semibold" data-owner-total="committed">
         {m(p.committed.gross)}
       </dd>
       {undecided ? (
         <>
-          <dt>Waiting for your decision</dt>
+          <dt>{W.undecided}</dt>
           <dd className="text-right" data-owner-total="undecided">
             {m(p.undecided.gross)}
           </dd>
@@ -88,8 +76,8 @@ function WhatWeFound({ findings }: { findings: FindingDto[] }) {
   const shown = findings.filter((f) => f.state !== 'withdrawn' && f.state !== 'draft');
   if (shown.length === 0) return null;
   return (
-    <section className="mt-3 flex flex-col gap-2" aria-label="What we found">
-      <h4 className="font-semibold">What we found</h4>
+    <section className="mt-3 flex flex-col gap-2" aria-label={W.whatWeFound}>
+      <h4 className="font-semibold">{W.whatWeFound}</h4>
       <ul className="flex flex-col gap-3">
         {shown.map((f) => (
           <li key={f.id} data-owner-finding={f.number} className="flex flex-col gap-2 border-t border-seam pt-2">
@@ -98,7 +86,7 @@ function WhatWeFound({ findings }: { findings: FindingDto[] }) {
             </p>
             <div className="flex flex-wrap items-center gap-2">
               <CategoryBadge category={f.category} />
-              <FindingStateBadge state={f.state} />
+              <FindingStateBadge state={f.state} words={W.findingState} />
             </div>
             <PhotoStrip photos={f.photos} label={`${f.number}: ${f.title}`} thumbSrc={thumb} fullSrc={full} />
           </li>
@@ -115,12 +103,12 @@ function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
     <li className="rounded-card border border-seam bg-cloth-raised p-4">
       <div className="flex flex-wrap items-start justify-between gap-2">
         <h3 className="text-lg font-semibold">{job.title}</h3>
-        <StateBadge state={job.state} size="lg" />
+        <StateBadge state={job.state} size="lg" words={W.jobState} />
       </div>
-      <p className="mt-2">{MEANING[job.state]}</p>
+      <p className="mt-2">{OWNER_JOB_MEANING[job.state]}</p>
       <p className="mt-2 text-sm text-slate-soft">
-        Job <span className="tabular-nums">{job.number}</span> · {JOB_TYPE_LABELS[job.type]} · booked in {formatDate(job.bookedInOn)}
-        {job.dueOn ? ` · due back ${formatDate(job.dueOn)}` : ''}
+        {W.jobLine} <span className="tabular-nums">{job.number}</span> · {JOB_TYPE_LABELS[job.type]} · {W.bookedIn} {formatDate(job.bookedInOn)}
+        {job.dueOn ? ` · ${W.dueBack} ${formatDate(job.dueOn)}` : ''}
       </p>
       {waiting ? <DecisionWaiting request={waiting} currency={currency} /> : null}
       {money?.estimate && !isTerminalJobState(job.state) ? <MoneySoFar estimate={money.estimate} /> : null}
@@ -129,31 +117,61 @@ function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
   );
 }
 
+/** How the owner reaches the workshop: shown wherever the letter says to get in touch. */
+export interface WorkshopContact {
+  phone: string;
+  email: string;
+}
+
+function ContactLines({ contact }: { contact: WorkshopContact }) {
+  if (!contact.phone && !contact.email) return null;
+  return (
+    <div data-testid="workshop-contact" className="flex flex-col gap-1">
+      <p>{W.contactLead}</p>
+      <ul className="flex flex-col gap-1">
+        {contact.phone ? (
+          <li>
+            {W.call}: <a href={`tel:${contact.phone.replace(/[^0-9+]/g, '')}`} className="tabular-nums">{contact.phone}</a>
+          </li>
+        ) : null}
+        {contact.email ? (
+          <li className="break-all">
+            {W.write}: <a href={`mailto:${contact.email}`}>{contact.email}</a>
+          </li>
+        ) : null}
+      </ul>
+    </div>
+  );
+}
+
 export function MyAircraftLetter({
   firstName,
   workshopName,
+  contact = { phone: '', email: '' },
   aircraft,
   jobs,
   money = {},
 }: {
   firstName: string;
   workshopName: string;
+  contact?: WorkshopContact;
   aircraft: AircraftDto[];
   jobs: JobDto[];
   money?: Record<string, JobMoney>;
 }) {
-  const openJobs = jobs.filter((j) => !isTerminalJobState(j.state));
+  const inHangar = jobs.filter((j) => IN_THE_HANGAR.includes(j.state));
+  const others = jobs.length - inHangar.length;
   return (
     <article className="mx-auto flex max-w-2xl flex-col gap-6">
       <header className="flex flex-col gap-2">
-        <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">My aircraft</h1>
-        <p className="text-lg">Dear {firstName},</p>
+        <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">{W.title}</h1>
+        <p className="text-lg">{W.dear(firstName)}</p>
         <p>
           {aircraft.length === 0
-            ? `${workshopName} has no aircraft on record for you yet. If you expected to see one here, please give us a call.`
-            : openJobs.length === 0
-              ? `Here is where things stand with your aircraft at ${workshopName}. Nothing is in the hangar for you at the moment.`
-              : `Here is where things stand with your aircraft at ${workshopName}. ${count(openJobs.length, 'job is', 'jobs are')} open.`}
+            ? W.noAircraft(workshopName)
+            : inHangar.length === 0
+              ? `${W.standing(workshopName)} ${W.nothingIn}`
+              : `${W.standing(workshopName)} ${W.inHangar(count(inHangar.length, 'job is', 'jobs are'))}${others > 0 ? ` ${W.othersBelow}` : ''}`}
         </p>
       </header>
       {aircraft.map((a) => {
@@ -170,9 +188,9 @@ export function MyAircraftLetter({
               </p>
             </div>
             {own.length === 0 ? (
-              <p className="text-slate-soft">No jobs on record for {a.registration}.</p>
+              <p className="text-slate-soft">{W.noJobs(a.registration)}</p>
             ) : (
-              <ul className="flex flex-col gap-3" aria-label={`Jobs for ${a.registration}`}>
+              <ul className="flex flex-col gap-3" aria-label={W.jobsFor(a.registration)}>
                 {own.map((j) => (
                   <JobEntry key={j.id} job={j} money={money[j.id]} />
                 ))}
@@ -181,8 +199,9 @@ export function MyAircraftLetter({
           </section>
         );
       })}
+      <ContactLines contact={contact} />
       <p>
-        With thanks,
+        {W.thanks}
         <br />
         <span className="font-semibold">{workshopName}</span>
       </p>

@@ -31,7 +31,7 @@ const SUPPLIERS: SupplierDto[] = [
   { id: '8d8d8d8d-0000-4000-8000-000000000002', name: 'Orrin Vale Magneto Shop', kind: 'engine_shop', email: '', phone: '', notes: '', active: true, version: 1 },
 ];
 
-const labourLine = { kind: 'labour', description: 'Annual inspection', quantity: '6', labourRateCode: 'standard', partId: null, supplierId: null, amount: null, vatRate: 'standard' } as const;
+const labourLine = { kind: 'labour', description: 'Annual inspection', quantity: '6', labourRateCode: 'standard', partId: null, supplierId: null, amount: null, vatRate: 'standard', caution: '' } as const;
 
 const template: TemplateDto = {
   id: '5a6b7c8d-9e0f-4a1b-8c2d-3e4f5a6b7c8d',
@@ -40,8 +40,8 @@ const template: TemplateDto = {
   description: '',
   lines: [labourLine],
   checklist: [
-    { section: 'Engine', text: 'Spark plug electrode gap', limit: { min: '0.6', max: '0.9', unit: 'mm', source: 'Example only' } },
-    { section: 'Airframe', text: 'Wing attachment bolts', limit: null },
+    { section: 'Engine', text: 'Spark plug electrode gap', limit: { min: '0.6', max: '0.9', unit: 'mm', source: 'Example only' }, caution: '' },
+    { section: 'Airframe', text: 'Wing attachment bolts', limit: null, caution: '' },
   ],
   active: true,
   version: 2,

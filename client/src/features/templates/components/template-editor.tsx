@@ -1,5 +1,9 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import {
+  CAUTION_MAX,
+  TEXT_MAX,
+  confirmLargeMessage,
+  largeFigures,
   JOB_TYPES,
   JOB_TYPE_LABELS,
   LIMIT_UNITS,
@@ -47,6 +51,8 @@ export function TemplateEditor({
 }) {
   const [summary, setSummary] = useState<string | null>(null);
   const [stale, setStale] = useState(false);
+  /** Figures larger than a light-aircraft job usually needs, shown for confirmation before saving. */
+  const [large, setLarge] = useState<string | null>(null);
   const { register, handleSubmit, control, setError, setValue, getValues, formState } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(templateSaveSchema),
     defaultValues: {
@@ -64,9 +70,17 @@ export function TemplateEditor({
   // Names for the parts and suppliers the saved lines already hold; the pickers search for the rest.
   const named = useTemplateLineRecords(template?.lines ?? []);
 
-  const submit = handleSubmit(async (v) => {
+  const save = async (v: FormOut) => {
     setSummary(null);
     setStale(false);
+    setLarge(null);
+    if (!v.confirmLarge) {
+      const found = largeFigures(v.lines);
+      if (found.length > 0) {
+        setLarge(confirmLargeMessage(found));
+        return;
+      }
+    }
     try {
       await onSave(v);
     } catch (err) {
@@ -74,9 +88,15 @@ export function TemplateEditor({
         setStale(true);
         return;
       }
+      if (isApiError(err) && err.fields.confirmLarge) {
+        setLarge(err.fields.confirmLarge);
+        return;
+      }
       setSummary(applyServerErrors(err, setError, Object.keys(LABELS)));
     }
-  });
+  };
+  const submit = handleSubmit((v) => save({ ...v, confirmLarge: false }));
+  const submitConfirmed = handleSubmit((v) => save({ ...v, confirmLarge: true }));
 
   return (
     <form onSubmit={submit} noValidate className="flex flex-col gap-5">
@@ -91,6 +111,19 @@ export function TemplateEditor({
         </Notice>
       ) : null}
       <FormErrorSummary message={summary} errors={e} labels={LABELS} />
+      {large ? (
+        <div data-testid="confirm-large">
+          <Notice title="Check these figures before saving">
+            <p>{large}</p>
+            <div className="mt-2 flex flex-wrap gap-2">
+              <Button onClick={() => void submitConfirmed()}>They are right: save</Button>
+              <Button variant="secondary" onClick={() => setLarge(null)}>
+                Let me correct them
+              </Button>
+            </div>
+          </Notice>
+        </div>
+      ) : null}
       <div className="grid gap-4 sm:grid-cols-2">
         <TextField label={LABELS.name} required autoComplete="off" error={e.name?.message} {...register('name')} />
         <SelectField label={LABELS.jobType} error={e.jobType?.message} {...register('jobType')}>
@@ -101,7 +134,7 @@ export function TemplateEditor({
           ))}
         </SelectField>
       </div>
-      <TextAreaField label={LABELS.description} rows={2} error={e.description?.message} {...register('description')} />
+      <TextAreaField label={LABELS.description} rows={2} maxChars={TEXT_MAX.templateDescription} error={e.description?.message} {...register('description')} />
       <label className="flex min-h-11 items-center gap-2">
         <input type="checkbox" className="size-5" {...register('active')} />
         Offered when booking in
@@ -151,6 +184,7 @@ export function TemplateEditor({
                   supplierId: null,
                   amount: null,
                   vatRate: 'standard',
+                  caution: '',
                 })
               }
             >
@@ -188,7 +222,7 @@ export function TemplateEditor({
           ))}
         </ol>
         <div>
-          <Button variant="secondary" onClick={() => checklist.append({ section: '', text: '', limit: null })}>
+          <Button variant="secondary" onClick={() => checklist.append({ section: '', text: '', limit: null, caution: '' })}>
             Add checklist item
           </Button>
         </div>
@@ -324,6 +358,16 @@ function ScopeLineFields({
           ))}
         </SelectField>
       </div>
+      <div className="sm:col-span-6">
+        <TextAreaField
+          label="Caution (hazard in this work)"
+          hint="Shown to the engineers in the hangar for jobs booked from this template. Leave empty when there is none."
+          rows={2}
+          maxChars={CAUTION_MAX}
+          error={errors?.caution?.message}
+          {...register(`lines.${i}.caution`)}
+        />
+      </div>
     </div>
   );
 }
@@ -366,6 +410,14 @@ function ChecklistItemFields({
           <TextField label="Where the figure comes from" error={errors?.limit?.source?.message} {...register(`checklist.${i}.limit.source`)} />
         </div>
       ) : null}
+      <TextAreaField
+        label="Caution (hazard to the people doing this check)"
+        hint="Shown to the engineer beside the item, e.g. treat the propeller as live; no ignition sources near fuel. Leave empty when there is none."
+        rows={2}
+        maxChars={CAUTION_MAX}
+        error={errors?.caution?.message}
+        {...register(`checklist.${i}.caution`)}
+      />
     </div>
   );
 }

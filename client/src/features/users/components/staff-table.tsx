@@ -15,12 +15,22 @@ function statusOf(u: UserDto): string {
   return 'Active';
 }
 
+/** What a change of role gives or takes away, said before it is confirmed. */
+const ROLE_MEANS: Record<Exclude<Role, 'owner'>, string> = {
+  admin: 'they can change the workshop settings, staff and roles',
+  manager: 'they can book jobs in, price estimates and send findings to owners',
+  engineer: 'they work checklists, raise findings and log time in the hangar',
+  accounts: 'they take payments and see the money, but do not change jobs',
+};
+
 function RowActions({ user, selfId, onProblem }: { user: UserDto; selfId: string; onProblem: (m: string | null) => void }) {
   const update = useUpdateUser();
   const resend = useResendInvitation();
   const self = user.id === selfId;
   // The row renders twice (table on a desktop, card on a phone), so ids must not come from the user id.
   const selectId = useId();
+  // A new role waits here until it is confirmed; the drop-down alone changes nothing.
+  const [pending, setPending] = useState<Exclude<Role, 'owner'> | null>(null);
   const run = async (fn: () => Promise<unknown>, done?: string) => {
     onProblem(null);
     try {
@@ -39,9 +49,13 @@ function RowActions({ user, selfId, onProblem }: { user: UserDto; selfId: string
           </label>
           <select
             id={selectId}
-            value={user.role}
+            value={pending ?? user.role}
             disabled={self || update.isPending}
-            onChange={(e) => void run(() => update.mutateAsync({ id: user.id, body: { role: e.target.value as Role } }))}
+            onChange={(e) => {
+              const next = e.target.value as Exclude<Role, 'owner'>;
+              onProblem(null);
+              setPending(next === user.role ? null : next);
+            }}
             className="min-h-10 rounded-control border border-seam-strong bg-cloth-raised px-2 text-sm"
           >
             {STAFF_ROLES.map((r) => (
@@ -50,6 +64,29 @@ function RowActions({ user, selfId, onProblem }: { user: UserDto; selfId: string
               </option>
             ))}
           </select>
+          {pending ? (
+            <div role="group" aria-label={`Confirm the new role for ${user.name}`} className="flex w-full flex-col gap-2 rounded-control border border-seam-strong bg-cloth-raised p-2 text-sm">
+              <p>
+                Make {user.name} {ROLE_LABELS[pending].toLowerCase()} instead of {ROLE_LABELS[user.role].toLowerCase()}? As {ROLE_LABELS[pending].toLowerCase()}, {ROLE_MEANS[pending]}.
+              </p>
+              <div className="flex flex-wrap gap-2">
+                <Button
+                  busy={update.isPending}
+                  onClick={() =>
+                    void run(async () => {
+                      await update.mutateAsync({ id: user.id, body: { role: pending } });
+                      setPending(null);
+                    }, `${user.name} is now ${ROLE_LABELS[pending].toLowerCase()}.`)
+                  }
+                >
+                  Change role
+                </Button>
+                <Button variant="quiet" onClick={() => setPending(null)}>
+                  Keep {ROLE_LABELS[user.role].toLowerCase()}
+                </Button>
+              </div>
+            </div>
+          ) : null}
         </>
       ) : null}
       {user.invited && user.active ? (

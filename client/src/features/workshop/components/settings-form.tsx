@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { VAT_ROUNDING_METHODS, workshopUpdateSchema, type WorkshopDto } from '@wingstage/shared';
+import { APPROVAL_LINK_DAYS, CHASE_AFTER_HOURS, TEXT_MAX, VAT_ROUNDING_METHODS, workshopUpdateSchema, type WorkshopDto } from '@wingstage/shared';
 import { useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import type { z } from 'zod';
@@ -28,9 +28,16 @@ const LABELS: Record<string, string> = {
   vatNumber: 'VAT number',
   labourRates: 'Labour rates',
   'settings.vatRounding': 'How VAT is rounded',
+  'settings.approvalLinkDays': 'Days an approval link works',
+  'settings.chaseAfterHours': 'Hours before a reminder',
+  'settings.contactPhone': 'Phone for owners',
+  'settings.contactEmail': 'E-mail for owners',
 };
 
 type FormIn = z.input<typeof workshopUpdateSchema>;
+
+/** What was typed, as a number for the schema: blank or not a number stays as NaN, which the schema explains. */
+const wholeNumber = (v: unknown) => (typeof v === 'number' ? v : typeof v === 'string' && v.trim() !== '' && /^-?\d+(\.\d+)?$/.test(v.trim()) ? Number(v.trim()) : Number.NaN);
 
 const toForm = (w: WorkshopDto): FormIn => ({
   version: w.version,
@@ -39,7 +46,13 @@ const toForm = (w: WorkshopDto): FormIn => ({
   postcode: w.postcode,
   vatNumber: w.vatNumber,
   labourRates: w.labourRates,
-  settings: { vatRounding: w.settings.vatRounding },
+  settings: {
+    vatRounding: w.settings.vatRounding,
+    approvalLinkDays: w.settings.approvalLinkDays,
+    chaseAfterHours: w.settings.chaseAfterHours,
+    contactPhone: w.settings.contactPhone,
+    contactEmail: w.settings.contactEmail,
+  },
 });
 
 export function SettingsForm({ workshop }: { workshop: WorkshopDto }) {
@@ -80,15 +93,50 @@ export function SettingsForm({ workshop }: { workshop: WorkshopDto }) {
           // Per-rate errors sit beside each rate; the summary says only that the rates need a look.
           labourRates: e.labourRates ? { message: e.labourRates.message ?? 'Check the rates below.' } : undefined,
           'settings.vatRounding': e.settings?.vatRounding,
+          'settings.approvalLinkDays': e.settings?.approvalLinkDays,
+          'settings.chaseAfterHours': e.settings?.chaseAfterHours,
+          'settings.contactPhone': e.settings?.contactPhone,
+          'settings.contactEmail': e.settings?.contactEmail,
         }} labels={LABELS} />
       <Card title="The workshop">
         <div className="flex flex-col gap-4">
           <TextField label={LABELS.name!} required error={e.name?.message} {...register('name')} />
-          <TextAreaField label={LABELS.addressLines!} rows={3} error={e.addressLines?.message} {...register('addressLines')} />
+          <TextAreaField label={LABELS.addressLines!} rows={3} maxChars={TEXT_MAX.address} error={e.addressLines?.message} {...register('addressLines')} />
           <div className="grid items-end gap-4 sm:grid-cols-2">
             <TextField label={LABELS.postcode!} error={e.postcode?.message} {...register('postcode')} />
             <TextField label={LABELS.vatNumber!} hint="Printed on every VAT invoice." error={e.vatNumber?.message} {...register('vatNumber')} />
           </div>
+          <div className="grid items-end gap-4 sm:grid-cols-2">
+            <TextField
+              label={LABELS['settings.contactPhone']!}
+              type="tel"
+              autoComplete="off"
+              hint="Shown to owners wherever a page asks them to contact the workshop."
+              error={e.settings?.contactPhone?.message}
+              {...register('settings.contactPhone')}
+            />
+            <TextField label={LABELS['settings.contactEmail']!} type="email" autoComplete="off" error={e.settings?.contactEmail?.message} {...register('settings.contactEmail')} />
+          </div>
+        </div>
+      </Card>
+      <Card title="Owner approvals">
+        <div className="grid items-start gap-4 sm:grid-cols-2">
+          <TextField
+            label={LABELS['settings.approvalLinkDays']!}
+            inputMode="numeric"
+            className="tabular-nums"
+            hint={`How long the link in an approval e-mail opens the owner's decision page: ${APPROVAL_LINK_DAYS.min} to ${APPROVAL_LINK_DAYS.max} days. After that the owner asks for a new one. Applies to links sent from now on.`}
+            error={e.settings?.approvalLinkDays?.message}
+            {...register('settings.approvalLinkDays', { setValueAs: wholeNumber })}
+          />
+          <TextField
+            label={LABELS['settings.chaseAfterHours']!}
+            inputMode="numeric"
+            className="tabular-nums"
+            hint={`An undecided request gets one reminder e-mail this many hours after it was sent or last chased: ${CHASE_AFTER_HOURS.min} to ${CHASE_AFTER_HOURS.max} hours (48 is two days). Keep it shorter than the link's life.`}
+            error={e.settings?.chaseAfterHours?.message}
+            {...register('settings.chaseAfterHours', { setValueAs: wholeNumber })}
+          />
         </div>
       </Card>
       <Card title="Labour rates" actions={<Button variant="secondary" onClick={() => rates.append({ code: '', name: '', ratePerHour: '' })}>Add a rate</Button>}>
