@@ -54,7 +54,7 @@ export type ApprovalRequestCreateInput = z.input<typeof approvalRequestCreateSch
 /** The workshop records that the owner agreed the quote by phone: who, when, and the estimate it covers. */
 export const quotePhoneAgreementSchema = z.object({
   /** Who agreed on the phone, in the workshop's words, e.g. "Rowan Tillett, the owner". */
-  agreedWith: z.string().trim().min(2, { message: 'Say who agreed the quote on the phone.' }).max(200),
+  agreedWith: safeString('Who agreed').trim().min(2, { message: 'Say who agreed the quote on the phone.' }).max(200),
   agreedAt: z.iso
     .datetime({ offset: true, message: 'Give the date and time of the call.' })
     .refine((v) => Date.parse(v) <= Date.now() + 60_000, { message: 'The call cannot be in the future.' }),

@@ -157,7 +157,7 @@ export const timeLogUpdateSchema = z.object({
   version: z.number().int().min(0),
   hours: timeLogHoursSchema.optional(),
   workedOn: isoDate.optional(),
-  note: z.string().trim().max(500, { message: 'Keep the note to 500 characters or fewer.' }).optional(),
+  note: safeString('Note').trim().max(500, { message: 'Keep the note to 500 characters or fewer.' }).optional(),
   findingId: idSchema.nullable().optional(),
 });
 export type TimeLogUpdateInput = z.input<typeof timeLogUpdateSchema>;
@@ -165,7 +165,7 @@ export type TimeLogUpdateInput = z.input<typeof timeLogUpdateSchema>;
 /** Removing a time entry: the version it was read at and, optionally, why (kept in history). */
 export const timeLogRemoveSchema = z.object({
   version: z.number().int().min(0),
-  reason: z.string().trim().max(500, { message: 'Keep the reason to 500 characters or fewer.' }).optional().default(''),
+  reason: safeString('Reason').trim().max(500, { message: 'Keep the reason to 500 characters or fewer.' }).optional().default(''),
 });
 export type TimeLogRemoveInput = z.input<typeof timeLogRemoveSchema>;
 
