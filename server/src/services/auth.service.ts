@@ -6,7 +6,7 @@ import { hashToken, issueSession, newOneTimeToken } from '../lib/session-tokens.
 import { passwordResetMail } from '../mail/templates.js';
 import { OneTimeToken, User, Workshop, boundSequelize } from '../models/index.js';
 import type { Deps } from './deps.js';
-import { toUserDto } from './dto.js';
+import { toUserDto, type SessionUser, type SessionWorkshop } from './dto.js';
 
 export const THROTTLE_WINDOW_MINUTES = 15;
 /** ASVS 6.5.5 wants e-mailed sign-in links short-lived; half an hour leaves time to find the mail. */
@@ -66,7 +66,7 @@ export async function signOut(userId: string, sid: string, expiresAt: Date): Pro
   await boundSequelize().query('DELETE FROM revoked_sessions WHERE expires_at < now()');
 }
 
-export function currentSession(deps: Deps, user: User, workshop: Workshop, csrf: string): SessionDto {
+export function currentSession(deps: Deps, user: SessionUser, workshop: SessionWorkshop, csrf: string): SessionDto {
   return { user: toUserDto(user), workshop: { id: workshop.id, name: workshop.name, currency: workshop.currency }, csrfToken: csrf };
 }
 

@@ -15,7 +15,7 @@ import { Aircraft, AuditEvent, Customer, Job, User, boundSequelize } from '../mo
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
-import { findJob, scopedInclude, type JobRow } from './job-access.js';
+import { findJob, scopedInclude, viewJob, type JobRow, type JobView } from './job-access.js';
 import { applyTemplate, ensureEstimate } from './estimates.service.js';
 import { releaseBlockers } from './findings.service.js';
 
@@ -23,7 +23,7 @@ type JobListQuery = z.output<typeof jobListQuerySchema>;
 type JobUpdate = z.output<typeof jobUpdateSchema>;
 type JobTransition = z.output<typeof jobTransitionSchema>;
 
-function toDto(j: JobRow): JobDto {
+function toDto(j: JobRow | JobView): JobDto {
   return {
     id: j.id,
     number: j.number,
@@ -78,12 +78,15 @@ export async function listJobs(scope: Scope, q: JobListQuery): Promise<Page<JobD
     ...pageWindow(q),
     subQuery: false,
     distinct: true,
+    // Plain nested rows: a list page only shows them.
+    raw: true,
+    nest: true,
   });
-  return { items: rows.map((r) => toDto(r as JobRow)), total: count, page: q.page, pageSize: q.pageSize };
+  return { items: rows.map((r) => toDto(r as unknown as JobView)), total: count, page: q.page, pageSize: q.pageSize };
 }
 
 export async function getJob(scope: Scope, id: string): Promise<JobDto> {
-  return toDto(await findJob(scope, id));
+  return toDto(await viewJob(scope, id));
 }
 
 /** Gap-free per workshop: the counter row is locked by the UPDATE and rolls back with a failed create. */
