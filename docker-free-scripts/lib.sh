@@ -88,7 +88,7 @@ app_env() {
   export DATABASE_URL="${DATABASE_URL:-postgres://postgres@127.0.0.1:$WS_PG_PORT/$WS_DB_NAME}"
   export SMTP_HOST=127.0.0.1 SMTP_PORT="$WS_SMTP_PORT"
   export MAIL_FROM="${MAIL_FROM:-Wingstage <no-reply@wingstage.example>}"
-  export CLIENT_DIST="$ROOT/client/dist"
+  export CLIENT_DIST="${CLIENT_DIST:-$ROOT/client/dist}"
   export LOG_LEVEL="${LOG_LEVEL:-info}"
   # Plain http on loopback: a Secure cookie would not be sent back over it. The server accepts this
   # in production only while APP_URL is a loopback http address.

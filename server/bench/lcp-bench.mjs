@@ -78,23 +78,33 @@ try {
     });
     let jsBytes = 0;
     let scripts = 0;
+    let lastScriptDone = 0;
+    let dataAsked = 0;
+    const urls = new Map();
+    cdp.on('Network.requestWillBeSent', (e) => {
+      urls.set(e.requestId, e.request.url);
+      if (e.request.url.includes('/api/decide/') && !dataAsked) dataAsked = e.timestamp;
+    });
     cdp.on('Network.loadingFinished', (e) => {
       if (urls.get(e.requestId)?.endsWith('.js')) {
         jsBytes += e.encodedDataLength;
         scripts += 1;
+        lastScriptDone = Math.max(lastScriptDone, e.timestamp);
       }
     });
-    const urls = new Map();
-    cdp.on('Network.requestWillBeSent', (e) => urls.set(e.requestId, e.request.url));
-    const dataAsked = [];
-    cdp.on('Network.requestWillBeSent', (e) => { if (e.request.url.includes('/api/decide/')) dataAsked.push(e.timestamp); });
     const navStart = Date.now();
     await page.goto(link, { waitUntil: 'load', timeout: 120_000 });
     await page.locator('main h1').first().waitFor({ timeout: 120_000 });
     await page.waitForTimeout(1500);
     const m = await page.evaluate(() => ({ lcp: window.__lcp, shown: window.__shown ?? 0, nav: performance.getEntriesByType('navigation')[0]?.responseEnd ?? 0 }));
-    runs.push({ lcp: m.lcp.time, lcpElement: m.lcp.what, shown: m.shown, htmlDone: m.nav, jsBytes, scripts, wall: Date.now() - navStart });
-    console.log(`run ${i + 1}: LCP ${(m.lcp.time / 1000).toFixed(2)} s (${m.lcp.what}), letter on screen ${(m.shown / 1000).toFixed(2)} s, HTML done ${(m.nav / 1000).toFixed(2)} s, ${scripts} scripts, ${jsBytes} B of JavaScript transferred`);
+    // Seconds between asking for the decision data and the last script arriving: positive means the
+    // data was asked for while the scripts were still on their way.
+    const ahead = lastScriptDone && dataAsked ? lastScriptDone - dataAsked : 0;
+    runs.push({ lcp: m.lcp.time, lcpElement: m.lcp.what, shown: m.shown, htmlDone: m.nav, jsBytes, scripts, dataAskedAheadOfScripts: ahead, wall: Date.now() - navStart });
+    console.log(
+      `run ${i + 1}: LCP ${(m.lcp.time / 1000).toFixed(2)} s (${m.lcp.what}), letter on screen ${(m.shown / 1000).toFixed(2)} s, HTML done ${(m.nav / 1000).toFixed(2)} s, ` +
+        `${scripts} scripts, ${jsBytes} B of JavaScript transferred, data asked ${ahead >= 0 ? `${ahead.toFixed(2)} s before` : `${(-ahead).toFixed(2)} s after`} the last script arrived`,
+    );
     await context.close();
   }
 } finally {
