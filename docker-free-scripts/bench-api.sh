@@ -27,7 +27,8 @@ trap 'exit 130' INT TERM
 
 bash "$SCRIPTS/app.sh" stop >/dev/null 2>&1 || true
 export DATABASE_URL="postgres://postgres@127.0.0.1:$WS_PG_PORT/$WS_SCALE_DB"
-export NODE_ENV=production
+# As npm start runs it; BENCH_NODE_ENV=development measures an older build that could not run in production on http.
+export NODE_ENV="${BENCH_NODE_ENV:-production}"
 if [ "${BENCH_CPU_PROF:-0}" = 1 ]; then
   # The same server as npm start's (tsx's loader in one node process) with the V8 profiler on; the
   # profile is written when it stops, open it in Chromium's DevTools (Performance) or speedscope.
