@@ -38,6 +38,17 @@ export default defineConfig({
     // Two pages: the app, and the owner's decision page with only what it needs.
     rolldownOptions: {
       input: { main: page('index.html'), decide: page('decide.html') },
+      output: {
+        // Few, larger files: on a phone each extra script is another round trip before the page
+        // can run (the decision page went from fourteen files to a handful). The framework and the
+        // shared code change rarely and are cached apart from the page's own code.
+        codeSplitting: {
+          groups: [
+            { name: 'react', test: /[\\/]node_modules[\\/](react|react-dom|scheduler|@tanstack[\\/](react-query|query-core))[\\/]/, priority: 2 },
+            { name: 'common', test: /[\\/]shared[\\/]src[\\/]|[\\/]node_modules[\\/](decimal\.js|zod)[\\/]/, priority: 1 },
+          ],
+        },
+      },
       treeshake: {
         // The shared workspace only declares values (schemas, helpers); a page keeps just the ones it uses.
         moduleSideEffects: (id) => (/[\\/]shared[\\/]src[\\/]/.test(id) ? false : undefined),

@@ -10,6 +10,8 @@ bash "$SCRIPTS/postgres.sh" ensure-db "$WS_DB_NAME"
 bash "$SCRIPTS/maildev.sh" start
 pid_alive "$RUN_DIR/app.pid" && die "npm start's app holds port $WS_APP_PORT; stop it first (npm run stop) or use WS_APP_PORT=…"
 
+# Development mode here only: npm start and the benchmarks run production code.
+export NODE_ENV="${NODE_ENV:-development}"
 app_env
 cd "$ROOT"
 npm run --silent migrate -w server

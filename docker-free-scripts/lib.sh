@@ -80,14 +80,17 @@ psql_local() { "$(pg_bin)/psql" -h 127.0.0.1 -p "$WS_PG_PORT" -U postgres -v ON_
 # The environment the server reads (names fixed by the server's config).
 app_env() {
   load_secrets
-  export NODE_ENV="${NODE_ENV:-$([ "$WS_PROFILE" = test ] && echo test || echo development)}"
+  # npm start serves what it measures: production code (the demo's conveniences have their own
+  # switches below); npm test runs the server in test mode.
+  export NODE_ENV="${NODE_ENV:-$([ "$WS_PROFILE" = test ] && echo test || echo production)}"
   export HOST=127.0.0.1 PORT="$WS_APP_PORT"
   export APP_URL="http://127.0.0.1:$WS_APP_PORT"
   export DATABASE_URL="${DATABASE_URL:-postgres://postgres@127.0.0.1:$WS_PG_PORT/$WS_DB_NAME}"
   export SMTP_HOST=127.0.0.1 SMTP_PORT="$WS_SMTP_PORT"
   export MAIL_FROM="${MAIL_FROM:-Wingstage <no-reply@wingstage.example>}"
-  export CLIENT_DIST="$ROOT/client/dist"
+  export CLIENT_DIST="${CLIENT_DIST:-$ROOT/client/dist}"
   export LOG_LEVEL="${LOG_LEVEL:-info}"
-  # Plain http on loopback: a Secure cookie would not be sent back over it.
+  # Plain http on loopback: a Secure cookie would not be sent back over it. The server accepts this
+  # in production only while APP_URL is a loopback http address.
   export COOKIE_SECURE="${COOKIE_SECURE:-false}"
 }

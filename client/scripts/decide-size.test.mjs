@@ -1,27 +1,24 @@
 // @vitest-environment node
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { execFileSync } from 'node:child_process';
-import { createRequire } from 'node:module';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { DECIDE_JS_BUDGET, measure, scriptsOf } from './decide-size.mjs';
 
 const clientDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
-const out = mkdtempSync(path.join(tmpdir(), 'ws-decide-size-'));
+const out = path.join(clientDir, 'dist');
 
 describe('the decision page bundle', () => {
   beforeAll(() => {
-    // A build of its own, as `npm run build` makes it: the test runner's NODE_ENV would give React's development build.
-    const vite = path.join(path.dirname(createRequire(import.meta.url).resolve('vite/package.json')), 'bin', 'vite.js');
-    execFileSync(process.execPath, [vite, 'build', '--outDir', out, '--emptyOutDir', '--logLevel', 'error'], {
-      cwd: clientDir,
-      env: { ...process.env, NODE_ENV: 'production' },
+    // The build npm start serves, made by the same script (it skips the build when client/dist is
+    // newer than every source, so the browser stage of npm test reuses it). The test runner's
+    // NODE_ENV=test is passed on on purpose: the script must make a production build regardless.
+    execFileSync('bash', [path.join(clientDir, '..', 'docker-free-scripts', 'build-client.sh')], {
+      env: { ...process.env, NODE_ENV: 'test' },
       stdio: 'pipe',
     });
-  }, 180_000);
-  afterAll(() => rmSync(out, { recursive: true, force: true }));
+  }, 300_000);
 
   it('reads the scripts and module preloads an HTML page names, and nothing else', () => {
     const html = `<script type="module" crossorigin src="/assets/a.js"></script>
@@ -45,5 +42,11 @@ describe('the decision page bundle', () => {
     expect(app).toContain('Sign out');
     expect(decide).not.toContain('Sign out');
     expect(decide).toContain('Opening your request');
+  });
+
+  it('when built, then it is React\'s production build (what npm start serves), not the development one', () => {
+    const decide = measure(out).files.map((f) => readFileSync(path.join(out, f.file)).toString('utf8')).join('\n');
+    // A warning only React's development build carries.
+    expect(decide).not.toMatch(/Each child in a list should have a unique/);
   });
 });

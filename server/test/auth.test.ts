@@ -41,8 +41,14 @@ describe('configuration', () => {
   it('when JWT_SECRET is shorter than 32 characters, then start-up fails naming it', () => {
     expect(() => loadConfig({ ...base, JWT_SECRET: 'short' })).toThrow(/JWT_SECRET/);
   });
-  it('when production is asked to run with COOKIE_SECURE=false, then start-up refuses', () => {
-    expect(() => loadConfig({ ...base, NODE_ENV: 'production', COOKIE_SECURE: 'false' })).toThrow(/COOKIE_SECURE/);
+  it('when production is asked to run with COOKIE_SECURE=false on a public address, then start-up refuses', () => {
+    expect(() => loadConfig({ ...base, NODE_ENV: 'production', COOKIE_SECURE: 'false', APP_URL: 'https://wingstage.example' })).toThrow(/COOKIE_SECURE/);
+    expect(() => loadConfig({ ...base, NODE_ENV: 'production', COOKIE_SECURE: 'false', APP_URL: 'http://192.0.2.10:3000' })).toThrow(/COOKIE_SECURE/);
+  });
+  it('when the local demo runs production code over plain http on loopback with COOKIE_SECURE=false, then start-up allows it', () => {
+    const c = loadConfig({ ...base, NODE_ENV: 'production', COOKIE_SECURE: 'false', APP_URL: 'http://127.0.0.1:3000' });
+    expect(c.COOKIE_SECURE).toBe(false);
+    expect(c.NODE_ENV).toBe('production');
   });
   it('when production sets the account limit above 25 per 15 minutes (over 100 an hour), then start-up refuses', () => {
     // ASVS 4.0.3 V2.2.1: no more than 100 failed attempts per hour on one account.

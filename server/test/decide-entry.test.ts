@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { mkdtempSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -6,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestServer, type TestServer } from './helpers.js';
 
 let server: TestServer;
+const EARLY = "window.early = fetch('/api/decide/x');";
 const withDecide = mkdtempSync(path.join(tmpdir(), 'ws-dist-'));
 const withoutDecide = mkdtempSync(path.join(tmpdir(), 'ws-dist-'));
 
@@ -15,7 +17,8 @@ beforeAll(async () => {
     writeFileSync(path.join(dir, 'index.html'), '<!doctype html><title>app shell</title>');
     writeFileSync(path.join(dir, 'assets', 'x.js'), 'console.log(1)');
   }
-  writeFileSync(path.join(withDecide, 'decide.html'), '<!doctype html><title>decision page</title>');
+  writeFileSync(path.join(withDecide, 'decide.html'), `<!doctype html><title>decision page</title><script>${EARLY}</script><script type="module" src="/assets/x.js"></script>`);
+  writeFileSync(path.join(withDecide, 'assets', 'big.js'), `// ${'a long comment that compresses well '.repeat(200)}\nconsole.log(1)`);
   server = await startTestServer({ CLIENT_DIST: withDecide });
 });
 afterAll(async () => {
@@ -50,5 +53,27 @@ describe("the owner's decision page has its own entry", () => {
     const res = await request(server.variant({ CLIENT_DIST: withoutDecide })).get('/decide/AbCdEf0123456789_-xyz');
     expect(res.status).toBe(200);
     expect(res.text).toContain('app shell');
+  });
+});
+
+describe('what the decision page is served with', () => {
+  it('when decide.html carries an inline script, then the Content-Security-Policy allows exactly that script by its SHA-256', async () => {
+    const csp = (await request(server.app).get('/decide/AbCdEf0123456789_-xyz')).headers['content-security-policy'] as string;
+    const scriptSrc = csp.split(';').find((d) => d.trim().startsWith('script-src'))!;
+    const hash = createHash('sha256').update(EARLY, 'utf8').digest('base64');
+    expect(scriptSrc).toContain(`'sha256-${hash}'`);
+    expect(scriptSrc).not.toContain('unsafe-inline');
+  });
+
+  it('when a browser accepts gzip, then scripts and JSON come compressed; without it, plain', async () => {
+    const gz = await request(server.app).get('/assets/big.js').set('Accept-Encoding', 'gzip');
+    expect(gz.status).toBe(200);
+    expect(gz.headers['content-encoding']).toBe('gzip');
+    const plain = await request(server.app).get('/assets/big.js').set('Accept-Encoding', 'identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    const json = await request(server.app).get('/api/decide/not-a-real-token-0123456789').set('Accept-Encoding', 'gzip');
+    // An error this small is not worth compressing; the threshold is 1 KB.
+    expect(json.headers['content-encoding']).toBeUndefined();
+    expect(json.type).toBe('application/json');
   });
 });

@@ -91,15 +91,29 @@ export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Pr
     const csrf = readCookie('ws_csrf');
     if (csrf) headers['X-CSRF-Token'] = csrf;
   }
-  let res: Response;
+  let sent: Promise<Response>;
   try {
-    res = await fetch(buildUrl(path, opts.query), {
+    sent = fetch(buildUrl(path, opts.query), {
       method,
       headers,
       credentials: 'include',
       body: opts.body === undefined ? undefined : isForm ? (opts.body as FormData) : JSON.stringify(opts.body),
       signal: opts.signal,
     });
+  } catch (e) {
+    sent = Promise.reject(e);
+  }
+  return readReply<T>(sent, opts);
+}
+
+/**
+ * The reply to a request already sent (by apiRequest, or by a page that asked early, before its
+ * scripts loaded), read with the same error mapping.
+ */
+export async function readReply<T>(sent: Promise<Response>, opts: Pick<RequestOptions, 'skipUnauthorizedRedirect'> = {}): Promise<T> {
+  let res: Response;
+  try {
+    res = await sent;
   } catch (e) {
     if ((e as Error).name === 'AbortError') throw e;
     throw new ApiError({ code: 'network', message: NETWORK_MESSAGE, status: 0 });

@@ -45,6 +45,16 @@ function defaultStorageDir(env: Record<string, string | undefined>): string {
   return path.join(localDir, `uploads-${profile.replace(/[^A-Za-z0-9_-]/g, '_')}`);
 }
 
+/** http://127.0.0.1:…, http://localhost:…, http://[::1]:…: reachable from this machine only. */
+export function isLoopbackHttp(url: string): boolean {
+  try {
+    const u = new URL(url);
+    return u.protocol === 'http:' && (u.hostname === 'localhost' || u.hostname === '[::1]' || /^127(\.\d{1,3}){3}$/.test(u.hostname));
+  } catch {
+    return false;
+  }
+}
+
 const configSchema = z
   .object({
     ...storageShape,
@@ -85,8 +95,10 @@ const configSchema = z
     if (c.NODE_ENV === 'production' && c.SIGNIN_ACCOUNT_LIMIT > 25) {
       ctx.addIssue({ code: 'custom', path: ['SIGNIN_ACCOUNT_LIMIT'], message: 'SIGNIN_ACCOUNT_LIMIT above 25 per 15 minutes allows over 100 failures an hour (ASVS 4.0.3 V2.2.1).' });
     }
-    if (c.NODE_ENV === 'production' && !c.COOKIE_SECURE) {
-      ctx.addIssue({ code: 'custom', path: ['COOKIE_SECURE'], message: 'COOKIE_SECURE=false is refused in production: session cookies must be Secure.' });
+    // The one exception is the local demo (npm start): production code served over plain http on
+    // this machine's loopback address, where a Secure cookie would never be sent back.
+    if (c.NODE_ENV === 'production' && !c.COOKIE_SECURE && !isLoopbackHttp(c.APP_URL)) {
+      ctx.addIssue({ code: 'custom', path: ['COOKIE_SECURE'], message: 'COOKIE_SECURE=false is refused in production unless APP_URL is plain http on a loopback address (the local demo): session cookies must be Secure.' });
     }
     checkStorage(c, ctx);
   });

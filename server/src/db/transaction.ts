@@ -1,4 +1,4 @@
-import type { Transaction } from 'sequelize';
+import type { Transaction, TransactionOptions } from 'sequelize';
 import { busyRecord } from '../errors/app-error.js';
 import { boundSequelize } from '../models/index.js';
 import { isTransactionCollision } from './db-errors.js';
@@ -11,14 +11,14 @@ import { isTransactionCollision } from './db-errors.js';
  * `work` must keep its effects inside the transaction (rows, queued mail) so that running it again
  * is safe. The lock order that makes collisions rare is written down in DEVELOPERS.md ("Locks").
  */
-export async function inTransaction<T>(work: (t: Transaction) => Promise<T>): Promise<T> {
+export async function inTransaction<T>(work: (t: Transaction) => Promise<T>, options: TransactionOptions = {}): Promise<T> {
   try {
-    return await boundSequelize().transaction(work);
+    return await boundSequelize().transaction(options, work);
   } catch (err) {
     if (!isTransactionCollision(err)) throw err;
   }
   try {
-    return await boundSequelize().transaction(work);
+    return await boundSequelize().transaction(options, work);
   } catch (err) {
     if (isTransactionCollision(err)) throw busyRecord();
     throw err;

@@ -8,7 +8,7 @@ import { passwordResetMail } from '../mail/templates.js';
 import { OneTimeToken, User, Workshop, boundSequelize } from '../models/index.js';
 import { inTransaction } from '../db/transaction.js';
 import type { Deps } from './deps.js';
-import { toUserDto } from './dto.js';
+import { toUserDto, type SessionUser, type SessionWorkshop } from './dto.js';
 
 export const THROTTLE_WINDOW_MINUTES = WINDOW_MINUTES;
 
@@ -84,8 +84,8 @@ export async function signOut(userId: string, sid: string, expiresAt: Date): Pro
   await boundSequelize().query('DELETE FROM revoked_sessions WHERE expires_at < now()');
 }
 
-export function currentSession(deps: Deps, user: User, workshop: Workshop, csrf: string): SessionDto {
-  return { user: toUserDto(user), workshop: sessionWorkshop(workshop), csrfToken: csrf };
+export function currentSession(deps: Deps, user: SessionUser, workshop: SessionWorkshop, csrf: string): SessionDto {
+  return { user: toUserDto(user), workshop, csrfToken: csrf };
 }
 
 export async function requestPasswordReset(deps: Deps, email: string): Promise<void> {

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import type { Transaction } from 'sequelize';
+import { QueryTypes, Transaction } from 'sequelize';
 import type { z } from 'zod';
 import {
   formatMoney,
@@ -85,8 +85,9 @@ const stageOrder = (s: string) => ESTIMATE_STAGES.indexOf(s as (typeof ESTIMATE_
 
 export async function loadLines(scope: Scope, jobId: string, t?: Transaction): Promise<{ lines: EstimateLineDto[]; accessTasks: AccessTaskDto[] }> {
   const [lines, tasks] = await Promise.all([
-    EstimateLine.findAll({ where: inWorkshop(scope, { jobId }), order: [['sortOrder', 'ASC'], ['id', 'ASC']], transaction: t }),
-    AccessTask.findAll({ where: inWorkshop(scope, { jobId }), order: [['sortOrder', 'ASC'], ['id', 'ASC']], transaction: t }),
+    // Plain rows: up to 2,000 lines become DTOs at once, and model instances cost more than the query.
+    EstimateLine.findAll({ where: inWorkshop(scope, { jobId }), order: [['sortOrder', 'ASC'], ['id', 'ASC']], transaction: t, raw: true }),
+    AccessTask.findAll({ where: inWorkshop(scope, { jobId }), order: [['sortOrder', 'ASC'], ['id', 'ASC']], transaction: t, raw: true }),
   ]);
   const sorted = [...lines].sort((a, b) => stageOrder(a.stage) - stageOrder(b.stage));
   return { lines: sorted.map(lineDto), accessTasks: tasks.map(taskDto) };
@@ -114,13 +115,15 @@ async function quoteDto(jobId: string, p: PricedEstimate, t: Transaction): Promi
 
 async function estimateDto(scope: Scope, jobId: string, t?: Transaction): Promise<EstimateDto> {
   const run = async (tx: Transaction) => {
-    const est = await ensureEstimate(scope, jobId, tx);
+    // A read takes the existing row; only a job made outside the service needs its row inserted.
+    const est = (await Estimate.findOne({ where: inWorkshop(scope, { jobId }), transaction: tx, raw: true })) ?? (await ensureEstimate(scope, jobId, tx));
     const w = await loadWorkshop(scope, tx);
     const { lines, accessTasks } = await loadLines(scope, jobId, tx);
     const p = priced(w, lines, accessTasks);
     return { jobId, version: est.version, currency: w.currency, lines, accessTasks, priced: p, quote: await quoteDto(jobId, p, tx) };
   };
-  return t ? run(t) : inTransaction(run);
+  // Repeatable read: the version and the lines come from one snapshot, even while someone saves.
+  return t ? run(t) : inTransaction(run, { isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ });
 }
 
 /** Inspection lines still awaiting the owner's agreement (work may not start while any does). */

@@ -71,3 +71,19 @@ export async function lockOpenRequests(jobId: string, t: Transaction): Promise<v
     transaction: t,
   });
 }
+
+/** The job's own columns with its aircraft and owner, for reads that only show it. */
+export type JobView = Pick<
+  Job,
+  'id' | 'number' | 'aircraftId' | 'title' | 'type' | 'state' | 'bookedInOn' | 'dueOn' | 'notes' | 'version' | 'createdAt' | 'updatedAt'
+> & { aircraft: Pick<Aircraft, 'registration' | 'type' | 'customerId'> & { customer: Pick<Customer, 'name'> } };
+
+/**
+ * findJob's access rule as a plain row (raw, nested): no model instances are built for a read that
+ * only shows the job. Anything that changes the job uses findJob.
+ */
+export async function viewJob(scope: Scope, id: string): Promise<JobView> {
+  const job = await Job.findOne({ where: inWorkshop(scope, { id }), include: scopedInclude(scope), raw: true, nest: true });
+  if (!job) throw notFound('That job');
+  return job as unknown as JobView;
+}

@@ -18,7 +18,7 @@ import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
-import { findJob, scopedInclude, type JobRow } from './job-access.js';
+import { findJob, scopedInclude, viewJob, type JobRow, type JobView } from './job-access.js';
 import { applyTemplate, ensureEstimate, unagreedQuoteLines } from './estimates.service.js';
 import { decisionsToSee } from './approvals/repository.js';
 import { moveJob } from './job-state.js';
@@ -28,7 +28,7 @@ type JobListQuery = z.output<typeof jobListQuerySchema>;
 type JobUpdate = z.output<typeof jobUpdateSchema>;
 type JobTransition = z.output<typeof jobTransitionSchema>;
 
-function toDto(j: JobRow, seen: Map<string, JobDecisionsToSee> = new Map()): JobDto {
+function toDto(j: JobRow | JobView, seen: Map<string, JobDecisionsToSee> = new Map()): JobDto {
   return {
     id: j.id,
     number: j.number,
@@ -90,13 +90,16 @@ export async function listJobs(scope: Scope, q: JobListQuery): Promise<Page<JobD
     ...pageWindow(q),
     subQuery: false,
     distinct: true,
+    // Plain nested rows: a list page only shows them.
+    raw: true,
+    nest: true,
   });
   const seen = await unseenFor(scope, rows.map((r) => r.id));
-  return { items: rows.map((r) => toDto(r as JobRow, seen)), total: count, page: q.page, pageSize: q.pageSize };
+  return { items: rows.map((r) => toDto(r as unknown as JobView, seen)), total: count, page: q.page, pageSize: q.pageSize };
 }
 
 export async function getJob(scope: Scope, id: string): Promise<JobDto> {
-  const job = await findJob(scope, id);
+  const job = await viewJob(scope, id);
   return toDto(job, await unseenFor(scope, [job.id]));
 }
 

@@ -1,0 +1,130 @@
+// npm run bench:api drives this (docker-free-scripts/bench-api.sh starts both servers first).
+// Each read of the issue's table against the app and against the bare baseline, autocannon at 32
+// connections, alternating baseline/app for BENCH_ROUNDS rounds of BENCH_SECONDS each; then every
+// list's first page with a filter, one user, one request at a time, for its p95. Prints ratios of
+// the baseline (absolute numbers on a shared machine mean little) and writes the raw numbers as JSON.
+import { mkdirSync, writeFileSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import autocannon from 'autocannon';
+
+const APP = process.env.BENCH_APP_URL;
+const BASE = process.env.BENCH_BASELINE_URL;
+const SECONDS = Number(process.env.BENCH_SECONDS ?? 8);
+const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 2);
+const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 32);
+const LIST_SAMPLES = Number(process.env.BENCH_LIST_SAMPLES ?? 100);
+const OUT = process.env.BENCH_OUT_DIR;
+if (!APP || !BASE) throw new Error('BENCH_APP_URL and BENCH_BASELINE_URL are required.');
+
+// What a browser sends: it takes compressed answers.
+const BROWSER = { 'accept-encoding': 'gzip, deflate, br', accept: 'application/json' };
+
+async function signIn(email, password) {
+  const res = await fetch(`${APP}/api/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password }) });
+  if (!res.ok) throw new Error(`sign-in as ${email} failed: ${res.status} ${await res.text()}`);
+  return res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+}
+
+async function getJson(url, cookie) {
+  const res = await fetch(url, { headers: { cookie, accept: 'application/json' } });
+  if (!res.ok) throw new Error(`GET ${url}: ${res.status} ${await res.text()}`);
+  return res.json();
+}
+
+function cannon(url, headers) {
+  return new Promise((resolve, reject) => {
+    autocannon({ url, connections: CONNECTIONS, duration: SECONDS, headers }, (err, r) => {
+      if (err) return reject(err);
+      resolve({ rps: r.requests.average, p975: r.latency.p97_5, p50: r.latency.p50, non2xx: r.non2xx, errors: r.errors + r.timeouts, bytesPerReq: r.requests.total ? Math.round(r.throughput.total / r.requests.total) : 0 });
+    });
+  });
+}
+
+const median = (xs) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+
+async function p95Of(url, cookie) {
+  for (let i = 0; i < 5; i += 1) await fetch(url, { headers: { cookie, ...BROWSER } }).then((r) => r.arrayBuffer());
+  const times = [];
+  let total = null;
+  for (let i = 0; i < LIST_SAMPLES; i += 1) {
+    const t = process.hrtime.bigint();
+    const res = await fetch(url, { headers: { cookie, ...BROWSER } });
+    const body = await res.json();
+    times.push(Number(process.hrtime.bigint() - t) / 1e6);
+    if (!res.ok) throw new Error(`GET ${url}: ${res.status} ${JSON.stringify(body)}`);
+    total = body.total ?? (Array.isArray(body) ? body.length : null);
+  }
+  const s = times.sort((a, b) => a - b);
+  return { p50: s[Math.floor(s.length * 0.5)], p95: s[Math.ceil(s.length * 0.95) - 1], total };
+}
+
+const cookie = await signIn('manager@brackenfold.example', 'wingstage-demo');
+const big = (await getJson(`${APP}/api/jobs?q=J-10001&pageSize=1`, cookie)).items[0];
+const other = (await getJson(`${APP}/api/jobs?q=J-15000&pageSize=1`, cookie)).items[0];
+if (!big || !other) throw new Error('The scale data set is missing (J-10001, J-15000): run npm run seed:scale.');
+const lineCount = (await getJson(`${APP}/api/jobs/${big.id}/estimate`, cookie)).lines.length;
+const aircraftId = other.aircraftId;
+
+const reads = [
+  { name: 'GET /api/jobs/:id (manager)', url: `${APP}/api/jobs/${other.id}` },
+  { name: `GET /api/jobs/:id/estimate, ${lineCount} lines`, url: `${APP}/api/jobs/${big.id}/estimate` },
+  { name: 'GET /api/auth/session', url: `${APP}/api/auth/session` },
+  { name: 'GET /api/health', url: `${APP}/api/health`, anonymous: true },
+];
+const baseUrl = `${BASE}/row/${other.id}`;
+
+const load = os.loadavg().map((l) => l.toFixed(2)).join(' ');
+console.log(`\nWingstage API benchmark: ${CONNECTIONS} connections, ${SECONDS} s a run, ${ROUNDS} round(s) alternating baseline/app; load average at start ${load}\n`);
+const results = [];
+for (const read of reads) {
+  const base = [];
+  const app = [];
+  for (let r = 0; r < ROUNDS; r += 1) {
+    base.push(await cannon(baseUrl, BROWSER));
+    app.push(await cannon(read.url, read.anonymous ? BROWSER : { ...BROWSER, cookie }));
+  }
+  const row = {
+    read: read.name,
+    app: { rps: median(app.map((x) => x.rps)), p975: median(app.map((x) => x.p975)), bytesPerReq: app[0].bytesPerReq, non2xx: app.reduce((s, x) => s + x.non2xx + x.errors, 0) },
+    baseline: { rps: median(base.map((x) => x.rps)), p975: median(base.map((x) => x.p975)), non2xx: base.reduce((s, x) => s + x.non2xx + x.errors, 0) },
+    runs: { app, base },
+  };
+  row.throughputRatio = row.app.rps / row.baseline.rps;
+  row.tailRatio = row.app.p975 / Math.max(row.baseline.p975, 1);
+  results.push(row);
+  console.log(
+    `${row.read.padEnd(40)} throughput ${(row.throughputRatio * 100).toFixed(0).padStart(3)}% of baseline, p97.5 ${row.tailRatio.toFixed(1)}× baseline` +
+      `   (app ${row.app.rps.toFixed(0)} req/s p97.5 ${row.app.p975} ms, ${row.app.bytesPerReq} B/answer; baseline ${row.baseline.rps.toFixed(0)} req/s p97.5 ${row.baseline.p975} ms)` +
+      (row.app.non2xx || row.baseline.non2xx ? `  ! ${row.app.non2xx} app / ${row.baseline.non2xx} baseline answers were errors` : ''),
+  );
+}
+
+// Lists: the first page with a filter, as one person clicking would see it.
+const lists = [
+  { name: 'jobs, state in work', url: `${APP}/api/jobs?state=in_work&page=1&pageSize=20` },
+  { name: 'jobs, search "gearbox"', url: `${APP}/api/jobs?q=gearbox&page=1&pageSize=20` },
+  { name: 'jobs, sorted by due date, awaiting owner', url: `${APP}/api/jobs?state=awaiting_owner&sort=dueOn&dir=desc&page=1&pageSize=20` },
+  { name: 'jobs of one aircraft', url: `${APP}/api/jobs?aircraftId=${aircraftId}&page=1&pageSize=20` },
+  { name: 'owners, search "owner 04"', url: `${APP}/api/customers?q=owner%2004&page=1&pageSize=20` },
+  { name: 'aircraft, search "Q-ZB"', url: `${APP}/api/aircraft?q=Q-ZB&page=1&pageSize=20` },
+  { name: "a job's findings (waiting and decided)", url: `${APP}/api/jobs/${other.id}/findings` },
+];
+console.log(`\nLists on the scale set, one user, ${LIST_SAMPLES} requests each (goal: p95 ≤ 100 ms)\n`);
+const listResults = [];
+for (const l of lists) {
+  const r = await p95Of(l.url, cookie);
+  listResults.push({ list: l.name, ...r });
+  console.log(`${l.name.padEnd(42)} p95 ${r.p95.toFixed(1).padStart(6)} ms   p50 ${r.p50.toFixed(1).padStart(6)} ms   (${r.total} rows match)`);
+}
+console.log(`\nload average at end ${os.loadavg().map((l) => l.toFixed(2)).join(' ')} on ${os.cpus().length} cores`);
+
+if (OUT) {
+  mkdirSync(OUT, { recursive: true });
+  const file = path.join(OUT, `api-${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
+  writeFileSync(file, JSON.stringify({ at: new Date().toISOString(), load, settings: { SECONDS, ROUNDS, CONNECTIONS, LIST_SAMPLES }, results, lists: listResults }, null, 2));
+  console.log(`raw numbers: ${file}`);
+}
