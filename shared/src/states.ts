@@ -295,6 +295,7 @@ export function canStartWork(q: { unagreedLines: number }): TransitionCheck {
     ok: false,
     reason: `The owner has not agreed the quote: ${q.unagreedLines} inspection line${q.unagreedLines === 1 ? '' : 's'} await${q.unagreedLines === 1 ? 's' : ''} their decision. Send the quote, or record that they agreed it by phone.`,
   };
+}
 
 /**
  * Card payments (vocabulary.md, "payment"): one record per attempt to take money for a deposit or a

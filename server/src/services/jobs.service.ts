@@ -12,8 +12,8 @@ import {
 } from '@wingstage/shared';
 import type { z } from 'zod';
 import type { jobListQuerySchema, jobTransitionSchema, jobUpdateSchema } from '@wingstage/shared';
-import { AppError, forbidden, notFound, staleVersion } from '../errors/app-error.js';
-import { Aircraft, AuditEvent, Customer, Job, User, boundSequelize } from '../models/index.js';
+import { AppError, forbidden, staleVersion } from '../errors/app-error.js';
+import { Aircraft, AuditEvent, Job, User, boundSequelize } from '../models/index.js';
 import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';

@@ -4,7 +4,7 @@ import sharp from 'sharp';
 import { Op, type Transaction } from 'sequelize';
 import { PHOTO_LIMITS, type ApprovalSnapshot, type FindingPhotoDto, type PhotoSize, type SnapshotPhoto } from '@wingstage/shared';
 import { AppError, conflict, notFound } from '../errors/app-error.js';
-import { ApprovalRequest, Finding, FindingPhoto, User, boundSequelize } from '../models/index.js';
+import { ApprovalRequest, Finding, FindingPhoto, User } from '../models/index.js';
 import type { PhotoStore } from '../storage/index.js';
 import { recordAudit } from './audit.js';
 import type { Deps } from './deps.js';

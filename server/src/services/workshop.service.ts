@@ -1,6 +1,6 @@
 import { workshopSettingsSchema, type WorkshopDto, type WorkshopUpdateInput } from '@wingstage/shared';
 import { notFound, staleVersion } from '../errors/app-error.js';
-import { Workshop, boundSequelize } from '../models/index.js';
+import { Workshop } from '../models/index.js';
 import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import type { Scope } from './scope.js';

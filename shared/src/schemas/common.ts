@@ -42,6 +42,7 @@ export const idParamsSchema = z.object({ id: idSchema });
  * Control characters other than tab, line feed and carriage return (C0, DEL and C1). PostgreSQL
  * refuses NUL outright and JSONB refuses it even escaped; the rest are invisible and only confuse.
  */
+// eslint-disable-next-line no-control-regex -- matching control characters is the point of this pattern
 const CONTROL_CHARACTER = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F]/;
 /** Half of a surrogate pair: not a character at all, and refused by JSONB (a text column would silently change it). */
 const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { JOB_STATES, type JobState } from '../states.js';
-import { idSchema, isoDate, listQuerySchema, optionalText, safeString, shortText, TEXT_MAX } from './common.js';
+import { idSchema, isoDate, listQuerySchema, optionalText, safeString, TEXT_MAX } from './common.js';
 
 /** Kinds of visit. Templates with scope and checklist arrive with the estimates work. */
 export const JOB_TYPES = [
