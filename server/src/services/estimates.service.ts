@@ -387,7 +387,7 @@ export async function agreeQuoteByPhone(
     await recordAudit(scope, t, {
       jobId: job.id,
       action: 'estimate.quote_agreed',
-      summary: `Quote agreed by phone with ${input.agreedWith} on ${input.agreedAt.slice(0, 16).replace('T', ' ')}: ${n} ${n === 1 ? 'line' : 'lines'}, ${money(w.currency, awaiting)} incl. VAT${input.note ? ` (${input.note})` : ''}`,
+      summary: `Quote agreed by phone with ${input.agreedWith} on ${input.agreedAt.slice(0, 16).replace('T', ' ')}: ${n} ${n === 1 ? 'line' : 'lines'}, ${formatMoney(awaiting, w.currency)} incl. VAT${input.note ? ` (${input.note})` : ''}`,
       detail: { how: 'phone', agreedWith: input.agreedWith, agreedAt: input.agreedAt, lines: n, gross: awaiting, note: input.note },
     });
     if (afterAgree) await afterAgree(job, t);

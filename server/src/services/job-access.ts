@@ -75,7 +75,7 @@ export async function lockOpenRequests(jobId: string, t: Transaction): Promise<v
 /** The job's own columns with its aircraft and owner, for reads that only show it. */
 export type JobView = Pick<
   Job,
-  'id' | 'number' | 'aircraftId' | 'title' | 'type' | 'state' | 'bookedInOn' | 'dueOn' | 'notes' | 'version' | 'createdAt' | 'updatedAt'
+  'id' | 'number' | 'aircraftId' | 'title' | 'type' | 'state' | 'bookedInOn' | 'dueOn' | 'notes' | 'scopeCautions' | 'version' | 'createdAt' | 'updatedAt'
 > & { aircraft: Pick<Aircraft, 'registration' | 'type' | 'customerId'> & { customer: Pick<Customer, 'name'> } };
 
 /**

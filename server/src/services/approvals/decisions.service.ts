@@ -16,7 +16,7 @@ import { ApprovalRequest, AuditEvent, Job, User, boundSequelize } from '../../mo
 import type { Deps } from '../deps.js';
 import { agreeQuoteLines, moveFindingLines, unagreedQuoteLines } from '../estimates.service.js';
 import { moveFindings } from '../findings.repository.js';
-import { findJob } from '../job-access.js';
+import { findJob, lockJobById } from '../job-access.js';
 import { moveJob } from '../job-state.js';
 import { withPhotos } from '../photos.service.js';
 import { requireStaff, type Scope } from '../scope.js';
