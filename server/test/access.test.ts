@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '@wingstage/shared';
 import { randomUUID } from 'node:crypto';
 import { EstimateLine, JobChecklistItem, JobTemplate, Part, Supplier, User } from '../src/models/index.js';
-import { sendForApproval } from '../src/services/approvals.service.js';
+import { sendForApproval } from '../src/services/approvals/index.js';
 import { makeFinding, makeJob, makeWorkshop, passwordHash, signIn, startTestServer, uniq, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
@@ -68,7 +68,7 @@ async function pricedFinding() {
 async function sentRequest(): Promise<string> {
   const f = await pricedFinding();
   const scope = { workshopId: a.workshop.id, userId: a.users.manager.id, role: 'manager' as const, customerId: null };
-  const res = await sendForApproval({ config: server.parts.config, mail: server.parts.mail, logger: server.parts.logger, photos: server.parts.photos }, scope, f.jobId, { findingIds: [f.id], message: '', estimateVersion: 0 });
+  const res = await sendForApproval({ config: server.parts.config, mail: server.parts.mail, logger: server.parts.logger, photos: server.parts.photos }, scope, f.jobId, { findingIds: [f.id], includeQuote: false, message: '', estimateVersion: 0 });
   return res.request!.id;
 }
 

@@ -1,10 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { sumAmounts, type DecisionPageDto, type EstimateDto, type EstimateLineInputForm, type SendForApprovalResultDto } from '@wingstage/shared';
+import { priceChoice, sumAmounts, type DecisionPageDto, type EstimateDto, type EstimateLineInputForm, type SendForApprovalResultDto } from '@wingstage/shared';
 import { ApprovalRequest } from '../src/models/index.js';
-// The owner's page prices each choice in the browser; this is that very code.
-import { runningTotal } from '../../client/src/features/decide/components/running-total.js';
 import { decideTokenFromMail, makeFinding, makeJob, mailsTo, makeWorkshop, signIn, startTestServer, type TestServer } from './helpers.js';
 
 let server: TestServer;
@@ -42,7 +40,7 @@ describe('the decision page\'s new total is the estimate\'s committed total afte
     const [keep, skip] = [await makeFinding(job, { title: 'Fairing bracket cracked' }), await makeFinding(job, { title: 'Placard faded' })];
     const line = (l: Partial<EstimateLineInputForm>): EstimateLineInputForm =>
       ({ id: randomUUID(), stage: 'discovered', kind: 'fee', description: 'Work', vatRate: 'standard', ...l }) as EstimateLineInputForm;
-    const saved = await manager.put(`/api/jobs/${job.id}/estimate`, {
+    const first = await manager.put(`/api/jobs/${job.id}/estimate`, {
       version: 0,
       lines: [
         line({ stage: 'inspection', description: 'Annual inspection', amount: '10.03' }),
@@ -51,6 +49,9 @@ describe('the decision page\'s new total is the estimate\'s committed total afte
       ],
       accessTasks: [],
     });
+    expect(first.status).toBe(200);
+    // The owner agreed the quote by phone, so it counts as agreed so far.
+    const saved = await manager.post(`/api/jobs/${job.id}/quote/phone-agreement`, { agreedWith: 'Owner One', agreedAt: new Date(Date.now() - 60_000).toISOString(), note: '', estimateVersion: (first.body as EstimateDto).version });
     expect(saved.status).toBe(200);
     const sent = await manager.post(`/api/jobs/${job.id}/approval-requests`, { findingIds: [keep.id, skip.id], message: '', estimateVersion: (saved.body as EstimateDto).version });
     expect(sent.status).toBe(201);
@@ -59,24 +60,26 @@ describe('the decision page\'s new total is the estimate\'s committed total afte
     expect(page.snapshot.rounding).toBe(rounding);
 
     const choice = { [keep.id]: 'approve', [skip.id]: 'decline' } as const;
-    const shown = runningTotal(page.snapshot, choice);
+    // Every figure the page shows comes from priceChoice on the snapshot's basis.
+    const shown = priceChoice(page.snapshot.basis, choice);
 
     const res = await request(server.app)
       .post(`/api/decide/${token}`)
-      .send({ snapshotHash: page.snapshotHash, typedName: 'Owner One', decisions: [{ findingId: keep.id, decision: 'approve', note: '' }, { findingId: skip.id, decision: 'decline', note: '' }] });
+      .send({ snapshotHash: page.snapshotHash, typedName: 'Owner One', decisions: [{ itemId: keep.id, decision: 'approve', note: '' }, { itemId: skip.id, decision: 'decline', note: '' }] });
     expect(res.status).toBe(200);
     const est = (await manager.get(`/api/jobs/${job.id}/estimate`)).body as EstimateDto;
 
     expect(est.priced.committed.gross).toBe('36.07');
-    expect(shown.newTotal).toBe(est.priced.committed.gross);
-    expect(shown).toMatchObject({ wholeInvoice: true, approvedSoFar: est.priced.quoted.gross });
-    // "Approved so far" and "Approving now" add up to it on the page.
-    expect(sumAmounts([shown.approvedSoFar, shown.addsToTotal], 'GBP')).toBe('36.07');
-    // The separate sum the page used to show would have missed by a penny.
-    expect(sumAmounts([shown.approvedSoFar, shown.thisRequestAsChosen], 'GBP')).toBe(partsAdded);
+    expect(shown.newTotal.gross).toBe(est.priced.committed.gross);
+    expect(shown.agreedSoFar.gross).toBe(est.priced.quoted.gross);
+    // "Agreed so far" and "Approving now" add up to it on the page, and the approved item is all of "approving now".
+    expect(sumAmounts([shown.agreedSoFar.gross, shown.approvingNow.gross], 'GBP')).toBe('36.07');
+    expect(shown.items.find((i) => i.id === keep.id)!.gross).toBe(shown.approvingNow.gross);
+    // Adding the two parts' own totals would have missed by a penny.
+    expect(sumAmounts([shown.agreedSoFar.gross, rounding === 'invoice-down' ? '24.03' : '24.04'], 'GBP')).toBe(partsAdded);
     // The receipt the page then shows is priced the same way.
     const after = (await request(server.app).get(`/api/decide/${token}`)).body as DecisionPageDto;
-    const decided = Object.fromEntries(after.decisions!.map((d) => [d.findingId, d.decision]));
-    expect(runningTotal(after.snapshot, decided).newTotal).toBe('36.07');
+    const decided = Object.fromEntries(after.decisions!.map((d) => [d.itemId, d.decision]));
+    expect(priceChoice(after.snapshot.basis, decided).newTotal.gross).toBe('36.07');
   });
 });

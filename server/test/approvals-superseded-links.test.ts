@@ -49,7 +49,7 @@ async function resend(requestId: string): Promise<string> {
   return currentToken(requestId);
 }
 
-const decideBody = (page: DecisionPageDto, findingId: string) => ({ snapshotHash: page.snapshotHash, typedName: 'Owner One', decisions: [{ findingId, decision: 'approve', note: '' }] });
+const decideBody = (page: DecisionPageDto, findingId: string) => ({ snapshotHash: page.snapshotHash, typedName: 'Owner One', decisions: [{ itemId: findingId, decision: 'approve', note: '' }] });
 
 describe('a link superseded by re-sending the request', () => {
   it('when the owner opens the older link after a re-send, then the page shows the request closed and says a newer link was sent, with no decisions and no photos', async () => {
@@ -146,7 +146,7 @@ describe('a link superseded by re-sending the request', () => {
     const page = await anon().get(`/api/decide/${never}`);
     expect(page.status).toBe(404);
     expect(page.body.error.message).toMatch(/link is not valid/);
-    const post = await anon().post(`/api/decide/${never}`).send({ snapshotHash: 'a'.repeat(64), typedName: 'Owner One', decisions: [{ findingId: randomUUID(), decision: 'approve', note: '' }] });
+    const post = await anon().post(`/api/decide/${never}`).send({ snapshotHash: 'a'.repeat(64), typedName: 'Owner One', decisions: [{ itemId: randomUUID(), decision: 'approve', note: '' }] });
     expect(post.status).toBe(404);
     expect((await anon().get(decidePhotoUrl(never, photo.id))).status).toBe(404);
   });

@@ -5,7 +5,8 @@ import type { ApprovalRequestDto, DecisionPageDto, EstimateDto, EstimateLineInpu
 import { createApp } from '../src/app.js';
 import { MailQueue } from '../src/mail/mail-queue.js';
 import { ApprovalRequest, AuditEvent, Finding, Job } from '../src/models/index.js';
-import { canonicalJson, chaseUndecided } from '../src/services/approvals.service.js';
+import { canonicalJson } from '../src/services/approvals/index.js';
+import { chaseUndecided } from '../src/jobs/approval-reminders.js';
 import { decideTokenFromMail, sha256Hex, makeFinding, makeJob, mailsTo, makeWorkshop, signIn, startTestServer, testConfig, uniq, waitForMail, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
@@ -57,7 +58,10 @@ async function pricedJob(nets: string[], categories: Finding['category'][] = [])
   ];
   const res = await manager.put(`/api/jobs/${job.id}/estimate`, { version: 0, lines, accessTasks: [] });
   expect(res.status).toBe(200);
-  return { job, findings, estimate: res.body as EstimateDto, ownerEmail: a.owners[0].customer.email };
+  // The owner agreed the quote on the phone, so these tests are about the findings alone.
+  const agreed = await manager.post(`/api/jobs/${job.id}/quote/phone-agreement`, { agreedWith: 'Owner One', agreedAt: new Date(Date.now() - 60_000).toISOString(), note: '', estimateVersion: (res.body as EstimateDto).version });
+  expect(agreed.status).toBe(200);
+  return { job, findings, estimate: agreed.body as EstimateDto, ownerEmail: a.owners[0].customer.email };
 }
 
 async function send(p: Priced, findingIds = p.findings.map((f) => f.id), c: Client = manager) {
@@ -81,7 +85,7 @@ const anon = () => request(server.app);
 const allDecisions = (page: DecisionPageDto, decide: (i: number) => 'approve' | 'decline') => ({
   snapshotHash: page.snapshotHash,
   typedName: 'Owner One',
-  decisions: page.snapshot.findings.map((f, i) => ({ findingId: f.findingId, decision: decide(i), note: i === 0 ? 'Go ahead.' : '' })),
+  decisions: page.snapshot.findings.map((f, i) => ({ itemId: f.findingId, decision: decide(i), note: i === 0 ? 'Go ahead.' : '' })),
 });
 
 describe('sending findings for approval', () => {
@@ -117,11 +121,13 @@ describe('sending findings for approval', () => {
     // Key order does not change the canonical form.
     const reordered = Object.fromEntries(Object.entries(body.snapshot).reverse());
     expect(canonicalJson(reordered)).toBe(canonicalJson(body.snapshot));
-    expect(body.snapshot.findings[0]).toMatchObject({ number: 'F-1', price: { net: '125.00', vat: '25.00', gross: '150.00' }, photos: [] });
+    expect(body.snapshot.findings[0]).toMatchObject({ number: 'F-1', gross: '150.00', photos: [] });
+    expect(body.snapshot.version).toBe(3);
     // The figures are the estimate's own.
     const est = (await manager.get(`/api/jobs/${p.job.id}/estimate`)).body as EstimateDto;
     expect(body.snapshot.totals.quoted.gross).toBe(est.priced.quoted.gross);
-    expect(body.snapshot.findings[0]!.price.gross).toBe(est.priced.findings[0]!.price.gross);
+    // One finding with no opening-up: its fixed price is the engine's own price for it.
+    expect(body.snapshot.findings[0]!.gross).toBe(est.priced.findings[0]!.price.gross);
   });
 
   it('when a finding is not priced, or belongs to another job, then sending is refused and nothing is sent', async () => {
@@ -170,8 +176,8 @@ describe("the owner's decision", () => {
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ state: 'decided', decidedByName: 'Owner One' });
     expect(res.body.decisions).toEqual([
-      { findingId: p.findings[0]!.id, decision: 'approve', note: 'Go ahead.' },
-      { findingId: p.findings[1]!.id, decision: 'decline', note: '' },
+      { itemId: p.findings[0]!.id, decision: 'approve', note: 'Go ahead.' },
+      { itemId: p.findings[1]!.id, decision: 'decline', note: '' },
     ]);
     const est = (await manager.get(`/api/jobs/${p.job.id}/estimate`)).body as EstimateDto;
     expect(est.lines.filter((l) => l.findingId === p.findings[0]!.id).map((l) => l.stage)).toEqual(['approved']);
@@ -231,7 +237,7 @@ describe("the owner's decision", () => {
     expect((await Finding.findAll({ where: { jobId: p.job.id } })).map((f) => f.state)).toEqual(['sent', 'sent']);
   });
 
-  it('when the link is revoked, then it explains so and refuses; a re-send gives a new link and the old one only says a newer one was sent', async () => {
+  it('when the link is revoked, then it explains so and refuses, and the revoked request cannot be re-sent (the table keeps it final)', async () => {
     const p = await pricedJob(['14.00']);
     const { request: r, token } = await sendAndRead(p);
     const page = (await anon().get(`/api/decide/${token}`)).body as DecisionPageDto;
@@ -243,6 +249,22 @@ describe("the owner's decision", () => {
     expect(refused.status).toBe(409);
     expect(refused.body.error.message).toMatch(/withdrew this link/);
 
+    const before = await ApprovalRequest.findByPk(r.id);
+    const resent = await manager.post(`/api/approval-requests/${r.id}/resend`);
+    expect(resent.status).toBe(409);
+    expect(resent.body.error).toMatchObject({ code: 'invalid_transition' });
+    expect(resent.body.error.message).toMatch(/only a request waiting for the owner can be re-sent\. Send a new request instead\./);
+    const after = await ApprovalRequest.findByPk(r.id);
+    expect(after).toMatchObject({ state: 'revoked', tokenHash: before!.tokenHash, linkNonce: before!.linkNonce });
+    // The workshop sends a new request for the same finding instead.
+    const again = await send(p);
+    expect(again.status).toBe(201);
+  });
+
+  it('when a request waiting for the owner is re-sent, then it gets a new link and the old one only says a newer one was sent', async () => {
+    const p = await pricedJob(['14.50']);
+    const { request: r, token } = await sendAndRead(p);
+    const page = (await anon().get(`/api/decide/${token}`)).body as DecisionPageDto;
     const resent = await manager.post(`/api/approval-requests/${r.id}/resend`);
     expect(resent.status).toBe(200);
     expect(resent.body).toMatchObject({ state: 'sent', snapshotHash: r.snapshotHash });
@@ -294,7 +316,7 @@ describe('replacement when a price changes', () => {
     expect(next).toMatchObject({ state: 'sent', gross: '96.00' });
     const fresh = await tokenOf(p.ownerEmail, next!.id);
     const newPage = (await anon().get(`/api/decide/${fresh}`)).body as DecisionPageDto;
-    expect(newPage.snapshot.findings.map((f) => f.price.gross)).toEqual(['72.00', '24.00']);
+    expect(newPage.snapshot.findings.map((f) => f.gross)).toEqual(['72.00', '24.00']);
     const stale = await anon().post(`/api/decide/${token}`).send(allDecisions(oldPage, () => 'approve'));
     expect(stale.status).toBe(409);
     expect(stale.body.error.message).toMatch(/replaced by a newer one on .*: the workshop changed a price\. Use the link in the newest e-mail\./);

@@ -170,9 +170,15 @@ describe('the staged estimate', () => {
     expect(stored.version).toBe(1);
     expect(stored.priced.lines.map((l) => l.net)).toEqual(['155.00', '32.76', '110.00', '45.00']);
     expect(stored.priced.quoted).toMatchObject({ net: '342.76', vat: '59.55', gross: '402.31' });
-    expect(stored.priced.committed.gross).toBe('402.31');
+    // Quoted, but nothing counts as agreed until the owner agrees the quote.
+    expect(stored.priced.committed.gross).toBe('0.00');
+    expect(stored.quote).toMatchObject({ state: 'not_sent', awaitingGross: '402.31' });
     const history = await AuditEvent.findAll({ where: { jobId: job.id, action: 'estimate.saved' } });
     expect(history.map((h) => h.summary)).toEqual(['Estimate saved: 4 lines changed, total £0.00 → £402.31 incl. VAT']);
+    // Once the owner agrees it (here by phone), the whole hand-worked figure counts.
+    const agreed = await manager.post(`/api/jobs/${job.id}/quote/phone-agreement`, { agreedWith: 'Owner One', agreedAt: new Date(Date.now() - 60_000).toISOString(), note: '', estimateVersion: stored.version });
+    expect(agreed.status).toBe(200);
+    expect((agreed.body as EstimateDto).priced.committed.gross).toBe('402.31');
   });
 
   it('when two managers save the same estimate at once, then exactly one wins and the other is told, with nothing lost', async () => {

@@ -2,7 +2,7 @@ import { approvalReminderMail } from '../mail/approval-mails.js';
 import { ApprovalRequest, AuditEvent, Workshop, boundSequelize } from '../models/index.js';
 import { expireDue } from '../services/approvals/index.js';
 import { linkOf } from '../services/approvals/links.js';
-import { jobOwner } from '../services/approvals/repository.js';
+import { OPEN_REQUEST, jobOwner } from '../services/approvals/repository.js';
 import type { Deps } from '../services/deps.js';
 import { toWorkshopDto } from '../services/workshop.service.js';
 
@@ -12,7 +12,7 @@ import { toWorkshopDto } from '../services/workshop.service.js';
  */
 export async function chaseUndecided(deps: Deps, now: Date = new Date()): Promise<{ expired: number; reminded: number }> {
   const expired = await expireDue(now);
-  const open = await ApprovalRequest.findAll({ where: { state: 'sent' }, attributes: ['id', 'workshopId'] });
+  const open = await ApprovalRequest.findAll({ where: { state: OPEN_REQUEST }, attributes: ['id', 'workshopId'] });
   let reminded = 0;
   for (const o of open) {
     await boundSequelize().transaction(async (t) => {

@@ -252,6 +252,9 @@ export async function saveEstimate(
     const before = priced(w, current.lines, current.accessTasks);
     const editableBefore = current.lines.filter((l) => !keptIds.has(l.id));
 
+    // The agreement each inspection line had, read before the lines are replaced (lines go before the tasks they name).
+    const stored = new Map((await EstimateLine.findAll({ where: { jobId: job.id, stage: 'inspection' }, transaction: t })).map((l) => [l.id, l]));
+    await EstimateLine.destroy({ where: inWorkshop(scope, { jobId: job.id, stage: ['inspection', 'discovered'] }), transaction: t });
     const keepTasks = [...newTasks];
     await boundSequelize().query(
       `DELETE FROM access_tasks WHERE job_id = $1 AND workshop_id = $2 AND NOT (id = ANY($3::uuid[]))`,
@@ -265,7 +268,6 @@ export async function saveEstimate(
     }
     const base = kept.length;
     // Agreement on an inspection line survives a save only while what prices it is unchanged.
-    const stored = new Map((await EstimateLine.findAll({ where: { jobId: job.id, stage: 'inspection' }, transaction: t })).map((l) => [l.id, l]));
     const taskBefore = new Map(current.accessTasks.map((a) => [a.id, a]));
     const taskAfter = new Map(input.accessTasks.map((a) => [a.id, a]));
     const sameTask = (id: string | null) =>
@@ -281,7 +283,6 @@ export async function saveEstimate(
         : { agreedAt: null, agreedHow: null, agreedBy: null, agreedRef: null };
       return { ...l, ...agreement, jobId: job.id, workshopId: scope.workshopId, sortOrder: base + i };
     });
-    await EstimateLine.destroy({ where: inWorkshop(scope, { jobId: job.id, stage: ['inspection', 'discovered'] }), transaction: t });
     if (rows.length) await EstimateLine.bulkCreate(rows, { transaction: t });
     const added = input.lines.filter((l) => l.stage === 'inspection' && !stored.has(l.id)).length;
     const hadAgreement = [...stored.values()].some((r) => r.agreedAt !== null);

@@ -5,7 +5,7 @@ import {
   CHECKLIST_RESULT_LABELS,
   FINDING_CATEGORY_LABELS,
   FINDING_STATE_LABELS,
-  canMoveFinding,
+  assertFindingMove,
   checkLimit,
   describeLimit,
   isOpenAirworthiness,
@@ -27,6 +27,7 @@ import {
 import { AppError, conflict, notFound, staleVersion } from '../errors/app-error.js';
 import { EstimateLine, Finding, JobChecklistItem, TimeLog, User, boundSequelize } from '../models/index.js';
 import { recordAudit } from './audit.js';
+import { moveFindings } from './findings.repository.js';
 import { loadParts } from './catalogue.service.js';
 import { assertEstimateEditable, ensureEstimate } from './estimates.service.js';
 import { inTransaction } from '../db/transaction.js';
@@ -199,10 +200,9 @@ export async function withdrawFinding(
     const est = await ensureEstimate(scope, job.id, t, true);
     const f = await findFinding(scope, job.id, findingId, t, true);
     if (f.version !== input.version) throw staleVersion();
-    const check = canMoveFinding(f.state, 'withdrawn');
-    if (!check.ok) throw new AppError('invalid_transition', 409, check.reason);
+    assertFindingMove(f.state, 'withdrawn');
     const removed = await EstimateLine.destroy({ where: inWorkshop(scope, { jobId: job.id, findingId: f.id, stage: 'discovered' }), transaction: t });
-    await f.update({ state: 'withdrawn' }, { transaction: t });
+    await moveFindings(job.id, [f.id], 'withdrawn', t);
     if (removed > 0) await est.update({ version: est.version + 1 }, { transaction: t });
     await recordAudit(scope, t, {
       jobId: job.id,

@@ -21,7 +21,7 @@ import { moveJob } from '../job-state.js';
 import { withPhotos } from '../photos.service.js';
 import { requireStaff, type Scope } from '../scope.js';
 import { linkOf, sameHash, sha256 } from './links.js';
-import { bySupersededHash, decisionsOf, insertDecision, jobOwner, markDecisionsSeen, moveRequest } from './repository.js';
+import { bySupersededHash, decisionsOf, insertDecision, jobOwner, markDecisionsSeen, moveRequest, OPEN_REQUEST } from './repository.js';
 import { checklistComplete, expireIfDue } from './requests.service.js';
 import { itemIdsOf, itemName } from './snapshot.js';
 
@@ -181,7 +181,7 @@ export async function submitDecision(deps: Deps, token: string, input: DecisionI
     // Work starts by itself only when nothing waits for the owner, the quote is agreed and the inspection is finished.
     const job = (await Job.findOne({ where: { id: r.jobId }, transaction: t }))!;
     if (job.state === 'awaiting_owner') {
-      const open = await ApprovalRequest.count({ where: { jobId: r.jobId, state: 'sent' }, transaction: t });
+      const open = await ApprovalRequest.count({ where: { jobId: r.jobId, state: OPEN_REQUEST }, transaction: t });
       const quoteAgreed = canStartWork({ unagreedLines: await unagreedQuoteLines(r.jobId, t) }).ok;
       if (open === 0 && quoteAgreed && (await checklistComplete(r.jobId, t))) {
         await moveJob(null, job, 'in_work', 'the owner has decided everything sent and the quote is agreed', t);

@@ -1,11 +1,14 @@
 import { Op, QueryTypes, type Transaction } from 'sequelize';
-import { assertRequestMove, type ApprovalRequestState, type Decision, type JobDecisionsToSee } from '@wingstage/shared';
+import { APPROVAL_REQUEST_STATES, assertRequestMove, type ApprovalRequestState, type Decision, type JobDecisionsToSee } from '@wingstage/shared';
 import { ApprovalRequest, boundSequelize } from '../../models/index.js';
 
 /**
  * The approvals tables reached by SQL (approval_request_findings, approval_decisions,
  * approval_superseded_links) and every write of a request's state. Values are always parameters.
  */
+
+/** The state of a request still waiting for the owner: the only one reads look for (APPROVAL_REQUEST_STATES[0]). */
+export const OPEN_REQUEST: ApprovalRequestState = APPROVAL_REQUEST_STATES[0];
 
 /** The one place a request's state is written: the move is checked against the request table first. */
 export async function moveRequest(
@@ -87,7 +90,7 @@ export async function jobOwner(jobId: string, t?: Transaction): Promise<{ name: 
 
 /** What the quote's state needs from the requests: the open one holding it, and the owner's last decision on it. */
 export async function quoteRequestFacts(jobId: string, t?: Transaction): Promise<{ openRequestId: string | null; lastDecision: Decision | null }> {
-  const open = await ApprovalRequest.findOne({ where: { jobId, includesQuote: true, state: 'sent' }, attributes: ['id'], order: [['sentAt', 'DESC']], transaction: t });
+  const open = await ApprovalRequest.findOne({ where: { jobId, includesQuote: true, state: OPEN_REQUEST }, attributes: ['id'], order: [['sentAt', 'DESC']], transaction: t });
   const [last] = await boundSequelize().query<{ decision: Decision }>(
     `SELECT d.decision FROM approval_decisions d JOIN approval_requests r ON r.id = d.request_id
       WHERE r.job_id = $1 AND d.finding_id IS NULL ORDER BY r.decided_at DESC LIMIT 1`,

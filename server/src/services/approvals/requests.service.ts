@@ -23,7 +23,7 @@ import { ApprovalRequest, AuditEvent, Finding, JobChecklistItem, type Workshop, 
 import { recordAudit } from '../audit.js';
 import type { Deps } from '../deps.js';
 import { assertEstimateEditable, ensureEstimate, loadLines, moveFindingLines } from '../estimates.service.js';
-import { moveFindings } from '../findings.repository.js';
+import { findingIdsIn, moveFindings } from '../findings.repository.js';
 import { findJob, type JobRow } from '../job-access.js';
 import { moveJob } from '../job-state.js';
 import { snapshotPhotosOf } from '../photos.service.js';
@@ -32,7 +32,7 @@ import { inWorkshop, requireStaff, type Scope } from '../scope.js';
 import { toWorkshopDto } from '../workshop.service.js';
 import { canonicalJson, newLink } from './links.js';
 import { usedSoFar } from './pre-authorisation.service.js';
-import { addRequestFindings, findingIdsOf, jobOwner, moveRequest, supersedeLink } from './repository.js';
+import { addRequestFindings, findingIdsOf, jobOwner, moveRequest, supersedeLink, OPEN_REQUEST } from './repository.js';
 import { buildSnapshot, findingNumber } from './snapshot.js';
 import { snapshotHashOf } from './links.js';
 
@@ -154,7 +154,7 @@ export async function sendForApproval(deps: Deps, scope: Scope, jobId: string, i
     const { w, lines, priced } = await pricedJob(scope, job.id, t);
     if (input.includeQuote) {
       if (!lines.some((l) => l.stage === 'inspection' && l.agreedAt === null)) throw conflict('Nothing in the quote waits for the owner: every inspection line is already agreed.');
-      const open = await ApprovalRequest.findOne({ where: inWorkshop(scope, { jobId: job.id, state: 'sent', includesQuote: true }), transaction: t });
+      const open = await ApprovalRequest.findOne({ where: inWorkshop(scope, { jobId: job.id, state: OPEN_REQUEST, includesQuote: true }), transaction: t });
       if (open) throw conflict(`The quote is already with the owner in the request sent ${open.sentAt.toISOString().slice(0, 10)}. Revoke that request to send it again.`);
     }
     const ids = [...new Set(input.findingIds)];
@@ -289,7 +289,7 @@ export async function resendRequest(deps: Deps, scope: Scope, id: string): Promi
  * a new request for the items still awaiting the owner, at the new prices; one with none left is revoked.
  */
 export async function replaceChangedRequests(deps: Deps, scope: Scope, job: JobRow, t: Transaction): Promise<void> {
-  const open = await ApprovalRequest.findAll({ where: inWorkshop(scope, { jobId: job.id, state: 'sent' }), transaction: t, lock: t.LOCK.UPDATE });
+  const open = await ApprovalRequest.findAll({ where: inWorkshop(scope, { jobId: job.id, state: OPEN_REQUEST }), transaction: t, lock: t.LOCK.UPDATE });
   if (!open.length) return;
   const { w, priced } = await pricedJob(scope, job.id, t);
   const ids = await findingIdsOf(open.map((r) => r.id), t);
@@ -298,7 +298,7 @@ export async function replaceChangedRequests(deps: Deps, scope: Scope, job: JobR
   for (const r of open) {
     const all = ids.get(r.id) ?? [];
     // A finding withdrawn since sending leaves the request as it is (withdrawn).
-    const sent = new Set((await Finding.findAll({ where: inWorkshop(scope, { jobId: job.id, id: all, state: 'sent' }), attributes: ['id'], transaction: t })).map((f) => f.id));
+    const sent = new Set((await findingIdsIn(job.id, 'sent', t)).filter((id) => all.includes(id)));
     const stillIds = all.filter((id) => sent.has(id) && hasDiscovered.has(id));
     const quote = r.includesQuote && quoteWaits;
     const now = stillIds.length || quote ? choiceBasisFrom(priced, { quote, findingIds: stillIds }, pricingOf(w).vatRates, () => '') : null;
@@ -343,7 +343,7 @@ export async function expireIfDue(r: ApprovalRequest, now: Date, t: Transaction)
 }
 
 export async function expireDue(now: Date, where: { jobId?: string } = {}): Promise<number> {
-  const due = await ApprovalRequest.findAll({ where: { state: 'sent', ...where }, attributes: ['id', 'expiresAt'] });
+  const due = await ApprovalRequest.findAll({ where: { state: OPEN_REQUEST, ...where }, attributes: ['id', 'expiresAt'] });
   let n = 0;
   for (const d of due.filter((x) => x.expiresAt <= now)) {
     await boundSequelize().transaction(async (t) => {
