@@ -1,4 +1,4 @@
-import { JOB_TYPE_LABELS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto, type JobState } from '@wingstage/shared';
+import { JOB_TYPE_LABELS, QUOTE_STATE_OWNER_WORDS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto, type JobState } from '@wingstage/shared';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { CategoryBadge, FindingStateBadge } from '@/components/ui/finding-badges';
 import { PhotoStrip } from '@/components/ui/photo-strip';
@@ -33,8 +33,16 @@ function count(n: number, one: string, many: string): string {
   return `${WORDS[n] ?? String(n)} ${n === 1 ? one : many}`;
 }
 
-function DecisionWaiting({ request, currency }: { request: ApprovalRequestDto; currency: string }) {
+/** "our quote", "two findings", "our quote and one finding": what a request put to the owner. */
+function requestWords(request: ApprovalRequestDto): string {
   const n = request.findingIds.length;
+  const found = n > 0 ? count(n, 'finding', 'findings').toLowerCase() : '';
+  if (request.includesQuote) return found ? `our quote and ${found}` : 'our quote';
+  return found;
+}
+
+function DecisionWaiting({ request, currency }: { request: ApprovalRequestDto; currency: string }) {
+  const several = request.findingIds.length + (request.includesQuote ? 1 : 0) > 1;
   return (
     <div data-testid="decision-waiting" className="mt-3 flex gap-3 rounded-card border-2 border-dusk bg-dusk-tint p-3 text-slate">
       <span className="text-dusk">
@@ -45,9 +53,9 @@ function DecisionWaiting({ request, currency }: { request: ApprovalRequestDto; c
           Your decision is needed <ApprovalRequestBadge state={request.state} />
         </p>
         <p>
-          On {formatDateTime(request.sentAt)} we e-mailed you {count(n, 'finding', 'findings').toLowerCase()} to approve or decline,{' '}
-          <span className="tabular-nums">{formatMoney(request.gross, currency, { vat: 'incl' })}</span> if you approve them all. Open the link in that e-mail to decide; it
-          works until {formatDateTime(request.expiresAt)}.
+          On {formatDateTime(request.sentAt)} we e-mailed you {requestWords(request)} to approve or decline,{' '}
+          <span className="tabular-nums">{formatMoney(request.gross, currency, { vat: 'incl' })}</span> if you approve {several ? 'them all' : 'it'}. Open the link in that e-mail
+          to decide; it works until {formatDateTime(request.expiresAt)}.
         </p>
       </div>
     </div>
@@ -58,19 +66,32 @@ function MoneySoFar({ estimate }: { estimate: EstimateDto }) {
   const p = estimate.priced;
   const m = (a: string) => formatMoney(a, estimate.currency, { vat: 'incl' });
   const undecided = compareAmounts(p.undecided.gross, '0') > 0;
+  const quoteWaiting = compareAmounts(estimate.quote.awaitingGross, '0') > 0;
   return (
     <dl className="mt-3 grid grid-cols-[1fr_auto] gap-x-4 gap-y-1 text-sm tabular-nums" aria-label="The money so far">
-      <dt>First quoted</dt>
+      <dt>Our quote</dt>
+      <dd className="text-right" data-owner-quote={estimate.quote.state}>
+        {QUOTE_STATE_OWNER_WORDS[estimate.quote.state]}
+      </dd>
+      <dt>Quoted</dt>
       <dd className="text-right" data-owner-total="quoted">
         {m(p.quoted.gross)}
       </dd>
+      {quoteWaiting ? (
+        <>
+          <dt>Of the quote, not yet agreed</dt>
+          <dd className="text-right" data-owner-total="quote-awaiting">
+            {m(estimate.quote.awaitingGross)}
+          </dd>
+        </>
+      ) : null}
       <dt className="font-semibold">Agreed so far</dt>
       <dd className="text-right font-semibold" data-owner-total="committed">
         {m(p.committed.gross)}
       </dd>
       {undecided ? (
         <>
-          <dt>Waiting for your decision</dt>
+          <dt>Waiting for your decision, in all</dt>
           <dd className="text-right" data-owner-total="undecided">
             {m(p.undecided.gross)}
           </dd>
