@@ -73,7 +73,8 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await panel.scrollIntoViewIfNeeded();
     await shot(page, testInfo, '00a-manager-quote-ticked-1280', false);
     await panel.getByRole('button', { name: 'Send for approval' }).click();
-    await expect(panel.getByTestId('request-sent')).toContainText('with the quote');
+    // Sending waits for the job's figures to reload; a busy machine can take a while.
+    await expect(panel.getByTestId('request-sent')).toContainText('with the quote', { timeout: 45_000 });
     await expect(quote.locator('[data-quote-state="sent"]')).toBeVisible();
     await ctx.close();
 

@@ -215,7 +215,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await shot(phone, testInfo, '07-owner-old-link-375', false);
     const wide = await context(browser, baseURL, false);
     const widePage = await wide.newPage();
-    await widePage.goto(first);
+    await widePage.goto(fresh);
     await expect(widePage.getByTestId('decision-closed').getByText('A newer link was sent to you', { exact: true })).toBeVisible();
     await shot(widePage, testInfo, '07b-owner-old-link-1280', false);
     await wide.close();
