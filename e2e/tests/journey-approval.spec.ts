@@ -1,13 +1,17 @@
 import { fileURLToPath } from 'node:url';
 import { expect, test } from '@playwright/test';
-import { apiCall, context, decisionLink, expectLoaded, shot, signedIn } from './support/journey';
+import { DESKTOP, PHONE, apiCall, context, decisionLink, expectLoaded, mailTo, shot, signedIn } from './support/journey';
 
 /**
- * The approval journey. An engineer at phone width records a spark plug gap outside the template's
+ * The approval journey. The manager books the job in and sends the quote (the template's inspection
+ * scope); the owner accepts it on a phone before anything else. Then an engineer at phone width records a spark plug gap outside the template's
  * example limit and raises the proposed finding, plus a second (airworthiness) finding; the manager
  * at desktop width prices both, saves, and sends one request. The owner opens the e-mailed link on
  * a phone, approves the plug work and declines the airworthiness item, types their name and
- * confirms. The manager's estimate, the owner's own page and the job's history all show the result.
+ * confirms; a reload half-way through the findings keeps their choices. The manager hears about it:
+ * an e-mail, and a flag on the job and in the jobs list (the stronger one: an airworthiness item was
+ * declined and the owner left a note) until they mark it seen. The manager's estimate, the owner's
+ * own page and the job's history all show the result.
  *
  * The engineer attaches a photo to the plug finding (and sees a text file named .jpg refused in the
  * form); the manager sees its thumbnail on the finding's card and opens it large.
@@ -32,6 +36,7 @@ test('an engineer raises findings, the manager sends one request, the owner deci
   const springTitle = `Exhaust spring cracked ${stamp}`;
   let jobId = '';
   let jobNumber = '';
+  let quoteLink = '';
 
   await test.step('the manager books the job in from the annual permit template and starts the inspection', async () => {
     const { ctx, page } = await signedIn(browser, baseURL, 'manager@brackenfold.example', false);
@@ -53,6 +58,58 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     jobNumber = job.number;
     await apiCall(page, 'POST', `/api/jobs/${job.id}/transition`, { to: 'inspecting', version: job.version });
     await ctx.close();
+  });
+
+  await test.step('the manager sends the quote and the owner accepts it on a phone first', async () => {
+    const quoteSince = Date.now();
+    const { ctx, page } = await signedIn(browser, baseURL, 'manager@brackenfold.example', false);
+    await page.goto(`/jobs/${jobId}`);
+    const quote = page.getByTestId('quote-panel');
+    await expect(quote.locator('[data-quote-state="not_sent"]')).toHaveText('Quote not sent');
+    await quote.getByRole('button', { name: 'Send quote to owner' }).click();
+    const panel = page.getByRole('region', { name: 'Send for approval' });
+    await expect(panel.getByRole('checkbox', { name: /^Quote: the inspection scope not yet agreed/ })).toBeChecked();
+    await expect(panel.getByTestId('send-preview')).toContainText('The quote');
+    await panel.scrollIntoViewIfNeeded();
+    await shot(page, testInfo, '00a-manager-quote-ticked-1280', false);
+    await panel.getByRole('button', { name: 'Send for approval' }).click();
+    // Sending waits for the job's figures to reload; a busy machine can take a while.
+    await expect(panel.getByTestId('request-sent')).toContainText('with the quote', { timeout: 45_000 });
+    await expect(quote.locator('[data-quote-state="sent"]')).toBeVisible();
+    await ctx.close();
+
+    const link = new URL(await decisionLink(request, OWNER_EMAIL, quoteSince, jobNumber)).pathname;
+    quoteLink = link;
+    const wide = await context(browser, baseURL, false);
+    const widePage = await wide.newPage();
+    await widePage.goto(link);
+    await expect(widePage.getByTestId('decide-quote')).toBeVisible();
+    await shot(widePage, testInfo, '00b-owner-quote-1280', false);
+    await wide.close();
+
+    const phone = await context(browser, baseURL, true);
+    const owner = await phone.newPage();
+    await owner.goto(link);
+    await expect(owner.getByRole('heading', { level: 1, name: 'Our quote for Q-SALT' })).toBeVisible();
+    await expect(owner.getByText('Waiting for your decision')).toBeVisible();
+    const price = (await owner.getByTestId('decide-price').locator('p.text-2xl').textContent()) ?? '';
+    await shot(owner, testInfo, '00c-owner-quote-375', false);
+    await owner.getByRole('radio', { name: /^Accept/ }).check();
+    const bar = owner.getByTestId('running-total');
+    await expect(bar.locator('[data-total="approving-now"]')).toHaveText(price.replace(' incl. VAT', ''));
+    await owner.getByRole('button', { name: 'Review your choices' }).click();
+    await owner.getByLabel('Type your full name to confirm').fill(OWNER_NAME);
+    await shot(owner, testInfo, '00d-owner-quote-review-375', false);
+    await owner.getByRole('button', { name: 'Confirm decisions' }).click();
+    await expect(owner.getByTestId('decision-receipt').getByRole('heading', { name: 'Your decisions are recorded' })).toBeVisible();
+    await expect(owner.getByTestId('decision-receipt').locator('[data-receipt="quote"]')).toContainText('Accepted');
+    await shot(owner, testInfo, '00e-owner-quote-receipt-375', false);
+    await phone.close();
+
+    const again = await signedIn(browser, baseURL, 'manager@brackenfold.example', false);
+    await again.page.goto(`/jobs/${jobId}`);
+    await expect(again.page.getByTestId('quote-panel').locator('[data-quote-state="agreed"]')).toHaveText('Quote agreed');
+    await again.ctx.close();
   });
 
   await test.step('the engineer records an out-of-limit plug gap on a phone and raises two findings', async () => {
@@ -166,8 +223,9 @@ test('an engineer raises findings, the manager sends one request, the owner deci
   });
 
   let newTotal = '';
+  let decidedAt = 0;
   await test.step('the owner opens the e-mailed link on a phone, approves one finding and declines the other', async () => {
-    const link = await decisionLink(request, OWNER_EMAIL, since, jobNumber);
+    const link = await decisionLink(request, OWNER_EMAIL, since, jobNumber, [quoteLink]);
     // An upper bound (the manager's steps after sending and the poll interval count too).
     const sendToMail = Date.now() - sentClickedAt;
     testInfo.annotations.push({ type: 'send → e-mail in maildev (ms, upper bound)', description: String(sendToMail) });
@@ -209,14 +267,21 @@ test('an engineer raises findings, the manager sends one request, the owner deci
       const box = await b.boundingBox();
       expect(box?.height ?? 0, `${await b.textContent()} is a 44 px tap target`).toBeGreaterThanOrEqual(44);
     }
-    await expect(bar.locator('[data-total="this-request"]')).not.toHaveText('£0.00');
+    await expect(bar.locator('[data-total="approving-now"]')).not.toHaveText('£0.00');
     await page.getByRole('button', { name: 'Next finding →' }).click();
     await expect(page.getByText('Finding 2 of 2')).toBeVisible();
+    // The phone drops the tab (a trip to the mail app): the reload keeps the choice and the place.
+    await page.reload();
+    await expect(page.getByText('Finding 2 of 2')).toBeVisible();
+    await expect(page.getByTestId('draft-restored')).toBeVisible();
+    await page.getByRole('button', { name: '← Back' }).click();
+    await expect(page.getByRole('radio', { name: /^Approve/ })).toBeChecked();
+    await page.getByRole('button', { name: 'Next finding →' }).click();
     await expect(page.getByRole('heading', { level: 2, name: new RegExp(springTitle) })).toBeVisible();
     await page.getByRole('radio', { name: /Decline/ }).check();
     await expect(page.getByText('cannot be released to fly while it is open')).toBeVisible();
     await expect(page.getByText('The inspector decides')).toBeVisible();
-    await page.getByLabel('A note for the workshop (optional)').fill('We will get the spring from the group stores.');
+    await page.getByLabel('A note for the workshop (optional)').fill('We will get the spring from the group stores. Please ring me.');
     await expect(bar).toBeInViewport();
     await shot(page, testInfo, '06-owner-declined-airworthiness-375', false);
 
@@ -229,6 +294,7 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await page.getByLabel('Type your full name to confirm').fill(OWNER_NAME);
     newTotal = (await bar.locator('[data-total="new-total"]').textContent()) ?? '';
     await shot(page, testInfo, '07-owner-review-375', false);
+    decidedAt = Date.now();
     await page.getByRole('button', { name: 'Confirm decisions' }).click();
     const receipt = page.getByTestId('decision-receipt');
     await expect(receipt.getByRole('heading', { name: 'Your decisions are recorded' })).toBeVisible();
@@ -251,8 +317,36 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await expect(requests).toContainText(`by ${OWNER_NAME}`);
     await expect(page.locator('li[data-finding]', { hasText: plugTitle }).getByText('Approved', { exact: true })).toBeVisible();
     await expect(page.locator('li[data-finding]', { hasText: springTitle }).getByText('Declined', { exact: true })).toBeVisible();
-    await expect(page.getByText(`${OWNER_NAME} decided the approval request`)).toBeVisible();
+    await expect(page.getByText(`${OWNER_NAME} decided the approval request`).first()).toBeVisible();
+
+    // The flag: the stronger mark, its reasons in words, until the manager marks it seen.
+    const toSee = page.getByTestId('decisions-to-see');
+    await expect(toSee.getByTestId('decisions-flag')).toHaveAttribute('data-strength', 'strong');
+    await expect(toSee).toContainText('Airworthiness item declined · The owner left a note');
     await shot(page, testInfo, '09-manager-after-decision-1280');
+    await page.goto(`/jobs?q=${encodeURIComponent(jobNumber)}`);
+    const row = page.getByRole('row', { name: new RegExp(jobNumber) });
+    await expect(row.getByTestId('decisions-flag')).toContainText('Airworthiness item declined');
+    await shot(page, testInfo, '09b-manager-jobs-list-flag-1280', false);
+
+    // The e-mail to the manager leads with what needs a call.
+    let subject = '';
+    await expect
+      .poll(
+        async () => {
+          const mails = await mailTo(request, 'manager@brackenfold.example', decidedAt);
+          const m = mails.find((x) => `${x.text ?? ''}`.includes(`job ${jobNumber})`));
+          subject = m?.subject ?? '';
+          return m ? `${m.text ?? ''}` : '';
+        },
+        { timeout: 60_000, message: 'the decision e-mail to the manager' },
+      )
+      .toContain('ACTION NEEDED');
+    expect(subject).toMatch(/^Action needed: Q-SALT: the owner decided/);
+
+    await page.goto(`/jobs/${jobId}`);
+    await page.getByTestId('decisions-to-see').getByRole('button', { name: 'Mark as seen' }).click();
+    await expect(page.getByTestId('decisions-to-see')).toHaveCount(0);
     await ctx.close();
   });
 

@@ -84,6 +84,14 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
         { id: randomUUID(), stage: 'discovered', kind: 'part', description: 'Carburettor boot', quantity: '1', unitPrice: '18.40', vatRate: 'standard', findingId: boot.id },
       ],
     });
+    // The owner agreed the look-over on the phone: it counts as agreed, so the request holds only the findings.
+    const priced = await apiCall<{ version: number }>(page, 'GET', `/api/jobs/${job.id}/estimate`);
+    await apiCall(page, 'POST', `/api/jobs/${job.id}/quote/phone-agreement`, {
+      agreedWith: 'Tomasz Wrenfield, the owner',
+      agreedAt: new Date(Date.now() - 60_000).toISOString(),
+      note: 'Agreed when booking in.',
+      estimateVersion: priced.version,
+    });
     const upload = await page.request.post(`/api/jobs/${job.id}/findings/${spring.id}/photos`, {
       headers: { 'X-CSRF-Token': await csrfOf(page) },
       multipart: { photos: { name: 'spring.jpg', mimeType: 'image/jpeg', buffer: await inventedPhoto(browser) } },
@@ -125,20 +133,21 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
 
     // F-1 alone carries the cowling: 31.00 + 93.00 = 124.00 net, 148.80 incl. VAT.
     await phone.getByRole('radio', { name: /^Approve/ }).check();
-    await expect(total('this-request')).toHaveText('£148.80');
+    await expect(total('approving-now')).toHaveText('£148.80');
     // Still open, F-2 without the cowling: 62.00 + 18.40 = 80.40 net, 96.48 incl. VAT.
     await expect(total('undecided')).toHaveText('£96.48');
     await phone.getByRole('button', { name: 'Next finding →' }).click();
-    // With F-1 approved, F-2 adds only its own work.
-    await expect(phone.getByTestId('decide-adds')).toContainText('this adds £96.48 incl. VAT');
+    // With F-1 approved, F-2 adds only its own work: the cowling is already counted once.
+    await expect(phone.getByTestId('decide-price')).toContainText('£96.48 incl. VAT');
+    await expect(phone.getByTestId('decide-needs-opening-up')).toContainText('already counted once');
     await phone.getByRole('radio', { name: /^Approve/ }).check();
     // Both, the cowling once: 204.40 net, 245.28 (not 148.80 + 208.08 = 356.88).
-    await expect(total('this-request')).toHaveText('£245.28');
+    await expect(total('approving-now')).toHaveText('£245.28');
     await expect(bar).not.toContainText('may come out lower');
     await phone.getByRole('button', { name: '← Back' }).click();
     await phone.getByRole('radio', { name: /^Decline/ }).check();
     // F-2 alone now carries the cowling: 62.00 + 18.40 + 93.00 = 173.40 net, 208.08.
-    await expect(total('this-request')).toHaveText('£208.08');
+    await expect(total('approving-now')).toHaveText('£208.08');
     await expect(phone.getByText('cannot be released to fly while it is open')).toBeVisible();
     await shot(phone, testInfo, '03-owner-declined-airworthiness-part-way-375', false);
     await shot(phone, testInfo, '03b-owner-declined-airworthiness-part-way-375-full', true);
@@ -151,7 +160,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await widePage.getByRole('radio', { name: /^Decline/ }).check();
     await widePage.getByRole('button', { name: 'Next finding →' }).click();
     await widePage.getByRole('radio', { name: /^Approve/ }).check();
-    await expect(widePage.getByTestId('running-total').locator('[data-total="this-request"]')).toHaveText('£208.08');
+    await expect(widePage.getByTestId('running-total').locator('[data-total="approving-now"]')).toHaveText('£208.08');
     await shot(widePage, testInfo, '04b-owner-part-way-1280', true);
     await wide.close();
   });
@@ -171,16 +180,30 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await expect(closed.locator('[data-request-state="revoked"]')).toHaveText('Link revoked');
     await expect(phone.getByRole('radio')).toHaveCount(0);
     await expect(phone.getByTestId('running-total')).toHaveCount(0);
+    // The choices the owner had not confirmed on this phone are cleared, and the page says so.
+    await expect(phone.getByTestId('draft-discarded')).toContainText('Nothing was sent');
     await shot(phone, testInfo, '06-owner-revoked-375', false);
   });
 
   let second = '';
-  await test.step('the manager re-sends: the old link says a newer one was sent, the new one from the e-mail works', async () => {
-    // The job screen offers Resend only while a request is open or expired; a revoked one is re-sent through the API.
+  await test.step('the manager sends a new request and re-sends it: the older link says a newer one was sent, the new one from the e-mail works', async () => {
+    // A revoked request stays finished (it cannot be re-sent): the manager sends a new request for the same findings.
+    const refused = await manager.page.request.post(`/api/approval-requests/${requestId}/resend`, { headers: { 'X-CSRF-Token': await csrfOf(manager.page) } });
+    expect(refused.status()).toBe(409);
+    const findings = await apiCall<{ id: string; state: string }[]>(manager.page, 'GET', `/api/jobs/${jobId}/findings`);
+    const now = await apiCall<{ version: number }>(manager.page, 'GET', `/api/jobs/${jobId}/estimate`);
+    const sent = await apiCall<{ request: { id: string } }>(manager.page, 'POST', `/api/jobs/${jobId}/approval-requests`, {
+      findingIds: findings.filter((f) => f.state === 'priced').map((f) => f.id),
+      message: 'Sent again, as we discussed.',
+      estimateVersion: now.version,
+    });
+    requestId = sent.request.id;
+    const fresh = new URL(await decisionLink(request, OWNER_EMAIL, since, jobNumber, [first])).pathname;
+    // Re-sent while it waits: a new link for the same request.
     await apiCall(manager.page, 'POST', `/api/approval-requests/${requestId}/resend`);
-    second = new URL(await decisionLink(request, OWNER_EMAIL, since, jobNumber, [first])).pathname;
-    expect(second).not.toBe(first);
-    await phone.goto(first);
+    second = new URL(await decisionLink(request, OWNER_EMAIL, since, jobNumber, [first, fresh])).pathname;
+    expect(second).not.toBe(fresh);
+    await phone.goto(fresh);
     const closed = phone.getByTestId('decision-closed');
     await expect(closed).toHaveAttribute('data-superseded', 'true');
     await expect(closed.getByText('A newer link was sent to you', { exact: true })).toBeVisible();
@@ -192,7 +215,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await shot(phone, testInfo, '07-owner-old-link-375', false);
     const wide = await context(browser, baseURL, false);
     const widePage = await wide.newPage();
-    await widePage.goto(first);
+    await widePage.goto(fresh);
     await expect(widePage.getByTestId('decision-closed').getByText('A newer link was sent to you', { exact: true })).toBeVisible();
     await shot(widePage, testInfo, '07b-owner-old-link-1280', false);
     await wide.close();
@@ -203,9 +226,13 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await expect(phone.getByText('Finding 1 of 2')).toBeVisible();
     await expect(phone.getByRole('radio', { name: /^Approve/ })).not.toBeChecked();
     await shot(phone, testInfo, '08-owner-new-link-375', false);
+    // A choice made on one link of a request is still there on its newer link (same request, same hash).
+    await phone.getByRole('radio', { name: /^Decline/ }).check();
+    firstOfSecond = second;
   });
 
   let third = '';
+  let firstOfSecond = '';
   await test.step('re-sent again from the job screen, the owner decides on the newest link', async () => {
     const { page } = manager;
     await page.goto(`/jobs/${jobId}`);
@@ -218,13 +245,18 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await expect(phone.getByTestId('decision-closed')).toHaveAttribute('data-superseded', 'true');
 
     await phone.goto(third);
+    expect(firstOfSecond).toBe(second);
+    await expect(phone.getByTestId('draft-restored')).toBeVisible();
+    await expect(phone.getByRole('radio', { name: /^Decline/ })).toBeChecked();
     await phone.getByRole('radio', { name: /^Approve/ }).check();
     await phone.getByRole('button', { name: 'Next finding →' }).click();
     await phone.getByRole('radio', { name: /^Approve/ }).check();
-    await expect(total('new-total')).toHaveText('£319.68'); // 74.40 quoted + 245.28
+    await expect(total('new-total')).toHaveText('£319.68'); // 74.40 agreed by phone + 245.28
     await phone.getByRole('button', { name: 'Review your choices' }).click();
-    // 148.80 + 208.08 − 245.28.
-    await expect(phone.getByTestId('decide-shared-saving')).toContainText('£111.60 less than their prices added up');
+    // Each finding without the cowling (74.40 + 96.48) and the cowling once (111.60, 93.00 net) = 245.28.
+    await expect(phone.locator('[data-opening-up]')).toHaveCount(1);
+    await expect(phone.locator('[data-opening-up]')).toContainText('Opening-up work shared by F-1 and F-2');
+    await expect(phone.getByTestId('choice-rows-total')).toContainText('£245.28');
     await phone.getByLabel('Type your full name to confirm').fill(OWNER_NAME);
     await shot(phone, testInfo, '09-owner-review-375', false);
     await phone.getByRole('button', { name: 'Confirm decisions' }).click();
@@ -243,7 +275,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await expect(again.getByRole('radio')).toHaveCount(0);
     await shot(again, testInfo, '10-owner-decided-375', true);
     // An older link says the request has since been decided, without showing the decisions.
-    await again.goto(first);
+    await again.goto(second);
     const closed = again.getByTestId('decision-closed');
     await expect(closed.getByText(/^A newer link was sent to you on .+, and the request has since been decided\./)).toBeVisible();
     await expect(again.getByTestId('decision-receipt')).toHaveCount(0);

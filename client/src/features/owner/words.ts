@@ -22,7 +22,9 @@ export const OWNER_WORDS = {
   dueBack: 'due back',
   decisionNeeded: 'Your decision is needed',
   moneyLabel: 'The money so far',
-  quoted: 'First quoted',
+  quoteState: 'Our quote',
+  quoted: 'Quoted',
+  quoteAwaiting: 'Of the quote, not yet agreed',
   /** One name for the total the owner has agreed to, everywhere the owner reads it. */
   agreed: 'Agreed so far',
   /** One name for what still waits for the owner's decision. */

@@ -30,9 +30,9 @@ describe('ApprovalRequestsList', () => {
     fetchMock.mockReset();
   });
 
-  it('shows each state as a word with an icon, and offers Resend and Revoke link only while a request can still be acted on', () => {
+  it('shows each state as a word with an icon, and offers Resend and Revoke link only while a request waits for the owner, and names the quote when it holds it', () => {
     const requests: ApprovalRequestDto[] = [
-      { ...base, id: 'r-sent' },
+      { ...base, id: 'r-sent', includesQuote: true },
       { ...base, id: 'r-decided', state: 'decided', decidedAt: '2026-12-02T09:00:00Z', decidedByName: 'Hazel Brambury' },
       { ...base, id: 'r-replaced', state: 'replaced', replacedById: 'r-sent' },
       { ...base, id: 'r-expired', state: 'expired' },
@@ -46,7 +46,10 @@ describe('ApprovalRequestsList', () => {
     expect(names(items[1]!)).toEqual([]);
     expect(items[1]!.textContent).toContain('by Hazel Brambury');
     expect(items[2]!.textContent).toContain('a newer request took its place');
-    expect(names(items[3]!)).toEqual(['Resend']);
+    // Resend gives a waiting request a new link; a finished one (expired) is asked again by a new request.
+    expect(names(items[3]!)).toEqual([]);
+    expect(items[3]!.textContent).toContain('send a new request');
+    expect(items[0]!.textContent).toContain('The quote (inspection scope not yet agreed)');
   });
 
   it('when the manager revokes a link, then the request is posted and the outcome is said in words', async () => {

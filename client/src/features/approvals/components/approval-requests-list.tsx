@@ -1,4 +1,4 @@
-import type { ApprovalRequestDto, FindingDto } from '@wingstage/shared';
+import { canResendRequest, type ApprovalRequestDto, type FindingDto } from '@wingstage/shared';
 import { useState } from 'react';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { Button } from '@/components/ui/button';
@@ -45,6 +45,7 @@ export function ApprovalRequestsList({ jobId, requests, findings, currency, canA
             <span className="font-semibold tabular-nums">{formatMoney(r.gross, currency, { vat: 'incl' })}</span>
           </div>
           <ul className="text-sm">
+            {r.includesQuote ? <li>The quote (inspection scope not yet agreed)</li> : null}
             {r.findingIds.map((id) => (
               <li key={id}>{numbers.get(id) ?? 'A finding no longer listed'}</li>
             ))}
@@ -63,16 +64,17 @@ export function ApprovalRequestsList({ jobId, requests, findings, currency, canA
             ) : null}
           </p>
           {r.state === 'replaced' ? <p className="text-sm">A price changed after sending, so a newer request took its place.</p> : null}
-          {canAct && (r.state === 'sent' || r.state === 'expired') ? (
+          {r.state === 'expired' || r.state === 'revoked' ? (
+            <p className="text-sm text-slate-soft">This link is finished: to ask the owner again, send a new request.</p>
+          ) : null}
+          {canAct && canResendRequest(r.state).ok ? (
             <div className="flex flex-wrap gap-2">
               <Button variant="secondary" busy={resend.isPending && resend.variables === r.id} onClick={() => void run(r, resend, 'A new link is on its way to the owner; the old one no longer works.')}>
                 Resend
               </Button>
-              {r.state === 'sent' ? (
-                <Button variant="secondary" busy={revoke.isPending && revoke.variables === r.id} onClick={() => void run(r, revoke, 'The link no longer works. Its findings are back to priced.')}>
-                  Revoke link
-                </Button>
-              ) : null}
+              <Button variant="secondary" busy={revoke.isPending && revoke.variables === r.id} onClick={() => void run(r, revoke, 'The link no longer works. What it held is back with the workshop.')}>
+                Revoke link
+              </Button>
             </div>
           ) : null}
           {done?.id === r.id ? (

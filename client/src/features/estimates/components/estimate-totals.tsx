@@ -25,6 +25,14 @@ function Row({ label, totals, currency, testId, strong }: { label: string; total
   );
 }
 
+/** "The quote and 2 findings awaiting the owner", "1 finding awaiting the owner". */
+function awaitingWords(p: PricedEstimate): string {
+  const n = p.undecided.findings;
+  const findings = `${n} ${n === 1 ? 'finding' : 'findings'}`;
+  if (compareAmounts(p.quoteAwaiting.gross, '0') === 0) return `${findings} awaiting the owner`;
+  return n ? `The quote and ${findings} awaiting the owner` : 'The quote awaiting the owner';
+}
+
 /** Every figure shown here is a field of the engine's result; this component only lays them out. */
 export function EstimateTotals({ priced, paused }: { priced: PricedEstimate; paused?: string | null }) {
   const c = priced.currency;
@@ -47,7 +55,7 @@ export function EstimateTotals({ priced, paused }: { priced: PricedEstimate; pau
             <dt className="min-w-0">
               Undecided
               <span className="block text-xs text-slate-soft">
-                {priced.undecided.findings} {priced.undecided.findings === 1 ? 'finding' : 'findings'} awaiting the owner
+                {awaitingWords(priced)}
               </span>
             </dt>
             <dd className="shrink-0 whitespace-nowrap text-right">
@@ -57,7 +65,7 @@ export function EstimateTotals({ priced, paused }: { priced: PricedEstimate; pau
               </span>
             </dd>
           </div>
-          <Row label="If every finding is approved" totals={priced.ifAllApproved} currency={c} testId="total-if-all" />
+          <Row label="If everything is approved" totals={priced.ifAllApproved} currency={c} testId="total-if-all" />
         </dl>
       </section>
       <section>

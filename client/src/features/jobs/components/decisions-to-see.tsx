@@ -24,8 +24,8 @@ export function DecisionsToSeePanel({ jobId, toSee, ownerName }: { jobId: string
       </h2>
       <DecisionsFlag toSee={toSee} />
       <p>
-        {ownerName} decided {toSee.requests === 1 ? 'a request' : `${toSee.requests} requests`}; the latest on {formatDateTime(toSee.lastDecidedAt)}. Each decision and
-        any note is under Approval requests below.
+        {ownerName} decided {toSee.requests === 1 ? 'a request' : `${toSee.requests} requests`}; the latest on {formatDateTime(toSee.lastDecidedAt)}. The decisions are
+        in the job’s history, and the e-mail to the workshop’s managers quotes every note.
       </p>
       {toSee.declinedAirworthiness ? (
         <p className="text-sm font-semibold">

@@ -2,6 +2,7 @@ import { JOB_TYPE_LABELS, type JobDto, type Page } from '@wingstage/shared';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Link } from 'react-router-dom';
 import { ListTable } from '@/components/ui/data-table';
+import { DecisionsFlag } from '@/components/ui/decisions-flag';
 import { StateBadge } from '@/components/ui/state-badge';
 import { formatDate } from '@/lib/format';
 import type { ListParams } from '@/lib/list-params';
@@ -28,7 +29,15 @@ const columns = [
     ),
   }),
   col.accessor('customerName', { header: 'Owner', enableSorting: false }),
-  col.accessor('state', { header: 'State', cell: (c) => <StateBadge state={c.getValue()} /> }),
+  col.accessor('state', {
+    header: 'State',
+    cell: (c) => (
+      <span className="flex flex-col items-start gap-1">
+        <StateBadge state={c.getValue()} />
+        <DecisionsFlag toSee={c.row.original.decisionsToSee} />
+      </span>
+    ),
+  }),
   col.accessor('bookedInOn', { header: 'Booked in', meta: { sortWords: ['oldest first', 'newest first'] }, cell: (c) => <span className="tabular-nums">{formatDate(c.getValue())}</span> }),
 ];
 

@@ -85,7 +85,11 @@ describe('MyAircraftLetter', () => {
       gross: '113.57',
     };
     const decided: ApprovalRequestDto = { ...request, id: 'r0', state: 'decided', decidedAt: '2026-11-30T10:00:00Z' };
-    const estimate = { currency: 'GBP', priced: { quoted: t('556.13'), committed: t('600.00'), undecided: { ...t('113.57'), findings: 2 } } } as unknown as EstimateDto;
+    const estimate = {
+      currency: 'GBP',
+      priced: { quoted: t('556.13'), committed: t('600.00'), undecided: { ...t('113.57'), findings: 2 } },
+      quote: { state: 'agreed', awaitingGross: '0.00', agreedBy: 'Orla Fenwright', agreedAt: '2026-11-30T09:00:00Z', agreedHow: 'owner_link', openRequestId: null },
+    } as unknown as EstimateDto;
     render(
       <MyAircraftLetter
         firstName="Orla"
@@ -103,6 +107,40 @@ describe('MyAircraftLetter', () => {
     expect(waiting.textContent).toContain('works until 8 Dec 2026');
     expect(screen.getByText('£600.00 incl. VAT', { selector: '[data-owner-total="committed"]' })).toBeTruthy();
     expect(screen.getByText('£113.57 incl. VAT', { selector: '[data-owner-total="undecided"]' })).toBeTruthy();
+    expect(screen.getByText('You agreed the quote', { selector: '[data-owner-quote]' })).toBeTruthy();
+    expect(screen.queryByText(/not yet agreed/)).toBeNull();
+  });
+
+  it('when the quote waits for the owner, then the letter says so in the owner’s words, with what is not yet agreed and what is agreed so far', () => {
+    const t = (gross: string): Totals => ({ net: gross, vat: '0.00', gross, byRate: [] });
+    const request = {
+      id: 'r1',
+      jobId: '0001',
+      state: 'sent',
+      findingIds: [],
+      includesQuote: true,
+      sentAt: '2026-12-01T10:00:00Z',
+      expiresAt: '2026-12-08T10:00:00Z',
+      gross: '446.40',
+    } as unknown as ApprovalRequestDto;
+    const estimate = {
+      currency: 'GBP',
+      priced: { quoted: t('446.40'), committed: t('0.00'), undecided: { ...t('446.40'), findings: 0 } },
+      quote: { state: 'sent', awaitingGross: '446.40', agreedBy: null, agreedAt: null, agreedHow: null, openRequestId: 'r1' },
+    } as unknown as EstimateDto;
+    render(
+      <MyAircraftLetter
+        firstName="Orla"
+        workshopName="Brackenfold Light Aircraft Engineering"
+        aircraft={[aircraft('a1', 'Q-ORLA')]}
+        jobs={[job('0001', 'a1', 'Annual permit inspection', 'inspecting')]}
+        money={{ '0001': { estimate, requests: [request] } }}
+      />,
+    );
+    expect(screen.getByTestId('decision-waiting').textContent).toContain('we e-mailed you our quote to approve or decline, £446.40 incl. VAT if you approve it');
+    expect(screen.getByText('Waiting for your decision', { selector: '[data-owner-quote]' })).toBeTruthy();
+    expect(screen.getByText('£446.40 incl. VAT', { selector: '[data-owner-total="quote-awaiting"]' })).toBeTruthy();
+    expect(screen.getByText('£0.00 incl. VAT', { selector: '[data-owner-total="committed"]' })).toBeTruthy();
   });
 
   it('when every request is decided, then no decision is asked for', () => {

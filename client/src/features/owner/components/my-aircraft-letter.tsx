@@ -1,4 +1,4 @@
-import { JOB_TYPE_LABELS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto } from '@wingstage/shared';
+import { JOB_TYPE_LABELS, QUOTE_STATE_OWNER_WORDS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto, type JobState } from '@wingstage/shared';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { CategoryBadge, FindingStateBadge } from '@/components/ui/finding-badges';
 import { PhotoStrip } from '@/components/ui/photo-strip';
@@ -21,8 +21,16 @@ function count(n: number, one: string, many: string): string {
   return `${WORDS[n] ?? String(n)} ${n === 1 ? one : many}`;
 }
 
-function DecisionWaiting({ request, currency }: { request: ApprovalRequestDto; currency: string }) {
+/** "our quote", "two findings", "our quote and one finding": what a request put to the owner. */
+function requestWords(request: ApprovalRequestDto): string {
   const n = request.findingIds.length;
+  const found = n > 0 ? count(n, 'finding', 'findings').toLowerCase() : '';
+  if (request.includesQuote) return found ? `our quote and ${found}` : 'our quote';
+  return found;
+}
+
+function DecisionWaiting({ request, currency }: { request: ApprovalRequestDto; currency: string }) {
+  const several = request.findingIds.length + (request.includesQuote ? 1 : 0) > 1;
   return (
     <div data-testid="decision-waiting" className="mt-3 flex gap-3 rounded-card border-2 border-dusk bg-dusk-tint p-3 text-slate">
       <span className="text-dusk">
@@ -33,9 +41,9 @@ function DecisionWaiting({ request, currency }: { request: ApprovalRequestDto; c
           {W.decisionNeeded} <ApprovalRequestBadge state={request.state} words={W.requestState} />
         </p>
         <p>
-          On {formatDateTime(request.sentAt)} we e-mailed you {count(n, 'finding', 'findings').toLowerCase()} to approve or decline,{' '}
-          <span className="tabular-nums">{formatMoney(request.gross, currency, { vat: 'incl' })}</span> if you approve them all. Open the link in that e-mail to decide; it
-          works until {formatDateTime(request.expiresAt)}.
+          On {formatDateTime(request.sentAt)} we e-mailed you {requestWords(request)} to approve or decline,{' '}
+          <span className="tabular-nums">{formatMoney(request.gross, currency, { vat: 'incl' })}</span> if you approve {several ? 'them all' : 'it'}. Open the link in that e-mail
+          to decide; it works until {formatDateTime(request.expiresAt)}.
         </p>
       </div>
     </div>
@@ -46,12 +54,25 @@ function MoneySoFar({ estimate }: { estimate: EstimateDto }) {
   const p = estimate.priced;
   const m = (a: string) => formatMoney(a, estimate.currency, { vat: 'incl' });
   const undecided = compareAmounts(p.undecided.gross, '0') > 0;
+  const quoteWaiting = compareAmounts(estimate.quote.awaitingGross, '0') > 0;
   return (
     <dl className="mt-3 grid grid-cols-[1fr_auto] gap-x-4 gap-y-1 text-sm tabular-nums" aria-label={W.moneyLabel}>
+      <dt>{W.quoteState}</dt>
+      <dd className="text-right" data-owner-quote={estimate.quote.state}>
+        {QUOTE_STATE_OWNER_WORDS[estimate.quote.state]}
+      </dd>
       <dt>{W.quoted}</dt>
       <dd className="text-right" data-owner-total="quoted">
         {m(p.quoted.gross)}
       </dd>
+      {quoteWaiting ? (
+        <>
+          <dt>{W.quoteAwaiting}</dt>
+          <dd className="text-right" data-owner-total="quote-awaiting">
+            {m(estimate.quote.awaitingGross)}
+          </dd>
+        </>
+      ) : null}
       <dt className="font-semibold">{W.agreed}</dt>
       <dd className="text-right font-semibold" data-owner-total="committed">
         {m(p.committed.gross)}
