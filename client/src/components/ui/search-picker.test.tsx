@@ -6,6 +6,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import { renderWithApp } from '@/testing/render';
+import { json } from '@/testing/http';
 import { PickerField } from './picker-field';
 import { PICKER_PAGE_SIZE, SearchPicker, type PickerSource } from './search-picker';
 
@@ -32,8 +33,6 @@ const source: PickerSource<Owner> = {
   label: (o) => o.name,
   detail: (o) => o.email,
 };
-
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 
 /** Answers like the server: `q` matches names case-blind, a page of at most pageSize rows. */
 function fakeServer(url: string): Response {

@@ -4,6 +4,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PICKER_PAGE_SIZE, type PickerSource } from '@/components/ui/search-picker';
 import { api } from '@/lib/api-client';
 import { renderWithApp } from '@/testing/render';
+import { json } from '@/testing/http';
 import { AircraftForm } from './aircraft-form';
 
 interface Owner {
@@ -40,7 +41,6 @@ const initial: AircraftDto = {
   version: 2,
   createdAt: '2026-01-01T00:00:00.000Z',
 };
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 
 describe('AircraftForm owner', () => {
   const fetchMock = vi.fn<typeof fetch>();

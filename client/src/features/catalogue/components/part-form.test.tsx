@@ -2,6 +2,7 @@ import { workshopPricingFrom, type PartDto, type SupplierDto } from '@wingstage/
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { renderWithApp } from '@/testing/render';
+import { json } from '@/testing/http';
 import { PartForm } from './part-form';
 
 const pricing = workshopPricingFrom({
@@ -38,8 +39,6 @@ const part: PartDto = {
   active: true,
   version: 4,
 };
-
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 
 describe('PartForm supplier', () => {
   const fetchMock = vi.fn<typeof fetch>();

@@ -4,6 +4,7 @@ import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { formatMoney } from '@/lib/format';
 import { renderWithApp } from '@/testing/render';
+import { json } from '@/testing/http';
 import { EstimateBuilder } from './estimate-builder';
 import { useEstimateDraft } from './use-estimate-draft';
 
@@ -75,8 +76,6 @@ function Harness({ estimate, suppliers = [] }: { estimate: EstimateDto; supplier
   const draft = useEstimateDraft(JOB, estimate, pricing);
   return <EstimateBuilder draft={draft} workshop={workshop} suppliers={suppliers} findings={[]} editable />;
 }
-
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 
 describe('EstimateBuilder', () => {
   const fetchMock = vi.fn<typeof fetch>();

@@ -1,6 +1,7 @@
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { renderWithApp } from '@/testing/render';
+import { json } from '@/testing/http';
 import { FindingForm } from './finding-form';
 
 const workshop = { labourRates: [{ code: 'standard', name: 'Standard', ratePerHour: '60.00' }] };
@@ -21,7 +22,6 @@ const part = (n: number, description: string) => ({
 });
 // A catalogue larger than the old list's 100-row ceiling; the last part is found by its name.
 const CATALOGUE = [...Array.from({ length: 104 }, (_, i) => part(i + 1, `Washer, plain, size ${i + 1}`)), part(105, 'Exhaust spring, stainless')];
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 
 function fillRequired() {
   fireEvent.change(screen.getByRole('textbox', { name: 'Title' }), { target: { value: 'Cracked exhaust spring' } });

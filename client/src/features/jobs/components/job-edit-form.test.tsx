@@ -3,11 +3,11 @@ import { fireEvent, screen, waitFor } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { aJob } from '@/testing/fixtures';
 import { renderWithApp } from '@/testing/render';
+import { json } from '@/testing/http';
 import { changedByOthers, JobEditForm } from './job-edit-form';
 
 const job: JobDto = aJob();
 const theirs: JobDto = { ...job, version: 4, dueOn: '2026-12-18', notes: 'Owner collects on a Friday', updatedAt: '2026-12-01T10:15:00Z' };
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 
 describe('JobEditForm', () => {
   const fetchMock = vi.fn<typeof fetch>();

@@ -5,6 +5,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { PickerSource } from '@/components/ui/search-picker';
 import { api } from '@/lib/api-client';
 import { renderWithApp } from '@/testing/render';
+import { json } from '@/testing/http';
 import { BookInForm } from './job-form';
 
 const base: AircraftDto = {
@@ -31,7 +32,6 @@ const aircraft: PickerSource<AircraftDto> = {
   label: (a) => `${a.registration} — ${a.customerName}`,
 };
 const FLEET = [base, other];
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 
 describe('BookInForm', () => {
   const fetchMock = vi.fn<typeof fetch>();

@@ -3,6 +3,7 @@ import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { ApiError } from '@/lib/api-client';
 import { renderWithApp } from '@/testing/render';
+import { json } from '@/testing/http';
 import { EXAMPLE_LIMITS_CAUTION, TemplateEditor } from './template-editor';
 
 const workshop = {
@@ -46,8 +47,6 @@ const template: TemplateDto = {
   active: true,
   version: 2,
 };
-
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 
 /** The list endpoints as the server answers them: `q` searches, `ids=` fetches those records, `pageSize` caps the page. */
 function list<T extends { id: string }>(rows: T[], u: URL, text: (r: T) => string) {
