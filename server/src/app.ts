@@ -22,6 +22,7 @@ import { workshopRoutes } from './routes/workshop.routes.js';
 import { approvalRequestRoutes, decideRoutes, jobApprovalRoutes } from './routes/approvals.routes.js';
 import type { Deps } from './services/deps.js';
 import type { PhotoStore } from './storage/index.js';
+import { webhooksRoutes } from './routes/webhooks.routes.js';
 import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
 
 export interface AppParts {
@@ -86,6 +87,8 @@ export function createApp(parts: AppParts): Express {
       hsts: config.NODE_ENV === 'production',
     }),
   );
+  // The processor signs the exact bytes it sent: its webhook reads the raw body, before any JSON parser.
+  app.use('/api/webhooks', webhooksRoutes(deps));
   // An estimate may carry up to 2000 lines (shared schema), about 1 MB of JSON; every other body stays small.
   app.put('/api/jobs/:id/estimate', express.json({ limit: '1mb' }));
   app.use(express.json({ limit: '200kb' }));
