@@ -68,13 +68,21 @@ export function createFakeApp(state: FakeState): Express {
   });
 
   // --- authentication for the API and the controls ------------------------------------------------
-  const expected = Buffer.from(`Bearer ${state.opts.apiKey}`);
+  const expected = Buffer.from(state.opts.apiKey);
+  // Bearer, as the SDK sends it, or Basic with the key as the user name (curl -u sk_test_…:).
+  const keyOf = (header: string): string => {
+    const bearer = /^Bearer\s+(\S+)$/.exec(header);
+    if (bearer) return bearer[1]!;
+    const basic = /^Basic\s+([A-Za-z0-9+/=]+)$/.exec(header);
+    return basic ? Buffer.from(basic[1]!, 'base64').toString('utf8').split(':')[0]! : header;
+  };
   const authenticate = (req: Request, _res: Response, next: NextFunction) => {
-    const got = Buffer.from(req.get('Authorization') ?? '');
-    if (got.length === 0) return next(new FakeError(401, 'authentication_error', 'You did not provide an API key. Send it as a Bearer token in the Authorization header.'));
+    const header = req.get('Authorization') ?? '';
+    if (!header) return next(new FakeError(401, 'authentication_error', 'You did not provide an API key. Send it as a Bearer token in the Authorization header.'));
+    const key = keyOf(header);
+    const got = Buffer.from(key);
     if (got.length !== expected.length || !timingSafeEqual(got, expected)) {
-      const shown = (req.get('Authorization') ?? '').replace(/^Bearer\s+/, '');
-      return next(new FakeError(401, 'authentication_error', `Invalid API Key provided: ${shown.slice(0, 8)}${'*'.repeat(Math.max(0, shown.length - 12))}${shown.slice(-4)}`));
+      return next(new FakeError(401, 'authentication_error', `Invalid API Key provided: ${key.slice(0, 8)}${'*'.repeat(Math.max(0, key.length - 12))}${key.slice(-4)}`));
     }
     next();
   };
