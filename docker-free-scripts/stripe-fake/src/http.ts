@@ -40,6 +40,7 @@ export function createFakeApp(state: FakeState): Express {
 
   // --- the hosted payment page (stands in for the processor's; no auth, the session id is the link) --
   app.get('/pay/:session', (req, res) => {
+    state.expireDueSessions();
     const s = state.sessions.get(req.params.session);
     res.setHeader('Cache-Control', 'no-store');
     if (!s) return void res.status(404).type('html').send(notFoundPage());
@@ -94,6 +95,7 @@ export function createFakeApp(state: FakeState): Express {
    * answer, and POSTs remembered under their Idempotency-Key so a retry gets the first answer.
    */
   const route = (handler: Handler) => (req: Request, res: Response) => {
+    state.expireDueSessions();
     const p = ((req.method === 'GET' ? req.query : req.body) ?? {}) as Params;
     const key = req.method === 'POST' ? req.get('Idempotency-Key') : undefined;
     const cause: Cause = { requestId: String(res.getHeader('Request-Id')), idempotencyKey: key ?? null };
