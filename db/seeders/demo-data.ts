@@ -17,7 +17,7 @@ export const DEMO_WORKSHOP = {
     { code: 'standard', name: 'Workshop labour', ratePerHour: '62.00' },
     { code: 'sailcloth', name: 'Sail and fabric work', ratePerHour: '70.00' },
   ],
-  settings: { vatRounding: 'invoice-nearest', partsMarkupPercent: '20', subcontractMarkupPercent: '10', approvalLinkDays: 14, chaseAfterHours: 48 },
+  settings: { vatRounding: 'invoice-nearest', partsMarkupPercent: '20', subcontractMarkupPercent: '10', approvalLinkDays: 14, chaseAfterHours: 48, depositPolicy: { kind: 'approved_work_percent', percent: '50', threshold: '500.00' } },
 };
 
 export interface DemoStaff {

@@ -3,3 +3,4 @@ export * from './vat.js';
 export * from './estimate.js';
 export * from './limits.js';
 export * from './deposits.js';
+export * from './deposit-policy.js';

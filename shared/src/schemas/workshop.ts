@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import { decimalString, patchOf } from './common.js';
+import { Dec } from '../money.js';
+import type { WorkshopDepositPolicy } from '../pricing/deposit-policy.js';
 
 export const VAT_ROUNDING_METHODS = ['invoice-down', 'invoice-nearest', 'line-nearest', 'line-down-tenth'] as const;
 
@@ -16,12 +18,31 @@ export const labourRateSchema = z.object({
   ratePerHour: decimalString(2, 'Rate'),
 });
 
+export const DEPOSIT_POLICY_KINDS = ['none', 'quote_percent', 'approved_work_percent'] as const;
+
+// zod runs the refinement even after the pattern failed, so it checks the pattern itself first.
+const depositPercent = decimalString(2, 'Percentage').refine((v) => !/^\d{1,12}(\.\d{1,2})?$/.test(v) || (new Dec(v).greaterThan(0) && new Dec(v).lessThanOrEqualTo(100)), {
+  message: 'The percentage must be more than 0 and at most 100.',
+});
+
+/** See WorkshopDepositPolicy (shared/src/pricing/deposit-policy.ts). */
+export const depositPolicySchema = z.discriminatedUnion(
+  'kind',
+  [
+    z.object({ kind: z.literal('none') }),
+    z.object({ kind: z.literal('quote_percent'), percent: depositPercent }),
+    z.object({ kind: z.literal('approved_work_percent'), percent: depositPercent, threshold: decimalString(2, 'Threshold') }),
+  ],
+  { error: 'Choose no deposit, a percentage of the quote, or a percentage of approved work.' },
+) satisfies z.ZodType<WorkshopDepositPolicy>;
+
 export const workshopSettingsSchema = z.object({
   vatRounding: z.enum(VAT_ROUNDING_METHODS).default('invoice-nearest'),
   partsMarkupPercent: decimalString(2, 'Mark-up').default('20'),
   subcontractMarkupPercent: decimalString(2, 'Mark-up').default('10'),
   approvalLinkDays: z.number().int().min(1).max(60).default(14),
   chaseAfterHours: z.number().int().min(1).max(720).default(48),
+  depositPolicy: depositPolicySchema.default({ kind: 'none' }),
 });
 
 export const workshopUpdateSchema = z.object({
