@@ -8,6 +8,7 @@ bash "$SCRIPTS/ensure-deps.sh"
 bash "$SCRIPTS/postgres.sh" start
 bash "$SCRIPTS/postgres.sh" ensure-db "$WS_DB_NAME"
 bash "$SCRIPTS/maildev.sh" start
+bash "$SCRIPTS/stripe-fake.sh" start
 pid_alive "$RUN_DIR/app.pid" && die "npm start's app holds port $WS_APP_PORT; stop it first (npm run stop) or use WS_APP_PORT=…"
 
 # Development mode here only: npm start and the benchmarks run production code.

@@ -8,15 +8,15 @@ LOCAL_DIR="${WS_LOCAL_DIR:-$ROOT/.local}"
 # "dev" for npm start, "test" for npm test: separate ports, data and databases.
 WS_PROFILE="${WS_PROFILE:-dev}"
 if [ "$WS_PROFILE" = "test" ]; then
-  : "${WS_PG_PORT:=54339}" "${WS_APP_PORT:=3100}" "${WS_SMTP_PORT:=1026}" "${WS_MAIL_WEB_PORT:=1081}" "${WS_DB_NAME:=wingstage_test}"
+  : "${WS_PG_PORT:=54339}" "${WS_APP_PORT:=3100}" "${WS_SMTP_PORT:=1026}" "${WS_MAIL_WEB_PORT:=1081}" "${WS_STRIPE_PORT:=12112}" "${WS_DB_NAME:=wingstage_test}"
 else
-  : "${WS_PG_PORT:=54329}" "${WS_APP_PORT:=3000}" "${WS_SMTP_PORT:=1025}" "${WS_MAIL_WEB_PORT:=1080}" "${WS_DB_NAME:=wingstage}"
+  : "${WS_PG_PORT:=54329}" "${WS_APP_PORT:=3000}" "${WS_SMTP_PORT:=1025}" "${WS_MAIL_WEB_PORT:=1080}" "${WS_STRIPE_PORT:=12111}" "${WS_DB_NAME:=wingstage}"
 fi
 PG_DIR="$LOCAL_DIR/pg-$WS_PROFILE"
 RUN_DIR="$LOCAL_DIR/run-$WS_PROFILE"
 LOG_DIR="$LOCAL_DIR/logs"
 mkdir -p "$LOCAL_DIR" "$RUN_DIR" "$LOG_DIR"
-export WS_PROFILE WS_PG_PORT WS_APP_PORT WS_SMTP_PORT WS_MAIL_WEB_PORT WS_DB_NAME
+export WS_PROFILE WS_PG_PORT WS_APP_PORT WS_SMTP_PORT WS_MAIL_WEB_PORT WS_STRIPE_PORT WS_DB_NAME
 say() { printf '[wingstage] %s\n' "$*"; }
 die() { printf '[wingstage] error: %s\n' "$*" >&2; exit 1; }
 
@@ -55,15 +55,21 @@ stop_pidfile() {
   say "$what stopped"
 }
 
-# Secrets are generated once per profile and never committed (.local/ is git-ignored).
+# Secrets are generated once per profile and never committed (.local/ is git-ignored): the session
+# secret, the webhook signing secret shared by the app and the Stripe fake, and the fake's test key.
+# A file from before a secret existed gains it on the next run.
 load_secrets() {
-  local file="$LOCAL_DIR/secrets-$WS_PROFILE.env"
-  # A secret given by the caller wins (npm test hands each run a fresh one).
-  [ -n "${JWT_SECRET:-}" ] && return 0
-  if [ ! -s "$file" ]; then
-    (umask 077; printf 'JWT_SECRET=%s\n' "$(node -e 'process.stdout.write(require("crypto").randomBytes(48).toString("base64url"))')" >"$file")
-  fi
-  set -a; source "$file"; set +a
+  local file="$LOCAL_DIR/secrets-$WS_PROFILE.env" key value
+  (umask 077; touch "$file")
+  random() { node -e "process.stdout.write(require('crypto').randomBytes($1).toString('$2'))"; }
+  grep -q '^JWT_SECRET=' "$file" || printf 'JWT_SECRET=%s\n' "$(random 48 base64url)" >>"$file"
+  grep -q '^STRIPE_WEBHOOK_SECRET=' "$file" || printf 'STRIPE_WEBHOOK_SECRET=whsec_%s\n' "$(random 24 hex)" >>"$file"
+  grep -q '^STRIPE_SECRET_KEY=' "$file" || printf 'STRIPE_SECRET_KEY=sk_test_%s\n' "$(random 16 hex)" >>"$file"
+  # A secret given by the caller wins (npm test hands each run a fresh JWT secret).
+  while IFS='=' read -r key value; do
+    [ -n "$key" ] || continue
+    if [ -z "${!key:-}" ]; then export "$key=$value"; fi
+  done <"$file"
 }
 
 # Postgres binaries from Debian's packages (newest installed major).
@@ -90,6 +96,8 @@ app_env() {
   export MAIL_FROM="${MAIL_FROM:-Wingstage <no-reply@wingstage.example>}"
   export CLIENT_DIST="${CLIENT_DIST:-$ROOT/client/dist}"
   export LOG_LEVEL="${LOG_LEVEL:-info}"
+  # Card payments go to the local Stripe fake (docker-free-scripts/stripe-fake.sh), never to Stripe.
+  export STRIPE_API_URL="${STRIPE_API_URL:-http://127.0.0.1:$WS_STRIPE_PORT}"
   # Plain http on loopback: a Secure cookie would not be sent back over it. The server accepts this
   # in production only while APP_URL is a loopback http address.
   export COOKIE_SECURE="${COOKIE_SECURE:-false}"

@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # npm start: everything the app needs on this machine, then the app itself, on 127.0.0.1.
-# Installs what is missing, starts PostgreSQL and maildev, migrates, seeds the demo once, builds the
+# Installs what is missing, starts PostgreSQL, maildev and the Stripe fake, migrates, seeds the demo once, builds the
 # client and serves client + API from one process. A second run finds it all running.
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 began=$(date +%s)
@@ -9,6 +9,7 @@ bash "$SCRIPTS/ensure-deps.sh"
 bash "$SCRIPTS/postgres.sh" start
 bash "$SCRIPTS/postgres.sh" ensure-db "$WS_DB_NAME"
 bash "$SCRIPTS/maildev.sh" start
+bash "$SCRIPTS/stripe-fake.sh" start
 
 app_env
 cd "$ROOT"
@@ -28,6 +29,7 @@ cat <<MSG
 
   Wingstage is running:      http://127.0.0.1:$WS_APP_PORT
   Mail catcher (all e-mail): http://127.0.0.1:$WS_MAIL_WEB_PORT
+  Card payments:             the local Stripe fake on http://127.0.0.1:$WS_STRIPE_PORT (test cards only)
   Ready in $(( $(date +%s) - began )) s. Logs in .local/logs/. Stop everything with: npm run stop
 
 MSG

@@ -21,7 +21,7 @@ case "$only" in ""|types|unit|e2e) ;; *) die "--only takes types, unit or e2e, n
 began=$(date +%s)
 results=()
 failed=0
-started_pg=0 started_mail=0 started_app=0
+started_pg=0 started_mail=0 started_stripe=0 started_app=0
 
 record() { # stage status seconds
   results+=("$(printf '  %-22s %-7s %4ss' "$1" "$2" "$3")")
@@ -34,6 +34,7 @@ cleanup() {
   [ "$started_app" = 1 ] && bash "$SCRIPTS/app.sh" stop >/dev/null
   if [ "${WS_KEEP_SERVICES:-0}" != 1 ]; then
     [ "$started_mail" = 1 ] && bash "$SCRIPTS/maildev.sh" stop
+    [ "$started_stripe" = 1 ] && bash "$SCRIPTS/stripe-fake.sh" stop
     [ "$started_pg" = 1 ] && bash "$SCRIPTS/postgres.sh" stop
   fi
   echo
@@ -58,6 +59,9 @@ stage_setup() {
   bash "$SCRIPTS/postgres.sh" ensure-db "$WS_DB_NAME" || return 1
   curl -fsS -o /dev/null --max-time 2 "http://127.0.0.1:$WS_MAIL_WEB_PORT/api/healthz" 2>/dev/null || started_mail=1
   bash "$SCRIPTS/maildev.sh" start || return 1
+  # The browser journeys pay on the fake's page; API and contract tests start their own in-process.
+  bash "$SCRIPTS/stripe-fake.sh" status >/dev/null 2>&1 || started_stripe=1
+  bash "$SCRIPTS/stripe-fake.sh" start || return 1
   record "set-up" passed $(( $(date +%s) - t ))
 }
 if ! stage_setup; then record "set-up" failed 0; exit 1; fi

@@ -26,6 +26,8 @@ export const DEMO_WORKSHOP = {
     chaseAfterHours: 48,
     contactPhone: '01632 960418',
     contactEmail: 'office@brackenfold.example',
+    // Asked once approved work passes £500: half of it, before parts are ordered (demo policy).
+    depositPolicy: { kind: 'approved_work_percent', percent: '50', threshold: '500.00' },
   },
 };
 

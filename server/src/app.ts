@@ -24,6 +24,7 @@ import { approvalRequestRoutes, decideRoutes, jobApprovalRoutes } from './routes
 import type { Deps } from './services/deps.js';
 import { createRateLimits } from './lib/rate-limits.js';
 import type { PhotoStore } from './storage/index.js';
+import { webhooksRoutes } from './routes/webhooks.routes.js';
 import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
 
 export interface AppParts {
@@ -110,6 +111,9 @@ export function createApp(parts: AppParts): Express {
       hsts: config.APP_URL.startsWith('https:'),
     }),
   );
+  // The processor signs the exact bytes it sent: its webhook reads the raw body, before any JSON parser.
+  app.use('/api/webhooks', webhooksRoutes(deps));
+
   // JSON and the client's files travel compressed (gzip/deflate as the browser asks); a 200-line
   // estimate shrinks about tenfold. Bodies under 1 KB are not worth the CPU.
   app.use(compression({ threshold: 1024 }));

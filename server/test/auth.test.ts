@@ -37,7 +37,7 @@ afterAll(async () => {
 const cookieHeader = (res: request.Response) => ([] as string[]).concat(res.headers['set-cookie'] ?? []);
 
 describe('configuration', () => {
-  const base = { DATABASE_URL: 'postgres://postgres@127.0.0.1:1/x', JWT_SECRET: 'x'.repeat(40) };
+  const base = { DATABASE_URL: 'postgres://postgres@127.0.0.1:1/x', JWT_SECRET: 'x'.repeat(40), STRIPE_SECRET_KEY: 'sk_test_config_checks', STRIPE_WEBHOOK_SECRET: 'whsec_config_checks' };
   it('when JWT_SECRET is shorter than 32 characters, then start-up fails naming it', () => {
     expect(() => loadConfig({ ...base, JWT_SECRET: 'short' })).toThrow(/JWT_SECRET/);
   });

@@ -13,6 +13,8 @@ import { Aircraft, ApprovalRequest, Customer, Finding, Job, User, Workshop } fro
 import { startParts, stopParts } from '../src/runtime.js';
 
 export const PASSWORD = 'runway-heading-270';
+export const TEST_STRIPE_KEY = 'sk_test_wingstage_api_tests';
+export const TEST_WEBHOOK_SECRET = 'whsec_wingstage_api_tests';
 export const MAILDEV_API = process.env.MAILDEV_API_URL ?? 'http://127.0.0.1:1081';
 
 export function testConfig(overrides: Record<string, string> = {}): Config {
@@ -29,6 +31,9 @@ export function testConfig(overrides: Record<string, string> = {}): Config {
     DECIDE_ADDRESS_LIMIT: '10000',
     APPROVAL_CHASER: 'false',
     CLIENT_DIST: '/nonexistent-client-dist',
+    // Tests that call the processor start the fake in-process and pass its URL as STRIPE_API_URL.
+    STRIPE_SECRET_KEY: TEST_STRIPE_KEY,
+    STRIPE_WEBHOOK_SECRET: TEST_WEBHOOK_SECRET,
     ...overrides,
   });
 }

@@ -225,7 +225,8 @@ export class FakeState {
     return s;
   }
 
-  private expireDueSessions() {
+  /** Sessions past expires_at expire when anything next looks at the fake, as they would on their own. */
+  expireDueSessions() {
     const now = this.now();
     for (const s of this.sessions.newestFirst()) if (s.status === 'open' && s.expires_at <= now) this.expireSession(s.id, PAGE);
   }

@@ -40,6 +40,7 @@ export function createFakeApp(state: FakeState): Express {
 
   // --- the hosted payment page (stands in for the processor's; no auth, the session id is the link) --
   app.get('/pay/:session', (req, res) => {
+    state.expireDueSessions();
     const s = state.sessions.get(req.params.session);
     res.setHeader('Cache-Control', 'no-store');
     if (!s) return void res.status(404).type('html').send(notFoundPage());
@@ -68,13 +69,21 @@ export function createFakeApp(state: FakeState): Express {
   });
 
   // --- authentication for the API and the controls ------------------------------------------------
-  const expected = Buffer.from(`Bearer ${state.opts.apiKey}`);
+  const expected = Buffer.from(state.opts.apiKey);
+  // Bearer, as the SDK sends it, or Basic with the key as the user name (curl -u sk_test_…:).
+  const keyOf = (header: string): string => {
+    const bearer = /^Bearer\s+(\S+)$/.exec(header);
+    if (bearer) return bearer[1]!;
+    const basic = /^Basic\s+([A-Za-z0-9+/=]+)$/.exec(header);
+    return basic ? Buffer.from(basic[1]!, 'base64').toString('utf8').split(':')[0]! : header;
+  };
   const authenticate = (req: Request, _res: Response, next: NextFunction) => {
-    const got = Buffer.from(req.get('Authorization') ?? '');
-    if (got.length === 0) return next(new FakeError(401, 'authentication_error', 'You did not provide an API key. Send it as a Bearer token in the Authorization header.'));
+    const header = req.get('Authorization') ?? '';
+    if (!header) return next(new FakeError(401, 'authentication_error', 'You did not provide an API key. Send it as a Bearer token in the Authorization header.'));
+    const key = keyOf(header);
+    const got = Buffer.from(key);
     if (got.length !== expected.length || !timingSafeEqual(got, expected)) {
-      const shown = (req.get('Authorization') ?? '').replace(/^Bearer\s+/, '');
-      return next(new FakeError(401, 'authentication_error', `Invalid API Key provided: ${shown.slice(0, 8)}${'*'.repeat(Math.max(0, shown.length - 12))}${shown.slice(-4)}`));
+      return next(new FakeError(401, 'authentication_error', `Invalid API Key provided: ${key.slice(0, 8)}${'*'.repeat(Math.max(0, key.length - 12))}${key.slice(-4)}`));
     }
     next();
   };
@@ -86,6 +95,7 @@ export function createFakeApp(state: FakeState): Express {
    * answer, and POSTs remembered under their Idempotency-Key so a retry gets the first answer.
    */
   const route = (handler: Handler) => (req: Request, res: Response) => {
+    state.expireDueSessions();
     const p = ((req.method === 'GET' ? req.query : req.body) ?? {}) as Params;
     const key = req.method === 'POST' ? req.get('Idempotency-Key') : undefined;
     const cause: Cause = { requestId: String(res.getHeader('Request-Id')), idempotencyKey: key ?? null };

@@ -24,6 +24,7 @@ const STYLE = `
   ul.items { padding-left: 1.2rem; }
   label { display: block; font-weight: 600; margin-top: .9rem; }
   input { width: 100%; font: inherit; padding: .6rem; border: 1px solid #4d5a63; border-radius: 4px; background: #fff; color: #1e2a32; min-height: 44px; }
+  input::placeholder { color: #5d6a73; }
   input:focus, button:focus { outline: 3px solid #1d4f91; outline-offset: 2px; }
   .row { display: flex; gap: .75rem; } .row > div { flex: 1; }
   button { font: inherit; font-weight: 700; min-height: 44px; padding: .6rem 1rem; border-radius: 4px; cursor: pointer; }

@@ -55,6 +55,51 @@ export function isLoopbackHttp(url: string): boolean {
   }
 }
 
+/**
+ * Card payments. The secret key and the webhook signing secret come from the environment (never
+ * from the repository); STRIPE_API_URL points the SDK elsewhere than the processor's own API — the
+ * local fake in development and tests. Production refuses a plain-http API address.
+ */
+const stripeShape = {
+  STRIPE_SECRET_KEY: z
+    .string({ message: 'STRIPE_SECRET_KEY is required: the secret key (sk_test_… or sk_live_…) the server calls Stripe with.' })
+    .regex(/^(sk|rk)_(test|live)_[A-Za-z0-9_]{8,}$/, { message: 'STRIPE_SECRET_KEY must be a Stripe secret key: sk_test_… or sk_live_… (or a restricted rk_… key).' }),
+  STRIPE_WEBHOOK_SECRET: z
+    .string({ message: 'STRIPE_WEBHOOK_SECRET is required: the signing secret (whsec_…) of the webhook endpoint.' })
+    .regex(/^whsec_[A-Za-z0-9_+/=-]{8,}$/, { message: 'STRIPE_WEBHOOK_SECRET must be a webhook signing secret: whsec_ followed by at least 8 characters.' }),
+  /** Empty: Stripe's own API (https://api.stripe.com). */
+  STRIPE_API_URL: z.url({ protocol: /^https?$/, message: 'STRIPE_API_URL must be an http(s) URL such as http://127.0.0.1:12111.' }).optional(),
+};
+
+/**
+ * Production refuses a plain-http API address. The one exception is the local demo (npm start runs
+ * production code): a test key (sk_test_…) talking to the Stripe fake on this machine's loopback
+ * address, where nothing crosses a network and no live key is ever sent.
+ */
+function checkStripe(c: { NODE_ENV: string; STRIPE_API_URL?: string; STRIPE_SECRET_KEY: string }, ctx: z.RefinementCtx): void {
+  if (c.NODE_ENV !== 'production' || !c.STRIPE_API_URL || new URL(c.STRIPE_API_URL).protocol === 'https:') return;
+  if (isLoopbackHttp(c.STRIPE_API_URL) && c.STRIPE_SECRET_KEY.startsWith('sk_test_')) return;
+  ctx.addIssue({
+    code: 'custom',
+    path: ['STRIPE_API_URL'],
+    message: 'STRIPE_API_URL must use https in production: card payment calls never travel over plain http (only a test key may reach a local fake on a loopback address).',
+  });
+}
+
+/** Where the SDK sends its calls: null means Stripe's own API with the SDK's defaults. */
+export interface StripeApi {
+  host: string;
+  port: number;
+  protocol: 'http' | 'https';
+}
+
+function stripeApi(url: string | undefined): StripeApi | null {
+  if (!url) return null;
+  const u = new URL(url);
+  const protocol = u.protocol === 'https:' ? 'https' : 'http';
+  return { host: u.hostname, port: u.port ? Number(u.port) : protocol === 'https' ? 443 : 80, protocol };
+}
+
 const configSchema = z
   .object({
     ...storageShape,
@@ -87,8 +132,9 @@ const configSchema = z
     APPROVAL_CHASER: bool.default(true),
     /** Off in unit-style tests that do not need mail delivery; on everywhere else. */
     MAIL_WORKER: bool.default(true),
+    ...stripeShape,
   })
-  .transform((c) => ({ ...c, COOKIE_SECURE: c.COOKIE_SECURE ?? c.NODE_ENV === 'production' }))
+  .transform((c) => ({ ...c, COOKIE_SECURE: c.COOKIE_SECURE ?? c.NODE_ENV === 'production', stripeApi: stripeApi(c.STRIPE_API_URL) }))
   .superRefine((c, ctx) => {
     // ASVS 4.0.3 V2.2.1: at most 100 failed attempts per account per hour, so at most 25 per 15 minutes.
     // Test runs may raise it (many journeys sign in as the same person); production may not.
@@ -101,6 +147,7 @@ const configSchema = z
       ctx.addIssue({ code: 'custom', path: ['COOKIE_SECURE'], message: 'COOKIE_SECURE=false is refused in production unless APP_URL is plain http on a loopback address (the local demo): session cookies must be Secure.' });
     }
     checkStorage(c, ctx);
+    checkStripe(c, ctx);
   });
 
 const storageSchema = z.object(storageShape).superRefine(checkStorage);

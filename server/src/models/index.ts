@@ -17,6 +17,7 @@ import { Finding } from './finding.model.js';
 import { TimeLog } from './time-log.model.js';
 import { ApprovalRequest } from './approval-request.model.js';
 import { FindingPhoto } from './finding-photo.model.js';
+import { PaymentEvent } from './payment-event.model.js';
 
 let bound: Sequelize | null = null;
 
@@ -25,7 +26,7 @@ export function initModels(sequelize: Sequelize): void {
   if (bound === sequelize) return;
   if (bound) throw new Error('Models are already bound to another database connection.');
   for (const m of [Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken]) m.initModel(sequelize);
-  for (const m of [Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest, FindingPhoto]) m.initModel(sequelize);
+  for (const m of [Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest, FindingPhoto, PaymentEvent]) m.initModel(sequelize);
 
   Workshop.hasMany(User, { foreignKey: 'workshopId' });
   User.belongsTo(Workshop, { foreignKey: 'workshopId', as: 'workshop' });
@@ -55,4 +56,4 @@ export function boundSequelize(): Sequelize {
   return bound;
 }
 
-export { Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken, Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest, FindingPhoto };
+export { Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken, Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest, FindingPhoto, PaymentEvent };

@@ -4,3 +4,4 @@ export * from './estimate.js';
 export * from './limits.js';
 export * from './deposits.js';
 export * from './choice.js';
+export * from './deposit-policy.js';

@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import { decimalString, patchOf, safeString, shortText, TEXT_MAX } from './common.js';
+import { Dec } from '../money.js';
+import type { WorkshopDepositPolicy } from '../pricing/deposit-policy.js';
 
 export const VAT_ROUNDING_METHODS = ['invoice-down', 'invoice-nearest', 'line-nearest', 'line-down-tenth'] as const;
 
@@ -18,6 +20,24 @@ export const labourRateSchema = z.object({
 
 export const APPROVAL_LINK_DAYS = { min: 1, max: 60 } as const;
 export const CHASE_AFTER_HOURS = { min: 1, max: 720 } as const;
+
+export const DEPOSIT_POLICY_KINDS = ['none', 'quote_percent', 'approved_work_percent'] as const;
+
+// zod runs the refinement even after the pattern failed, so it checks the pattern itself first.
+const depositPercent = decimalString(2, 'Percentage').refine((v) => !/^\d{1,12}(\.\d{1,2})?$/.test(v) || (new Dec(v).greaterThan(0) && new Dec(v).lessThanOrEqualTo(100)), {
+  message: 'The percentage must be more than 0 and at most 100.',
+});
+
+/** See WorkshopDepositPolicy (shared/src/pricing/deposit-policy.ts). */
+export const depositPolicySchema = z.discriminatedUnion(
+  'kind',
+  [
+    z.object({ kind: z.literal('none') }),
+    z.object({ kind: z.literal('quote_percent'), percent: depositPercent }),
+    z.object({ kind: z.literal('approved_work_percent'), percent: depositPercent, threshold: decimalString(2, 'Threshold') }),
+  ],
+  { error: 'Choose no deposit, a percentage of the quote, or a percentage of approved work.' },
+) satisfies z.ZodType<WorkshopDepositPolicy>;
 
 export const workshopSettingsSchema = z.object({
   vatRounding: z.enum(VAT_ROUNDING_METHODS).default('invoice-nearest'),
@@ -45,6 +65,7 @@ export const workshopSettingsSchema = z.object({
     .regex(/^[0-9+()\s-]*$/, { message: 'Use digits, spaces and + ( ) - only, e.g. 01632 960123.' })
     .default(''),
   contactEmail: z.union([z.literal(''), z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address.' }))]).default(''),
+  depositPolicy: depositPolicySchema.default({ kind: 'none' }),
 });
 
 

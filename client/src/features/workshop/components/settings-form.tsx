@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { APPROVAL_LINK_DAYS, CHASE_AFTER_HOURS, TEXT_MAX, VAT_ROUNDING_METHODS, workshopUpdateSchema, type WorkshopDto } from '@wingstage/shared';
+import { APPROVAL_LINK_DAYS, CHASE_AFTER_HOURS, DEPOSIT_POLICY_KINDS, TEXT_MAX, VAT_ROUNDING_METHODS, workshopUpdateSchema, type WorkshopDto } from '@wingstage/shared';
 import { useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import type { z } from 'zod';
@@ -21,6 +21,12 @@ const ROUNDING_LABELS: Record<(typeof VAT_ROUNDING_METHODS)[number], string> = {
   'line-down-tenth': 'On each line, rounded down to a tenth of a penny',
 };
 
+const DEPOSIT_KIND_LABELS: Record<(typeof DEPOSIT_POLICY_KINDS)[number], string> = {
+  none: 'No deposit',
+  quote_percent: 'A share of the inspection quote, when the owner accepts it',
+  approved_work_percent: 'A share of newly approved work, when it is worth more than a threshold',
+};
+
 const LABELS: Record<string, string> = {
   name: 'Workshop name',
   addressLines: 'Address',
@@ -32,7 +38,12 @@ const LABELS: Record<string, string> = {
   'settings.chaseAfterHours': 'Hours before a reminder',
   'settings.contactPhone': 'Phone for owners',
   'settings.contactEmail': 'E-mail for owners',
+  'settings.depositPolicy.kind': 'When a deposit is asked for',
+  'settings.depositPolicy.percent': 'Deposit percentage',
+  'settings.depositPolicy.threshold': 'Threshold',
 };
+
+const DECIMAL = /^\d+(\.\d{1,2})?$/;
 
 type FormIn = z.input<typeof workshopUpdateSchema>;
 
@@ -52,6 +63,7 @@ const toForm = (w: WorkshopDto): FormIn => ({
     chaseAfterHours: w.settings.chaseAfterHours,
     contactPhone: w.settings.contactPhone,
     contactEmail: w.settings.contactEmail,
+    depositPolicy: w.settings.depositPolicy,
   },
 });
 
@@ -65,6 +77,11 @@ export function SettingsForm({ workshop }: { workshop: WorkshopDto }) {
   });
   const rates = useFieldArray({ control, name: 'labourRates' });
   const e = formState.errors;
+  // One error shape for the three kinds: the fields a kind lacks simply never carry an error.
+  const de = e.settings?.depositPolicy as { kind?: { message?: string }; percent?: { message?: string }; threshold?: { message?: string }; message?: string } | undefined;
+  const depositKind = watch('settings.depositPolicy.kind') ?? 'none';
+  const typedPercent = String(watch('settings.depositPolicy.percent') ?? '').trim();
+  const typedThreshold = String(watch('settings.depositPolicy.threshold') ?? '').trim();
 
   const submit = handleSubmit(async (values) => {
     setSummary(null);
@@ -97,6 +114,9 @@ export function SettingsForm({ workshop }: { workshop: WorkshopDto }) {
           'settings.chaseAfterHours': e.settings?.chaseAfterHours,
           'settings.contactPhone': e.settings?.contactPhone,
           'settings.contactEmail': e.settings?.contactEmail,
+          'settings.depositPolicy.kind': de?.kind ?? (de?.message ? { message: de.message } : undefined),
+          'settings.depositPolicy.percent': de?.percent,
+          'settings.depositPolicy.threshold': de?.threshold,
         }} labels={LABELS} />
       <Card title="The workshop">
         <div className="flex flex-col gap-4">
@@ -176,6 +196,44 @@ export function SettingsForm({ workshop }: { workshop: WorkshopDto }) {
             </option>
           ))}
         </SelectField>
+      </Card>
+      <Card title="Deposits">
+        <p className="mb-3 text-sm text-slate-soft">
+          Asked of the owner by card before the work goes ahead. Percentages are of amounts incl. VAT, rounded to the penny.
+        </p>
+        <div className="flex flex-col gap-4">
+          <SelectField label={LABELS['settings.depositPolicy.kind']!} error={de?.kind?.message} {...register('settings.depositPolicy.kind')}>
+            {DEPOSIT_POLICY_KINDS.map((k) => (
+              <option key={k} value={k}>
+                {DEPOSIT_KIND_LABELS[k]}
+              </option>
+            ))}
+          </SelectField>
+          {depositKind !== 'none' ? (
+            <div className="grid items-end gap-4 sm:grid-cols-2">
+              <TextField
+                label={LABELS['settings.depositPolicy.percent']!}
+                inputMode="decimal"
+                className="tabular-nums"
+                required
+                hint={DECIMAL.test(typedPercent) ? `${typedPercent}% of ${depositKind === 'quote_percent' ? 'the quote' : 'the approved work'}, incl. VAT` : 'For example 25'}
+                error={de?.percent?.message}
+                {...register('settings.depositPolicy.percent')}
+              />
+              {depositKind === 'approved_work_percent' ? (
+                <TextField
+                  label={LABELS['settings.depositPolicy.threshold']!}
+                  inputMode="decimal"
+                  className="tabular-nums"
+                  required
+                  hint={DECIMAL.test(typedThreshold) ? `Asked when approved work is over ${formatMoney(typedThreshold, workshop.currency, { vat: 'incl' })}` : 'For example 500.00'}
+                  error={de?.threshold?.message}
+                  {...register('settings.depositPolicy.threshold')}
+                />
+              ) : null}
+            </div>
+          ) : null}
+        </div>
       </Card>
       <div>
         <Button type="submit" busy={formState.isSubmitting}>
