@@ -1,4 +1,4 @@
-import { OWNER_APPROVAL_REQUEST_STATE_LABELS, OWNER_FINDING_STATE_LABELS, OWNER_JOB_STATE_LABELS, type JobState } from '@wingstage/shared';
+import { OWNER_APPROVAL_REQUEST_STATE_LABELS, OWNER_FINDING_STATE_LABELS, OWNER_JOB_STATE_LABELS, TOTAL_NAMES, type JobState } from '@wingstage/shared';
 
 /**
  * Every word the owner's pages use, in one place, said from the owner's side. The staff words for
@@ -22,11 +22,11 @@ export const OWNER_WORDS = {
   dueBack: 'due back',
   decisionNeeded: 'Your decision is needed',
   moneyLabel: 'The money so far',
-  quoted: 'First quoted',
+  quoted: TOTAL_NAMES.quoted,
   /** One name for the total the owner has agreed to, everywhere the owner reads it. */
-  agreed: 'Agreed so far',
+  agreed: TOTAL_NAMES.agreed,
   /** One name for what still waits for the owner's decision. */
-  undecided: 'Waiting for your decision',
+  undecided: TOTAL_NAMES.undecidedOwner,
   whatWeFound: 'What we found',
   thanks: 'With thanks,',
   contactLead: 'To talk anything through, contact us:',
@@ -64,6 +64,7 @@ export const STAFF_ONLY_WORDS = [
   'Ready for release',
   'Approved so far',
   'Undecided',
+  "Waiting for the owner's decision",
   'Link revoked',
 ] as const;
 

@@ -1,0 +1,15 @@
+/**
+ * One name for each total, used by staff pages, the owner's pages and e-mails alike (vocabulary.md:
+ * one name for each thing). The owner's side says "your"; the staff side says "the owner's".
+ */
+export const TOTAL_NAMES = {
+  /** The inspection scope as first quoted. */
+  quoted: 'First quoted',
+  /** What the owner has agreed to: the accepted scope plus approved findings. */
+  agreed: 'Agreed so far',
+  /** Priced findings sent and not yet decided (staff side). */
+  undecided: "Waiting for the owner's decision",
+  /** The same total on the owner's pages. */
+  undecidedOwner: 'Waiting for your decision',
+  ifAllApproved: 'If every finding is approved',
+} as const;
