@@ -16,6 +16,7 @@ export * from './schemas/approvals.js';
 export * from './schemas/photos.js';
 export * from './checklist.js';
 export * from './bounds.js';
+export * from './words.js';
 // pricing engine (money.ts, pricing/) — exported below
 export * from './money.js';
 export * from './money-format.js';

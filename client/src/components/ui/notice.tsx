@@ -51,7 +51,7 @@ export function Caution({ children }: { children?: ReactNode }) {
   return (
     <aside aria-label="Caution" className="mt-8 border-t border-seam pt-3 text-xs text-slate-soft">
       {children ??
-        "Maintenance follows the manufacturer's current data and the national authority's rules; only an authorised inspector certifies the aircraft."}
+        "Maintenance follows the manufacturer's current data and the authority's rules; only the licensed inspector certifies the aircraft."}
     </aside>
   );
 }

@@ -1,4 +1,4 @@
-import { OWNER_APPROVAL_REQUEST_STATE_LABELS, OWNER_FINDING_STATE_LABELS, OWNER_JOB_STATE_LABELS, type JobState } from '@wingstage/shared';
+import { OWNER_APPROVAL_REQUEST_STATE_LABELS, OWNER_FINDING_STATE_LABELS, OWNER_JOB_STATE_LABELS, TOTAL_NAMES, type JobState } from '@wingstage/shared';
 
 /**
  * Every word the owner's pages use, in one place, said from the owner's side. The staff words for
@@ -23,12 +23,12 @@ export const OWNER_WORDS = {
   decisionNeeded: 'Your decision is needed',
   moneyLabel: 'The money so far',
   quoteState: 'Our quote',
-  quoted: 'Quoted',
-  quoteAwaiting: 'Of the quote, not yet agreed',
+  quoted: TOTAL_NAMES.quoted,
+  quoteAwaiting: TOTAL_NAMES.quoteAwaitingOwner,
   /** One name for the total the owner has agreed to, everywhere the owner reads it. */
-  agreed: 'Agreed so far',
+  agreed: TOTAL_NAMES.agreed,
   /** One name for what still waits for the owner's decision. */
-  undecided: 'Waiting for your decision',
+  undecided: TOTAL_NAMES.undecidedOwner,
   whatWeFound: 'What we found',
   thanks: 'With thanks,',
   contactLead: 'To talk anything through, contact us:',
@@ -66,6 +66,7 @@ export const STAFF_ONLY_WORDS = [
   'Ready for release',
   'Approved so far',
   'Undecided',
+  "Waiting for the owner's decision",
   'Link revoked',
 ] as const;
 

@@ -128,6 +128,30 @@ describe('EstimateBuilder', () => {
     expect(screen.getByText(/Totals paused until every figure is a number/)).toBeTruthy();
   });
 
+  it('when a figure is negative, then the paused totals name the line and say it cannot be negative, without the engine\'s field paths', () => {
+    const estimate = estimateOf([line({})]);
+    renderWithApp(<Harness estimate={estimate} />);
+    fireEvent.change(screen.getAllByLabelText('Hours')[0]!, { target: { value: '-3' } });
+    const paused = screen.getByText(/Totals paused until every figure is a number/);
+    expect(paused.textContent).toContain('"Annual inspection": Quantity cannot be negative.');
+    expect(paused.textContent).not.toMatch(/lines\[|must not be negative|decimals/);
+  });
+
+  it('when a figure is far beyond a light-aircraft job, then saving asks first, names it, and sends confirmLarge only after "They are right"', async () => {
+    const part = line({ kind: 'part', description: 'Split pins', quantity: '1', labourRateCode: null, ratePerHour: null, unitCost: '0.40' });
+    const estimate = estimateOf([part]);
+    fetchMock.mockResolvedValue(json(estimateOf([{ ...part, quantity: '1000000' }], 4)));
+    renderWithApp(<Harness estimate={estimate} />);
+    fireEvent.change(within(screen.getByRole('region', { name: 'Inspection scope' })).getAllByLabelText(/Quantity/)[0]!, { target: { value: '1000000' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Save estimate' }));
+    const ask = await screen.findByTestId('confirm-large');
+    expect(ask.textContent).toContain('"Split pins": 1000000 is more than 500 items.');
+    expect(fetchMock).not.toHaveBeenCalled();
+    fireEvent.click(within(ask).getByRole('button', { name: 'They are right: save' }));
+    await waitFor(() => expect(fetchMock).toHaveBeenCalled());
+    expect(JSON.parse(String(fetchMock.mock.calls[0]![1]?.body))).toMatchObject({ version: 3, confirmLarge: true });
+  });
+
   it('when someone else saved first, says so, shows their version and keeps the unsaved lines', async () => {
     const mine = line({ description: 'Annual inspection' });
     const estimate = estimateOf([mine], 3);

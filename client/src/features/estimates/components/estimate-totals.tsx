@@ -1,4 +1,4 @@
-import { compareAmounts, ESTIMATE_STAGES, type PricedEstimate, type Totals } from '@wingstage/shared';
+import { compareAmounts, ESTIMATE_STAGES, TOTAL_NAMES, type PricedEstimate, type Totals } from '@wingstage/shared';
 import { formatMoney } from '@/lib/format';
 import { STAGE_LABELS } from '@/lib/line-kinds';
 import { VAT_RATE_LABELS } from '@/lib/pricing-preview';
@@ -46,14 +46,14 @@ export function EstimateTotals({ priced, paused }: { priced: PricedEstimate; pau
       <section>
         <h3 className="mb-1 text-sm font-semibold uppercase tracking-wide text-slate-soft">Where the estimate stands</h3>
         <dl className="divide-y divide-seam">
-          <Row label="Quoted (inspection scope)" totals={priced.quoted} currency={c} testId="total-quoted" />
-          <Row label="Agreed so far" totals={priced.committed} currency={c} testId="total-committed" strong />
+          <Row label={TOTAL_NAMES.quoted} totals={priced.quoted} currency={c} testId="total-quoted" />
+          <Row label={TOTAL_NAMES.agreed} totals={priced.committed} currency={c} testId="total-committed" strong />
           {compareAmounts(priced.quoteAwaiting.gross, '0') !== 0 ? (
-            <Row label="Quote awaiting the owner" totals={priced.quoteAwaiting} currency={c} testId="total-quote-awaiting" />
+            <Row label={TOTAL_NAMES.quoteAwaiting} totals={priced.quoteAwaiting} currency={c} testId="total-quote-awaiting" />
           ) : null}
           <div className="flex items-baseline justify-between gap-x-3 py-1.5">
             <dt className="min-w-0">
-              Undecided
+              {TOTAL_NAMES.undecided}
               <span className="block text-xs text-slate-soft">
                 {awaitingWords(priced)}
               </span>
@@ -65,7 +65,7 @@ export function EstimateTotals({ priced, paused }: { priced: PricedEstimate; pau
               </span>
             </dd>
           </div>
-          <Row label="If everything is approved" totals={priced.ifAllApproved} currency={c} testId="total-if-all" />
+          <Row label={TOTAL_NAMES.ifAllApproved} totals={priced.ifAllApproved} currency={c} testId="total-if-all" />
         </dl>
       </section>
       <section>

@@ -24,7 +24,10 @@ export function ReleaseGuard({ findings }: { findings: Pick<FindingDto, 'id' | '
             </li>
           ))}
         </ul>
-        <p>An airworthiness finding stays open until the work is done and recorded, even if the owner declines it. Whether the aircraft may be released is the inspector's decision.</p>
+        <p>
+          An airworthiness finding stays open until the work is done and recorded, even if the owner declines it. Wingstage will not mark the job ready for release until then;
+          whether the aircraft may fly is the licensed inspector's decision under the authority's rules.
+        </p>
       </div>
     </div>
   );

@@ -115,4 +115,18 @@ describe('BookInForm', () => {
     await waitFor(() => expect(onSubmit).toHaveBeenCalledOnce());
     expect(onSubmit.mock.calls[0]![0]).toMatchObject({ aircraftId: base.id, bookedInOn: '2026-12-10', dueOn: null, type: 'annual_permit_inspection' });
   });
+
+  it('when the title was left empty and a template then fills it, then the "Title is required" message goes away', async () => {
+    const templates = [
+      { id: '3e4f5a6b-7c8d-4e9f-8a1b-2c3d4e5f6a7b', name: 'Gearbox inspection', jobType: 'gearbox_inspection' as const, lineCount: 3, checklistCount: 3, active: true },
+    ];
+    renderWithApp(<BookInForm aircraft={aircraft} defaultAircraftId={base.id} cancelTo="/jobs" onSubmit={vi.fn()} templates={templates} />);
+    const title = screen.getByLabelText(/^Title/) as HTMLInputElement;
+    fireEvent.input(title, { target: { value: '' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Book in' }));
+    expect((await screen.findAllByText('Title is required.')).length).toBeGreaterThan(0);
+    fireEvent.change(screen.getByLabelText(/^Start from a template/), { target: { value: templates[0]!.id } });
+    expect(title.value).toBe('Gearbox inspection');
+    await waitFor(() => expect(screen.queryAllByText('Title is required.')).toHaveLength(0));
+  });
 });

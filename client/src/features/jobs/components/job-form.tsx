@@ -64,7 +64,8 @@ export function BookInForm<A>({
               if (!t) return;
               setValue('type', t.jobType);
               const title = getValues('title');
-              if (!title || title === JOB_TYPE_LABELS[lastType.current] || title === lastTemplateTitle.current) setValue('title', t.name);
+              // Validating as it fills clears a "give the job a title" message left from an earlier try.
+              if (!title || title === JOB_TYPE_LABELS[lastType.current] || title === lastTemplateTitle.current) setValue('title', t.name, { shouldValidate: true });
               lastTemplateTitle.current = t.name;
               lastType.current = t.jobType;
             },
@@ -87,7 +88,7 @@ export function BookInForm<A>({
           onChange: (ev: React.ChangeEvent<HTMLSelectElement>) => {
             const next = ev.target.value as JobType;
             const title = getValues('title');
-            if (!title || title === JOB_TYPE_LABELS[lastType.current]) setValue('title', JOB_TYPE_LABELS[next] ?? '');
+            if (!title || title === JOB_TYPE_LABELS[lastType.current]) setValue('title', JOB_TYPE_LABELS[next] ?? '', { shouldValidate: true });
             lastType.current = next;
           },
         })}

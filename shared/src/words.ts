@@ -1,0 +1,19 @@
+/**
+ * One name for each total, used by staff pages, the owner's pages and e-mails alike (vocabulary.md:
+ * one name for each thing). The owner's side says "your"; the staff side says "the owner's".
+ */
+export const TOTAL_NAMES = {
+  /** The inspection scope as it stands (the quote; a change to it goes to the owner again). */
+  quoted: 'Quoted',
+  /** Inspection lines the owner has not yet agreed (staff side). */
+  quoteAwaiting: 'Quote awaiting the owner',
+  /** The same on the owner's pages. */
+  quoteAwaitingOwner: 'Of the quote, not yet agreed',
+  /** What the owner has agreed to: the accepted scope plus approved findings. */
+  agreed: 'Agreed so far',
+  /** Priced findings sent and not yet decided (staff side). */
+  undecided: "Waiting for the owner's decision",
+  /** The same total on the owner's pages. */
+  undecidedOwner: 'Waiting for your decision',
+  ifAllApproved: 'If everything is approved',
+} as const;
