@@ -5,10 +5,13 @@ set -euo pipefail
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 SCRIPTS="$ROOT/docker-free-scripts"
 LOCAL_DIR="${WS_LOCAL_DIR:-$ROOT/.local}"
-# "dev" for npm start, "test" for npm test: separate ports, data and databases.
+# "dev" for npm start, "test" for npm test, "bench" for the benchmarks: separate ports, data and databases.
 WS_PROFILE="${WS_PROFILE:-dev}"
 if [ "$WS_PROFILE" = "test" ]; then
   : "${WS_PG_PORT:=54339}" "${WS_APP_PORT:=3100}" "${WS_SMTP_PORT:=1026}" "${WS_MAIL_WEB_PORT:=1081}" "${WS_STRIPE_PORT:=12112}" "${WS_DB_NAME:=wingstage_test}"
+elif [ "$WS_PROFILE" = "bench" ]; then
+  # The benchmarks (npm run seed:scale, bench:api, bench:lcp): beside a running npm start and npm test.
+  : "${WS_PG_PORT:=54359}" "${WS_APP_PORT:=3300}" "${WS_SMTP_PORT:=1028}" "${WS_MAIL_WEB_PORT:=1083}" "${WS_STRIPE_PORT:=12113}" "${WS_DB_NAME:=wingstage_scale}"
 else
   : "${WS_PG_PORT:=54329}" "${WS_APP_PORT:=3000}" "${WS_SMTP_PORT:=1025}" "${WS_MAIL_WEB_PORT:=1080}" "${WS_STRIPE_PORT:=12111}" "${WS_DB_NAME:=wingstage}"
 fi

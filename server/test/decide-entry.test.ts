@@ -75,5 +75,7 @@ describe('what the decision page is served with', () => {
     // An error this small is not worth compressing; the threshold is 1 KB.
     expect(json.headers['content-encoding']).toBeUndefined();
     expect(json.type).toBe('application/json');
+    // Only one of the two compressors (API, files) touches an answer: unzipped once, it is the file.
+    expect(gz.text).toContain('console.log(1)');
   });
 });
