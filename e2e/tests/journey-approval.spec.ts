@@ -1,6 +1,6 @@
 import { fileURLToPath } from 'node:url';
 import { expect, test } from '@playwright/test';
-import { DESKTOP, PHONE, apiCall, context, decisionLink, expectLoaded, mailTo, shot, signedIn } from './support/journey';
+import { apiCall, context, decisionLink, expectLoaded, mailTo, shot, signedIn } from './support/journey';
 
 /**
  * The approval journey. The manager books the job in and sends the quote (the template's inspection

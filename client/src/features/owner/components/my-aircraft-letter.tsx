@@ -1,4 +1,4 @@
-import { JOB_TYPE_LABELS, QUOTE_STATE_OWNER_WORDS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto, type JobState } from '@wingstage/shared';
+import { JOB_TYPE_LABELS, QUOTE_STATE_OWNER_WORDS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto } from '@wingstage/shared';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { CategoryBadge, FindingStateBadge } from '@/components/ui/finding-badges';
 import { PhotoStrip } from '@/components/ui/photo-strip';
