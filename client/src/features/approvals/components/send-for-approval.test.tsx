@@ -79,7 +79,7 @@ describe('SendForApproval', () => {
     await waitFor(() => expect(fetchMock).toHaveBeenCalled());
     const [url, init] = fetchMock.mock.calls[0]!;
     expect(url).toBe(`/api/jobs/${JOB}/approval-requests`);
-    expect(JSON.parse(String(init?.body))).toEqual({ findingIds: [A.id, B.id], message: 'Two things turned up.', estimateVersion: 7 });
+    expect(JSON.parse(String(init?.body))).toEqual({ findingIds: [A.id, B.id], includeQuote: false, message: 'Two things turned up.', estimateVersion: 7 });
   });
 
   it('when the server refuses (a stale estimate), then its reason is shown', async () => {
