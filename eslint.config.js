@@ -114,6 +114,12 @@ export default tseslint.config(
       'no-self-compare': 'error',
       'no-template-curly-in-string': 'error',
       'no-unmodified-loop-condition': 'error',
+      // Money is written by shared's formatMoney only: a "£" glued to an expression is a second formatter.
+      'no-restricted-syntax': [
+        'error',
+        { selector: 'TemplateElement[value.raw=/[£€$]$/]:not(:last-child)', message: 'Write money with formatMoney (shared/src/money-format.ts), not a currency sign next to a number.' },
+        { selector: 'JSXText[value=/[£€]\\s*$/]', message: 'Write money with formatMoney (shared/src/money-format.ts), not a currency sign next to a number.' },
+      ],
     },
   },
   {

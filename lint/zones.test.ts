@@ -84,6 +84,13 @@ describe('import boundaries (eslint.config.js)', () => {
     expect(await lintAs('allowed.ts', 'client/src/features/aircraft/components/planted.tsx')).toEqual([]);
   });
 
+  it('when an amount is written with "£" by hand, in a string or on a page, then both are reported', async () => {
+    const messages = await lintAs('money-by-hand.tsx', 'client/src/features/aircraft/components/planted.tsx');
+    const hits = messages.filter((m) => m.ruleId === 'no-restricted-syntax');
+    expect(hits.map((m) => m.line)).toEqual([2, 3]);
+    expect(hits[0]!.message).toContain('formatMoney');
+  });
+
   it('when the whole repository is linted, then the planted fixtures are left out', async () => {
     expect(await eslint.isPathIgnored(join(root, 'lint/fixtures/cross-feature-alias.ts'))).toBe(true);
     expect(await eslint.isPathIgnored(join(root, 'lint/zones.test.ts'))).toBe(false);

@@ -5,7 +5,7 @@
  */
 import { performance } from 'node:perf_hooks';
 import os from 'node:os';
-import { clearParsedDecimals, priceEstimate, VAT_ROUNDING_METHODS, type EstimateInput, type EstimateLineInput, type WorkshopPricing } from '../src/index.js';
+import { clearParsedDecimals, formatMoney, priceEstimate, VAT_ROUNDING_METHODS, type EstimateInput, type EstimateLineInput, type WorkshopPricing } from '../src/index.js';
 
 const pricing: WorkshopPricing = {
   currency: 'GBP',
@@ -101,7 +101,7 @@ const usedRates = new Set(big.lines.map((l) => l.vatRate));
 
 console.log(`Wingstage pricing bench — node ${process.version}, ${os.cpus()[0]?.model ?? 'cpu'} × ${os.cpus().length}`);
 console.log(
-  `1,000-line estimate: ${big.lines.length} lines, ${big.accessTasks!.length} access tasks, ${usedRates.size} VAT rates, ${check.findings.length} findings; committed gross £${check.committed.gross}`,
+  `1,000-line estimate: ${big.lines.length} lines, ${big.accessTasks!.length} access tasks, ${usedRates.size} VAT rates, ${check.findings.length} findings; committed gross ${formatMoney(check.committed.gross, pricing.currency)}`,
 );
 const rows: ReturnType<typeof measure>[] = [];
 // BENCH_METHODS=invoice-nearest,line-nearest narrows the run while tuning.
