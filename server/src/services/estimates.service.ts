@@ -17,7 +17,7 @@ import { AppError, conflict } from '../errors/app-error.js';
 import { AccessTask, Estimate, EstimateLine, Finding, JobChecklistItem, JobTemplate, type Workshop, boundSequelize } from '../models/index.js';
 import { recordAudit } from './audit.js';
 import { assertSuppliers, loadParts } from './catalogue.service.js';
-import { findJob, type JobRow } from './job-access.js';
+import { findJob, viewJob, type JobRow } from './job-access.js';
 import { labourRate, loadWorkshop, pricingOf } from './pricing.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
 
@@ -110,7 +110,7 @@ function forOwner(dto: EstimateDto): EstimateDto {
 }
 
 export async function getEstimate(scope: Scope, jobId: string): Promise<EstimateDto> {
-  const job = await findJob(scope, jobId);
+  const job = await viewJob(scope, jobId);
   const dto = await estimateDto(scope, job.id);
   return scope.role === 'owner' ? forOwner(dto) : dto;
 }
