@@ -26,7 +26,7 @@ import { quoteRequestFacts } from './approvals/repository.js';
 import { findingIdsIn, moveFindings } from './findings.repository.js';
 import { assertSuppliers, loadParts } from './catalogue.service.js';
 import { inTransaction } from '../db/transaction.js';
-import { findJob, lockJob, lockOpenRequests, type JobRow } from './job-access.js';
+import { findJob, lockJob, lockOpenRequests, viewJob, type JobRow } from './job-access.js';
 import { labourRate, loadWorkshop, pricingOf } from './pricing.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
 
@@ -144,7 +144,7 @@ function forOwner(dto: EstimateDto): EstimateDto {
 }
 
 export async function getEstimate(scope: Scope, jobId: string): Promise<EstimateDto> {
-  const job = await findJob(scope, jobId);
+  const job = await viewJob(scope, jobId);
   const dto = await estimateDto(scope, job.id);
   return scope.role === 'owner' ? forOwner(dto) : dto;
 }

@@ -31,7 +31,7 @@ import { moveFindings } from './findings.repository.js';
 import { loadParts } from './catalogue.service.js';
 import { assertEstimateEditable, ensureEstimate } from './estimates.service.js';
 import { inTransaction } from '../db/transaction.js';
-import { findJob, lockJob, lockOpenRequests, type JobRow } from './job-access.js';
+import { findJob, lockJob, lockOpenRequests, viewJob, type JobRow } from './job-access.js';
 import { loadWorkshop } from './pricing.js';
 import { photosByFinding } from './photos.service.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
@@ -94,7 +94,7 @@ async function findingOut(scope: Scope, jobId: string, id: string, t?: Transacti
 }
 
 export async function listFindings(scope: Scope, jobId: string): Promise<FindingDto[]> {
-  const job = await findJob(scope, jobId);
+  const job = await viewJob(scope, jobId);
   const where: Record<string, unknown> = { jobId: job.id };
   // Drafts are the workshop's working notes until priced.
   const rows = await Finding.findAll({ where: inWorkshop(scope, where), include: findingInclude, order: [['seq', 'ASC']] });
