@@ -29,7 +29,8 @@ const PHOTO = fileURLToPath(new URL('../fixtures/finding-photo.jpg', import.meta
 
 test('an engineer raises findings, the manager sends one request, the owner decides on a phone @approval', async ({ browser, baseURL, request }, testInfo) => {
   test.skip(testInfo.project.name !== 'desktop', 'Changes demo data: runs once, with its own phone and desktop windows.');
-  test.setTimeout(300_000);
+  // The quote's own round trip comes first now: a longer journey.
+  test.setTimeout(540_000);
   const stamp = `${Date.now().toString(36)}`;
   const jobTitle = `Annual permit inspection, journey ${stamp}`;
   const plugTitle = `Spark plug gap ${GAP} mm, over the wear limit`;
