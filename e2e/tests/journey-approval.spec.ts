@@ -314,7 +314,8 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await page.goto(`/jobs/${jobId}`);
     await expect(page.getByTestId('total-committed-gross')).toHaveText(`${newTotal} incl. VAT`);
     const requests = page.getByRole('list', { name: 'Approval requests' });
-    await expect(requests.locator('[data-request-state="decided"]')).toHaveCount(1);
+    // The quote's request and the findings' request.
+    await expect(requests.locator('[data-request-state="decided"]')).toHaveCount(2);
     await expect(requests).toContainText(`by ${OWNER_NAME}`);
     await expect(page.locator('li[data-finding]', { hasText: plugTitle }).getByText('Approved', { exact: true })).toBeVisible();
     await expect(page.locator('li[data-finding]', { hasText: springTitle }).getByText('Declined', { exact: true })).toBeVisible();

@@ -38,7 +38,8 @@ async function inventedPhoto(browser: Browser): Promise<Buffer> {
 
 test('the owner’s link follows what the manager does: revoked, re-sent, decided @approval', async ({ browser, baseURL, request }, testInfo) => {
   test.skip(testInfo.project.name !== 'desktop', 'Changes demo data: runs once, with its own phone and desktop windows.');
-  test.setTimeout(300_000);
+  // Two requests, three links and their e-mails: room for a busy machine.
+  test.setTimeout(540_000);
   const stamp = Date.now().toString(36);
   const springTitle = `Exhaust spring cracked ${stamp}`;
   const bootTitle = `Carburettor boot perished ${stamp}`;
