@@ -29,7 +29,8 @@ const PHOTO = fileURLToPath(new URL('../fixtures/finding-photo.jpg', import.meta
 
 test('an engineer raises findings, the manager sends one request, the owner decides on a phone @approval', async ({ browser, baseURL, request }, testInfo) => {
   test.skip(testInfo.project.name !== 'desktop', 'Changes demo data: runs once, with its own phone and desktop windows.');
-  test.setTimeout(300_000);
+  // The quote's own round trip comes first now: a longer journey.
+  test.setTimeout(540_000);
   const stamp = `${Date.now().toString(36)}`;
   const jobTitle = `Annual permit inspection, journey ${stamp}`;
   const plugTitle = `Spark plug gap ${GAP} mm, over the wear limit`;
@@ -313,7 +314,8 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await page.goto(`/jobs/${jobId}`);
     await expect(page.getByTestId('total-committed-gross')).toHaveText(`${newTotal} incl. VAT`);
     const requests = page.getByRole('list', { name: 'Approval requests' });
-    await expect(requests.locator('[data-request-state="decided"]')).toHaveCount(1);
+    // The quote's request and the findings' request.
+    await expect(requests.locator('[data-request-state="decided"]')).toHaveCount(2);
     await expect(requests).toContainText(`by ${OWNER_NAME}`);
     await expect(page.locator('li[data-finding]', { hasText: plugTitle }).getByText('Approved', { exact: true })).toBeVisible();
     await expect(page.locator('li[data-finding]', { hasText: springTitle }).getByText('Declined', { exact: true })).toBeVisible();

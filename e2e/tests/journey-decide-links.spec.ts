@@ -38,7 +38,8 @@ async function inventedPhoto(browser: Browser): Promise<Buffer> {
 
 test('the owner’s link follows what the manager does: revoked, re-sent, decided @approval', async ({ browser, baseURL, request }, testInfo) => {
   test.skip(testInfo.project.name !== 'desktop', 'Changes demo data: runs once, with its own phone and desktop windows.');
-  test.setTimeout(300_000);
+  // Two requests, three links and their e-mails: room for a busy machine.
+  test.setTimeout(540_000);
   const stamp = Date.now().toString(36);
   const springTitle = `Exhaust spring cracked ${stamp}`;
   const bootTitle = `Carburettor boot perished ${stamp}`;
@@ -186,6 +187,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
   });
 
   let second = '';
+  let firstOfSecond = '';
   await test.step('the manager sends a new request and re-sends it: the older link says a newer one was sent, the new one from the e-mail works', async () => {
     // A revoked request stays finished (it cannot be re-sent): the manager sends a new request for the same findings.
     const refused = await manager.page.request.post(`/api/approval-requests/${requestId}/resend`, { headers: { 'X-CSRF-Token': await csrfOf(manager.page) } });
@@ -232,7 +234,6 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
   });
 
   let third = '';
-  let firstOfSecond = '';
   await test.step('re-sent again from the job screen, the owner decides on the newest link', async () => {
     const { page } = manager;
     await page.goto(`/jobs/${jobId}`);
