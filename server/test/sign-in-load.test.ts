@@ -102,7 +102,11 @@ describe('password checks off the request thread', () => {
     expect(read.status).toBe(200);
     const answers = await burst;
 
-    expect(took, `the same read took ${Math.round(tookQuiet)} ms before the burst`).toBeLessThan(1000);
+    // 1 s, as long as the machine answers the read in a quarter of that when quiet; a machine
+    // shared with other heavy work gets four times its own quiet time instead. Before the pool,
+    // 40 sign-ins made this read take 15 s.
+    const bound = Math.max(1000, 4 * tookQuiet);
+    expect(took, `the same read took ${Math.round(tookQuiet)} ms before the burst`).toBeLessThan(bound);
     expect(answers.every((a) => a.status === 401 || a.status === 503)).toBe(true);
     const busy = answers.filter((a) => a.status === 503);
     // A bounded queue: the pool does not hold 60 passwords, it turns the overflow away at once.

@@ -44,9 +44,11 @@ export class PasswordHasher {
   checked = 0;
 
   private readonly maxQueue: number;
+  private readonly threads: number;
 
   constructor(opts: PasswordPoolOptions) {
     this.maxQueue = opts.queue;
+    this.threads = opts.threads;
     this.pool = new Piscina({
       filename: new URL('./password-worker.mjs', import.meta.url).href,
       minThreads: 1,
@@ -76,9 +78,23 @@ export class PasswordHasher {
     return this.run<string>({ op: 'hash', password, cost: BCRYPT_COST });
   }
 
-  /** Turns a sign-in away at once, before any database work, when the queue is already full. */
-  assertRoom(): void {
-    if (this.pool.queueSize >= this.maxQueue) throw busy();
+  private admitted = 0;
+
+  /**
+   * Admits one sign-in before any of its database work, or turns it away at once (503) when as
+   * many are already under way as the threads and the queue hold. Counting from the start, not
+   * from the pool's queue, keeps a burst's overflow from queueing for database connections too.
+   * Call the returned function when the sign-in is over.
+   */
+  admit(): () => void {
+    if (this.admitted >= this.threads + this.maxQueue) throw busy();
+    this.admitted += 1;
+    let done = false;
+    return () => {
+      if (done) return;
+      done = true;
+      this.admitted -= 1;
+    };
   }
 
   /** Passwords waiting for a thread right now. */

@@ -55,24 +55,28 @@ const wrongPassword = () => unauthenticated('The e-mail or password is not right
  * account cost the same comparison and get the same answer as a wrong password.
  */
 export async function signIn(deps: Deps, guards: AuthGuards, input: SignInInput): Promise<IssuedSession> {
-  guards.passwords.assertRoom();
-  const key = accountKey(input.email);
-  const wait = await guards.limits.signInAccount.reserve(key);
-  if (wait !== null) {
-    throw new AppError('too_many_requests', 429, `Too many failed sign-ins for this account. Wait ${THROTTLE_WINDOW_MINUTES} minutes, or reset your password.`, undefined, wait);
-  }
-  const user = await User.findOne({ where: { email: input.email }, include: [{ model: Workshop, as: 'workshop', required: true }] });
-  let matches: boolean;
+  const release = guards.passwords.admit();
   try {
-    matches = await guards.passwords.check(input.password, user?.passwordHash);
-  } catch (err) {
-    // Turned away before any check (the pool was full): this attempt does not count.
-    await guards.limits.signInAccount.refund(key);
-    throw err;
+    const key = accountKey(input.email);
+    const wait = await guards.limits.signInAccount.reserve(key);
+    if (wait !== null) {
+      throw new AppError('too_many_requests', 429, `Too many failed sign-ins for this account. Wait ${THROTTLE_WINDOW_MINUTES} minutes, or reset your password.`, undefined, wait);
+    }
+    const user = await User.findOne({ where: { email: input.email }, include: [{ model: Workshop, as: 'workshop', required: true }] });
+    let matches: boolean;
+    try {
+      matches = await guards.passwords.check(input.password, user?.passwordHash);
+    } catch (err) {
+      // Turned away before any check (the pool was full): this attempt does not count.
+      await guards.limits.signInAccount.refund(key);
+      throw err;
+    }
+    if (!user || !matches || !user.active) throw wrongPassword();
+    await guards.limits.signInAccount.reset(key);
+    return sessionFor(deps, user, (user as User & { workshop: Workshop }).workshop);
+  } finally {
+    release();
   }
-  if (!user || !matches || !user.active) throw wrongPassword();
-  await guards.limits.signInAccount.reset(key);
-  return sessionFor(deps, user, (user as User & { workshop: Workshop }).workshop);
 }
 
 export async function signOut(userId: string, sid: string, expiresAt: Date): Promise<void> {
