@@ -68,7 +68,7 @@ test('an out-of-limit plug gap becomes a finding the manager prices @approval', 
     await form.getByLabel('Where on the aircraft').fill('Engine, cylinder 1 lower plug');
     // Each category choice carries its word, its icon and its meaning.
     const recommended = form.locator('label[data-category="recommended"]');
-    await expect(recommended).toContainText('Should be rectified now');
+    await expect(recommended).toContainText('Not an airworthiness item');
     await expect(recommended.locator('svg')).toHaveCount(1);
     await recommended.click();
     await form.getByLabel('What should be done').fill('Fit a new set of plugs gapped to the manufacturer’s figure.');
