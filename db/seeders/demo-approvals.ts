@@ -94,8 +94,8 @@ export async function seedApprovals(w: Workshop, jobs: SeededJob[], staff: Map<s
     const { r, findings } = await make(salt, ['approved', 'declined'], sentAt, 'Two findings from the wing strip inspection.');
     const decidedAt = new Date(sentAt.getTime() + day / 3);
     for (const f of findings) {
-      await w.sequelize.query(`INSERT INTO approval_decisions (job_id, request_id, item_id, finding_id, decision, note) VALUES ($1, $2, $3, $3, $4, $5)`, {
-        bind: [r.jobId, r.id, f.id, f.state === 'approved' ? 'approve' : 'decline', f.state === 'declined' ? 'The group will source a fitting from the type club first.' : ''],
+      await w.sequelize.query(`INSERT INTO approval_decisions (job_id, request_id, item_id, finding_id, decision, note) VALUES ($1, $2, $3, $6, $4, $5)`, {
+        bind: [r.jobId, r.id, f.id, f.state === 'approved' ? 'approve' : 'decline', f.state === 'declined' ? 'The group will source a fitting from the type club first.' : '', f.id],
         transaction: t,
       });
     }

@@ -255,7 +255,7 @@ describe('DecisionPage', () => {
     expect(opening[0]!.textContent).toContain('Opening-up work shared by F-1 and F-2');
     expect(opening[0]!.textContent).toContain('£18.00 incl. VAT');
     // 60.00 + 18.00 = 78.00; 600.00 + 78.00 = 678.00.
-    expect(within(receipt).getByText('£78.00', { selector: '[data-total="approving-now"]' })).toBeTruthy();
+    expect(within(receipt).getByTestId('choice-rows-total').textContent).toBe('You approved, incl. VAT£78.00');
     expect(within(receipt).getByText('£678.00', { selector: '[data-total="new-total"]' })).toBeTruthy();
   });
 });

@@ -270,6 +270,7 @@ function Deciding({
 function stepLabel(items: PageItem[], index: number): string {
   const item = items[index]!;
   const hasQuote = items[0]?.kind === 'quote';
+  if (hasQuote && items.length === 1) return item.kind === 'quote' && item.quote.changeOf === 'change' ? 'Changes to the quote' : 'The quote';
   if (!hasQuote) return `Finding ${index + 1} of ${items.length}`;
   return `${index + 1} of ${items.length} · ${item.kind === 'quote' ? (item.quote.changeOf === 'change' ? 'Changes to the quote' : 'The quote') : `Finding ${item.label}`}`;
 }
@@ -695,7 +696,7 @@ function ChoiceRows({
         ))}
       </ul>
       <p className="flex justify-between gap-2 border-t border-seam pt-2 font-semibold tabular-nums" data-testid="choice-rows-total">
-        <span>You are approving, incl. VAT</span>
+        <span>{attr === 'data-receipt' ? 'You approved, incl. VAT' : 'You are approving, incl. VAT'}</span>
         <span>{formatMoney(priced.approvingNow.gross, s.currency)}</span>
       </p>
     </>
@@ -753,10 +754,6 @@ function Receipt({ page, discarded }: { page: DecisionPageDto; discarded: DraftD
         <dt>Agreed before</dt>
         <dd className="text-right" data-total="agreed-so-far">
           {formatMoney(t.agreedSoFar.gross, s.currency)}
-        </dd>
-        <dt>You approved in this request</dt>
-        <dd className="text-right" data-total="approving-now">
-          {formatMoney(t.approvingNow.gross, s.currency)}
         </dd>
         <dt className="font-bold">New total, incl. VAT</dt>
         <dd className="text-right font-bold" data-total="new-total">
