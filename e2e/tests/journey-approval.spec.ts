@@ -281,7 +281,7 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await expect(page.getByRole('heading', { level: 2, name: new RegExp(springTitle) })).toBeVisible();
     await page.getByRole('radio', { name: /Decline/ }).check();
     await expect(page.getByText('cannot be released to fly while it is open')).toBeVisible();
-    await expect(page.getByText('The inspector decides')).toBeVisible();
+    await expect(page.getByText('The inspector decides what the aircraft needs')).toBeVisible();
     await page.getByLabel('A note for the workshop (optional)').fill('We will get the spring from the group stores. Please ring me.');
     await expect(bar).toBeInViewport();
     await shot(page, testInfo, '06-owner-declined-airworthiness-375', false);

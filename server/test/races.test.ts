@@ -67,7 +67,7 @@ async function sentFinding(): Promise<Sent> {
 const approveAll = (s: Sent) =>
   request(server.app)
     .post(`/api/decide/${s.token}`)
-    .send({ snapshotHash: s.page.snapshotHash, typedName: 'Owner One', decisions: [{ findingId: s.findingId, decision: 'approve', note: '' }] });
+    .send({ snapshotHash: s.page.snapshotHash, typedName: 'Owner One', decisions: [{ itemId: s.findingId, decision: 'approve', note: '' }] });
 
 /** Deadlocks PostgreSQL has detected in this test run's database so far (its statistics lag by up to a second). */
 async function deadlocks(): Promise<number> {

@@ -108,7 +108,7 @@ describe('demo seed', () => {
     const page = await request(server.app).get(`/api/decide/${token}`);
     expect(page.status).toBe(200);
     expect(page.body.snapshot.registration).toBe('Q-BRKE');
-    expect(page.body.snapshot.totals.thisRequest.gross).toBe(requests[0]!.gross);
+    expect(page.body.snapshot.totals.approvingNow.gross).toBe(requests[0]!.gross);
     // Each finding in the waiting request has its one demo photo, named in the snapshot and served through the link.
     const snapPhotos = (page.body.snapshot.findings as { photos: { id: string; width: number; height: number }[] }[]).map((f) => f.photos);
     expect(snapPhotos.map((p) => p.length)).toEqual([1, 1, 1]);

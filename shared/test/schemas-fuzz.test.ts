@@ -78,16 +78,16 @@ describe('shared schemas under fuzzing', () => {
   it('when a non-numeric hours or discount arrives, then it is refused as a format error, not thrown', () => {
     const time = shared.timeLogCreateSchema.safeParse({ hours: 'abc', workedOn: '2026-12-01' });
     expect(time.success).toBe(false);
-    expect(time.error!.issues.map((i) => i.message)).toEqual(['Hours must be a number with at most 2 decimals.']);
+    expect(time.error!.issues.map((i) => i.message)).toEqual(['Hours must be a number, e.g. 2.5.']);
     const line = shared.estimateLineSchema.safeParse({ id: '0b6f3c1e-2d4a-4f5b-9c8d-7e6f5a4b3c2d', stage: 'inspection', kind: 'fee', description: 'Fee', amount: '10', discountPercent: 'lots' });
     expect(line.success).toBe(false);
-    expect(line.error!.issues.map((i) => i.message)).toEqual(['Discount must be a number with at most 2 decimals.']);
+    expect(line.error!.issues.map((i) => i.message)).toEqual(['Discount must be a number, e.g. 2.5.']);
   });
 
   it('when text carries a NUL, an escape character or half an emoji, then it is refused in plain words; tabs and new lines pass', () => {
     const withNul = shared.jobUpdateSchema.safeParse({ version: 0, notes: 'Hangar\u0000 3' });
     expect(withNul.error!.issues[0]!.message).toBe('Notes: remove the invisible control character (it often comes with pasted text).');
-    const half = shared.decisionSubmitSchema.safeParse({ snapshotHash: 'a'.repeat(64), decisions: [{ findingId: '0b6f3c1e-2d4a-4f5b-9c8d-7e6f5a4b3c2d', decision: 'approve' }], typedName: 'Ann \ud83d' });
+    const half = shared.decisionSubmitSchema.safeParse({ snapshotHash: 'a'.repeat(64), decisions: [{ itemId: '0b6f3c1e-2d4a-4f5b-9c8d-7e6f5a4b3c2d', decision: 'approve' }], typedName: 'Ann \ud83d' });
     expect(half.error!.issues[0]!.message).toBe('Your name: a character is broken (half of an emoji or symbol); type it again.');
     const fine = shared.jobUpdateSchema.safeParse({ version: 0, notes: 'Line one\n\tLine two 🛩️' });
     expect(fine.success).toBe(true);

@@ -373,7 +373,7 @@ export async function agreeQuoteByPhone(
   afterAgree?: (job: JobRow, t: Transaction) => Promise<void>,
 ): Promise<EstimateDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const job = await findJob(scope, jobId, t, true);
     assertEstimateEditable(job);
     const est = await ensureEstimate(scope, job.id, t, true);

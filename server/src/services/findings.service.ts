@@ -379,7 +379,7 @@ async function findingNumber(scope: Scope, jobId: string, findingId: string | nu
 
 /** An engineer corrects their own entries; a manager or admin anyone's. Closed and cancelled jobs keep theirs. */
 async function loadOwnEntry(scope: Scope, jobId: string, timeId: string, version: number, t: Transaction): Promise<{ job: JobRow; log: TimeLog }> {
-  const job = await findJob(scope, jobId, t);
+  const job = await lockJob(scope, jobId, t);
   if (job.state === 'closed' || job.state === 'cancelled') throw conflict(`This job is ${job.state}; its time entries can no longer be changed.`);
   const log = await TimeLog.findOne({
     where: inWorkshop(scope, { jobId: job.id, id: timeId }),
@@ -397,7 +397,7 @@ async function loadOwnEntry(scope: Scope, jobId: string, timeId: string, version
 
 export async function updateTime(scope: Scope, jobId: string, timeId: string, input: TimeLogUpdate): Promise<TimeLogDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const { job, log } = await loadOwnEntry(scope, jobId, timeId, input.version, t);
     const before = { hours: log.hours, workedOn: log.workedOn, note: log.note, findingId: log.findingId };
     const after = {
@@ -428,7 +428,7 @@ export async function updateTime(scope: Scope, jobId: string, timeId: string, in
 
 export async function removeTime(scope: Scope, jobId: string, timeId: string, input: TimeLogRemove): Promise<void> {
   requireStaff(scope);
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     const { job, log } = await loadOwnEntry(scope, jobId, timeId, input.version, t);
     const was = { hours: log.hours, workedOn: log.workedOn, note: log.note, findingId: log.findingId, userName: log.user?.name ?? null };
     await log.destroy({ transaction: t });

@@ -24,6 +24,7 @@ import { linkOf, sameHash, sha256 } from './links.js';
 import { bySupersededHash, decisionsOf, insertDecision, jobOwner, markDecisionsSeen, moveRequest, OPEN_REQUEST } from './repository.js';
 import { checklistComplete, expireIfDue } from './requests.service.js';
 import { itemIdsOf, itemName } from './snapshot.js';
+import { inTransaction } from '../../db/transaction.js';
 
 type DecisionInput = z.output<typeof decisionSubmitSchema>;
 
@@ -101,7 +102,7 @@ function byToken(token: string, t?: Transaction, lock = false): Promise<Approval
 const unknownLink = () => new AppError('not_found', 404, 'This approval link is not valid. Use the link in the newest e-mail from the workshop.');
 
 export async function getDecisionPage(token: string): Promise<DecisionPageDto> {
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const r = await byToken(token, t, true);
     if (!r) {
       const old = await bySupersededHash(sha256(token), t);
@@ -124,7 +125,7 @@ async function staffToTell(workshopId: string, t: Transaction): Promise<{ name: 
 }
 
 export async function submitDecision(deps: Deps, token: string, input: DecisionInput, from: { ip: string; userAgent: string }): Promise<DecisionPageDto> {
-  const result = await boundSequelize().transaction(async (t) => {
+  const result = await inTransaction(async (t) => {
     const peek = await byToken(token, t);
     if (!peek) {
       const old = await bySupersededHash(sha256(token), t);
@@ -206,7 +207,7 @@ export async function submitDecision(deps: Deps, token: string, input: DecisionI
 /** Staff mark a job's owner decisions seen: the flag on the jobs list and the job page clears. */
 export async function markSeen(scope: Scope, jobId: string, getJob: (scope: Scope, id: string) => Promise<JobDto>): Promise<JobDto> {
   requireStaff(scope);
-  await boundSequelize().transaction(async (t) => {
+  await inTransaction(async (t) => {
     const job = await findJob(scope, jobId, t);
     await markDecisionsSeen(job.id, scope.userId, t);
   });

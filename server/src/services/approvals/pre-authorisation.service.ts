@@ -7,6 +7,7 @@ import { recordAudit } from '../audit.js';
 import { findJob } from '../job-access.js';
 import { loadWorkshop } from '../pricing.js';
 import { requireStaff, type Scope } from '../scope.js';
+import { inTransaction } from '../../db/transaction.js';
 
 type PreAuthInput = z.output<typeof preAuthorisationSchema>;
 
@@ -34,7 +35,7 @@ export async function getPreAuthorisation(scope: Scope, jobId: string): Promise<
 
 export async function putPreAuthorisation(scope: Scope, jobId: string, input: PreAuthInput): Promise<PreAuthorisationDto & { version: number }> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const job = await findJob(scope, jobId, t, true);
     if (job.version !== input.version) throw staleVersion();
     const w = await loadWorkshop(scope, t);

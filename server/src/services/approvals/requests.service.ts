@@ -35,6 +35,7 @@ import { usedSoFar } from './pre-authorisation.service.js';
 import { addRequestFindings, findingIdsOf, jobOwner, moveRequest, supersedeLink, OPEN_REQUEST } from './repository.js';
 import { buildSnapshot, findingNumber } from './snapshot.js';
 import { snapshotHashOf } from './links.js';
+import { inTransaction } from '../../db/transaction.js';
 
 type SendInput = z.output<typeof approvalRequestCreateSchema>;
 
@@ -144,7 +145,7 @@ async function moveJobToAwaiting(scope: Scope, job: JobRow, t: Transaction): Pro
 
 export async function sendForApproval(deps: Deps, scope: Scope, jobId: string, input: SendInput): Promise<SendForApprovalResultDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const job = await findJob(scope, jobId, t, true);
     assertEstimateEditable(job);
     const est = await ensureEstimate(scope, job.id, t, true);
@@ -236,7 +237,7 @@ async function lockRequest(scope: Scope, id: string, t: Transaction): Promise<{ 
 
 export async function revokeRequest(scope: Scope, id: string): Promise<ApprovalRequestDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const { r, job } = await lockRequest(scope, id, t);
     const ids = (await findingIdsOf([r.id], t)).get(r.id) ?? [];
     await moveRequest(r, 'revoked', t, { revokedAt: new Date() });
@@ -258,7 +259,7 @@ export async function revokeRequest(scope: Scope, id: string): Promise<ApprovalR
  */
 export async function resendRequest(deps: Deps, scope: Scope, id: string): Promise<ApprovalRequestDto> {
   requireStaff(scope);
-  return boundSequelize().transaction(async (t) => {
+  return inTransaction(async (t) => {
     const { r, job } = await lockRequest(scope, id, t);
     await expireIfDue(r, new Date(), t);
     assertRequestResendable(r.state);

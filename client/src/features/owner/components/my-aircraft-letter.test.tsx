@@ -1,4 +1,4 @@
-import type { AircraftDto, ApprovalRequestDto, EstimateDto, FindingDto, JobDto, Totals } from '@wingstage/shared';
+import { QUOTE_STATES, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto, type Totals } from '@wingstage/shared';
 import { fireEvent, render, screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { MyAircraftLetter } from './my-aircraft-letter';
@@ -208,13 +208,19 @@ describe('MyAircraftLetter', () => {
     const findingStates: FindingDto['state'][] = ['draft', 'priced', 'sent', 'approved', 'approved_within_limit', 'declined', 'withdrawn'];
     const requestStates: ApprovalRequestDto['state'][] = ['sent', 'decided', 'expired', 'revoked', 'replaced'];
     const t = (gross: string): Totals => ({ net: gross, vat: '0.00', gross, byRate: [] });
-    const estimate = { currency: 'GBP', priced: { quoted: t('556.13'), committed: t('600.00'), undecided: { ...t('113.57'), findings: 2 } } } as unknown as EstimateDto;
+    // Every quote state too, so the quote's own words are read in each.
+    const estimateFor = (i: number) =>
+      ({
+        currency: 'GBP',
+        priced: { quoted: t('556.13'), committed: t('600.00'), undecided: { ...t('113.57'), findings: 2 } },
+        quote: { state: QUOTE_STATES[i % QUOTE_STATES.length]!, awaitingGross: i % 2 ? '56.13' : '0.00', agreedBy: null, agreedAt: null, agreedHow: null, openRequestId: null },
+      }) as unknown as EstimateDto;
     const jobs = states.map((s, i) => job(`j${i}`, 'a1', `Job ${i}`, s));
     const money = Object.fromEntries(
       jobs.map((j, i) => [
         j.id,
         {
-          estimate,
+          estimate: estimateFor(i),
           findings: findingStates.map((fs, k) => ({ id: `f${i}-${k}`, jobId: j.id, number: `F-${k + 1}`, title: `Finding ${k}`, category: 'advisory', state: fs, photos: [] }) as unknown as FindingDto),
           requests: [{ id: `r${i}`, jobId: j.id, state: requestStates[i % requestStates.length]!, findingIds: ['x'], sentAt: '2026-12-01T10:00:00Z', expiresAt: '2026-12-08T10:00:00Z', gross: '10.00' } as ApprovalRequestDto],
         },
