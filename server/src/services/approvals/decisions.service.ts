@@ -12,7 +12,7 @@ import {
 } from '@wingstage/shared';
 import { AppError, conflict } from '../../errors/app-error.js';
 import { approvalReceiptMail, decisionToStaffMail } from '../../mail/approval-mails.js';
-import { ApprovalRequest, AuditEvent, Job, User, boundSequelize } from '../../models/index.js';
+import { ApprovalRequest, AuditEvent, Job, User } from '../../models/index.js';
 import type { Deps } from '../deps.js';
 import { agreeQuoteLines, moveFindingLines, unagreedQuoteLines } from '../estimates.service.js';
 import { moveFindings } from '../findings.repository.js';
