@@ -1,7 +1,7 @@
 import { createHash, randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ApprovalRequestDto, DecisionPageDto, EstimateDto, EstimateLineInputForm, SendForApprovalResultDto } from '@wingstage/shared';
+import { STAFF_ONLY_WORDS, type ApprovalRequestDto, type DecisionPageDto, type EstimateDto, type EstimateLineInputForm, type SendForApprovalResultDto } from '@wingstage/shared';
 import { createApp } from '../src/app.js';
 import { MailQueue } from '../src/mail/mail-queue.js';
 import { ApprovalRequest, AuditEvent, Finding, Job } from '../src/models/index.js';
@@ -199,6 +199,7 @@ describe("the owner's decision", () => {
     expect(receipt.text).toMatch(/Agreed so far on this job: £[\d,]+\.\d{2} incl\. VAT\./);
     expect(receipt.text).toContain(`To change a decision, contact ${a.workshop.name}: 01632 960777, desk@approvals.example.`);
     expect(page.snapshot).toMatchObject({ workshopPhone: '01632 960777', workshopEmail: 'desk@approvals.example' });
+    for (const word of STAFF_ONLY_WORDS) expect(receipt.text, word).not.toContain(word);
     const history = (await manager.get(`/api/jobs/${p.job.id}/history`)).body as { action: string; summary: string }[];
     expect(history.map((h) => h.action)).toEqual(expect.arrayContaining(['approval.sent', 'approval.decided', 'job.state_changed']));
     // A declined airworthiness finding stays open: the release guard refuses.

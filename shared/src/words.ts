@@ -27,3 +27,21 @@ export function workshopContactWords(w: { workshopName: string; workshopPhone?: 
   const ways = [w.workshopPhone, w.workshopEmail].map((x) => x?.trim() ?? '').filter((x) => x.length > 0);
   return ways.length ? `${w.workshopName}: ${ways.join(', ')}` : w.workshopName;
 }
+
+/** Words that belong to the workshop's side of a job; the owner's pages and e-mails must not show them. */
+export const STAFF_ONLY_WORDS = [
+  'Sent to owner',
+  'Priced',
+  'Awaiting owner',
+  'Approved within limit',
+  'Approved under standing go-ahead',
+  'Hold for owner',
+  'Draft',
+  'Inspecting',
+  'In work',
+  'Ready for release',
+  'Approved so far',
+  'Undecided',
+  "Waiting for the owner's decision",
+  'Link revoked',
+] as const;

@@ -1,8 +1,7 @@
-import { priceChoice, QUOTE_ITEM_ID, type ApprovalSnapshot, type ChoiceBasis, type ChoiceLine, type DecisionPageDto, type VatRounding } from '@wingstage/shared';
+import { priceChoice, QUOTE_ITEM_ID, STAFF_ONLY_WORDS, type ApprovalSnapshot, type ChoiceBasis, type ChoiceLine, type DecisionPageDto, type VatRounding } from '@wingstage/shared';
 import { act, fireEvent, render, screen, within } from '@testing-library/react';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { ApiError } from '@/lib/api-client';
-import { STAFF_ONLY_WORDS } from '@/features/owner/words';
 import { DecisionPage, UnknownLink } from './decision-page';
 
 const PLUG = '2f0e7a1c-3b4d-4e5f-8a6b-7c8d9e0f1a2b';
