@@ -208,7 +208,12 @@ describe('MyAircraftLetter', () => {
     const findingStates: FindingDto['state'][] = ['draft', 'priced', 'sent', 'approved', 'approved_within_limit', 'declined', 'withdrawn'];
     const requestStates: ApprovalRequestDto['state'][] = ['sent', 'decided', 'expired', 'revoked', 'replaced'];
     const t = (gross: string): Totals => ({ net: gross, vat: '0.00', gross, byRate: [] });
-    const estimate = { currency: 'GBP', priced: { quoted: t('556.13'), committed: t('600.00'), undecided: { ...t('113.57'), findings: 2 } } } as unknown as EstimateDto;
+    const estimate = {
+      currency: 'GBP',
+      priced: { quoted: t('556.13'), committed: t('600.00'), undecided: { ...t('113.57'), findings: 2 } },
+      // The letter reads the quote's state since the quote became an approval item.
+      quote: { state: 'sent', awaitingGross: '446.40', agreedBy: null, agreedAt: null, agreedHow: null, openRequestId: 'r1' },
+    } as unknown as EstimateDto;
     const jobs = states.map((s, i) => job(`j${i}`, 'a1', `Job ${i}`, s));
     const money = Object.fromEntries(
       jobs.map((j, i) => [
