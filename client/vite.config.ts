@@ -45,13 +45,20 @@ export default defineConfig({
         codeSplitting: {
           groups: [
             { name: 'react', test: /[\\/]node_modules[\\/](react|react-dom|scheduler|@tanstack[\\/](react-query|query-core))[\\/]/, priority: 2 },
-            { name: 'common', test: /[\\/]shared[\\/]src[\\/]|[\\/]node_modules[\\/](decimal\.js|zod)[\\/]/, priority: 1 },
+            // decimal.js only: the decision page needs it for its prices. Shared's modules and zod are
+            // left to the bundler, so a page loads only the modules it reaches (a group would put every
+            // schema the app's forms use into a file the decision page loads too).
+            { name: 'common', test: /[\\/]node_modules[\\/]decimal\.js[\\/]/, priority: 1 },
           ],
         },
       },
       treeshake: {
         // The shared workspace only declares values (schemas, helpers); a page keeps just the ones it uses.
         moduleSideEffects: (id) => (/[\\/]shared[\\/]src[\\/]/.test(id) ? false : undefined),
+        // Building a schema (z.object(…), z.string().min(…), …) has no effect beyond its value, so a
+        // module keeps only the schemas some page uses. (shared's message setup is zod's `config(…)`,
+        // not `z.…`, so it is never dropped.)
+        manualPureFunctions: ['z'],
       },
     },
   },

@@ -98,7 +98,7 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await owner.getByRole('radio', { name: /^Accept/ }).check();
     const bar = owner.getByTestId('running-total');
     await expect(bar.locator('[data-total="approving-now"]')).toHaveText(price.replace(' incl. VAT', ''));
-    await owner.getByRole('button', { name: 'Review your choices' }).click();
+    await owner.getByRole('button', { name: 'Check your choices' }).click();
     await owner.getByLabel('Type your full name to confirm').fill(OWNER_NAME);
     await shot(owner, testInfo, '00d-owner-quote-review-375', false);
     await owner.getByRole('button', { name: 'Confirm decisions' }).click();
@@ -280,13 +280,13 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     await page.getByRole('button', { name: 'Next finding →' }).click();
     await expect(page.getByRole('heading', { level: 2, name: new RegExp(springTitle) })).toBeVisible();
     await page.getByRole('radio', { name: /Decline/ }).check();
-    await expect(page.getByText('cannot be released to fly while it is open')).toBeVisible();
-    await expect(page.getByText('The inspector decides what the aircraft needs')).toBeVisible();
+    await expect(page.getByText('This is an airworthiness item')).toBeVisible();
+    await expect(page.getByText(/we will not mark Q-\w+ ready for release in Wingstage\. Whether the aircraft may fly is the inspector's decision under the authority's rules/)).toBeVisible();
     await page.getByLabel('A note for the workshop (optional)').fill('We will get the spring from the group stores. Please ring me.');
     await expect(bar).toBeInViewport();
     await shot(page, testInfo, '06-owner-declined-airworthiness-375', false);
 
-    await page.getByRole('button', { name: 'Review your choices' }).click();
+    await page.getByRole('button', { name: 'Check your choices' }).click();
     await expect(page.getByRole('heading', { name: 'Check your choices' })).toBeVisible();
     await expect(page.locator('[data-decision="approve"]')).toHaveCount(1);
     await expect(page.locator('[data-decision="decline"]')).toHaveCount(1);

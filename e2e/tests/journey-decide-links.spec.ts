@@ -149,7 +149,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await phone.getByRole('radio', { name: /^Decline/ }).check();
     // F-2 alone now carries the cowling: 62.00 + 18.40 + 93.00 = 173.40 net, 208.08.
     await expect(total('approving-now')).toHaveText('£208.08');
-    await expect(phone.getByText('cannot be released to fly while it is open')).toBeVisible();
+    await expect(phone.getByText(/While it is open, we will not mark Q-\w+ ready for release in Wingstage/)).toBeVisible();
     await shot(phone, testInfo, '03-owner-declined-airworthiness-part-way-375', false);
     await shot(phone, testInfo, '03b-owner-declined-airworthiness-part-way-375-full', true);
     // The same letter on a desktop screen.
@@ -176,9 +176,10 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
 
     await phone.reload();
     const closed = phone.getByTestId('decision-closed');
-    await expect(closed.getByText('The workshop withdrew this link', { exact: true })).toBeVisible();
-    await expect(closed.getByText(/The workshop withdrew this link on \d+ \w+\. Contact the workshop/)).toBeVisible();
-    await expect(closed.locator('[data-request-state="revoked"]')).toHaveText('Link revoked');
+    await expect(closed.getByText('The workshop revoked this link', { exact: true })).toBeVisible();
+    // The workshop's phone and e-mail, from its settings (the demo's).
+    await expect(closed.getByText(/The workshop revoked this link on \d+ \w+\. If you expected to decide here, contact .+: 01632 960418, office@brackenfold\.example\./)).toBeVisible();
+    await expect(closed.locator('[data-request-state="revoked"]')).toHaveText('Revoked by the workshop');
     await expect(phone.getByRole('radio')).toHaveCount(0);
     await expect(phone.getByTestId('running-total')).toHaveCount(0);
     // The choices the owner had not confirmed on this phone are cleared, and the page says so.
@@ -223,7 +224,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await wide.close();
     // A link never issued still opens nothing.
     await phone.goto(`/decide/${'Q'.repeat(43)}`);
-    await expect(phone.getByRole('heading', { level: 1, name: 'This link no longer opens a request' })).toBeVisible();
+    await expect(phone.getByRole('heading', { level: 1, name: 'This link does not open a request' })).toBeVisible();
     await phone.goto(second);
     await expect(phone.getByText('Finding 1 of 2')).toBeVisible();
     await expect(phone.getByRole('radio', { name: /^Approve/ })).not.toBeChecked();
@@ -253,7 +254,7 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     await phone.getByRole('button', { name: 'Next finding →' }).click();
     await phone.getByRole('radio', { name: /^Approve/ }).check();
     await expect(total('new-total')).toHaveText('£319.68'); // 74.40 agreed by phone + 245.28
-    await phone.getByRole('button', { name: 'Review your choices' }).click();
+    await phone.getByRole('button', { name: 'Check your choices' }).click();
     // Each finding without the cowling (74.40 + 96.48) and the cowling once (111.60, 93.00 net) = 245.28.
     await expect(phone.locator('[data-opening-up]')).toHaveCount(1);
     await expect(phone.locator('[data-opening-up]')).toContainText('Opening-up work shared by F-1 and F-2');

@@ -65,8 +65,11 @@ describe('a link superseded by re-sending the request', () => {
     expect(page).toMatchObject({ state: 'sent', decisions: null, decidedByName: null, decidedAt: null });
     expect(page.closedReason).toBe(`A newer link was sent to you on ${day(sentAt)}: use the link in the newest e-mail.`);
     expect(page.snapshot.findings[0]!.photos).toEqual([]);
-    // The newest link is the live one, photos included.
+    // The newest link is the live one, photos included, and it shows the re-send's expiry, not the first send's.
     const live = (await anon().get(`/api/decide/${second}`)).body as DecisionPageDto;
+    const row = await ApprovalRequest.findByPk(requestId);
+    expect(live.expiresAt).toBe(row!.expiresAt.toISOString());
+    expect(new Date(live.expiresAt).getTime()).toBeGreaterThan(new Date(live.snapshot.expiresAt).getTime());
     expect(live).toMatchObject({ state: 'sent', closedReason: null, newerLinkSentAt: null });
     expect(live.snapshot.findings[0]!.photos.map((p) => p.id)).toEqual([photo.id]);
     expect((await anon().get(decidePhotoUrl(second, photo.id, 'thumb'))).status).toBe(200);
@@ -122,13 +125,13 @@ describe('a link superseded by re-sending the request', () => {
     expect(((await anon().get(`/api/decide/${third}`)).body as DecisionPageDto).newerLinkSentAt).toBeNull();
   });
 
-  it('when the request is revoked after a re-send, then an older link says the workshop withdrew it', async () => {
+  it('when the request is revoked after a re-send, then an older link says the workshop revoked it', async () => {
     const { requestId, first } = await sentRequest();
     await resend(requestId);
     expect((await manager.post(`/api/approval-requests/${requestId}/revoke`)).status).toBe(200);
     const page = (await anon().get(`/api/decide/${first}`)).body as DecisionPageDto;
     expect(page.state).toBe('revoked');
-    expect(page.closedReason).toMatch(/the workshop has since withdrawn the request/);
+    expect(page.closedReason).toMatch(/the workshop has since revoked the request/);
   });
 
   it('when re-sent, then only the SHA-256 of the older token is kept, never the token', async () => {

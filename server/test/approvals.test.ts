@@ -1,7 +1,7 @@
 import { createHash, randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ApprovalRequestDto, DecisionPageDto, EstimateDto, EstimateLineInputForm, SendForApprovalResultDto } from '@wingstage/shared';
+import { STAFF_ONLY_WORDS, type ApprovalRequestDto, type DecisionPageDto, type EstimateDto, type EstimateLineInputForm, type SendForApprovalResultDto } from '@wingstage/shared';
 import { createApp } from '../src/app.js';
 import { MailQueue } from '../src/mail/mail-queue.js';
 import { ApprovalRequest, AuditEvent, Finding, Job } from '../src/models/index.js';
@@ -21,6 +21,8 @@ let bManager: Client;
 beforeAll(async () => {
   server = await startTestServer();
   [a, b] = await Promise.all([makeWorkshop('Approvals'), makeWorkshop('Elsewhere')]);
+  // Workshop a gives its phone and e-mail (settings contactPhone/contactEmail); b gives neither.
+  await a.workshop.update({ settings: { ...a.workshop.settings, contactPhone: '01632 960777', contactEmail: 'desk@approvals.example' } });
   [manager, engineer, owner, otherOwner, bManager] = await Promise.all([
     signIn(server.app, a.users.manager.email),
     signIn(server.app, a.users.engineer.email),
@@ -191,7 +193,13 @@ describe("the owner's decision", () => {
     expect(stored).toMatchObject({ state: 'decided', decidedByName: 'Owner One', decidedUserAgent: 'phone-test' });
     expect(stored!.decidedIp).toBeTruthy();
     const receipt = await waitForMail(p.ownerEmail, (m) => m.subject.includes('your decisions are recorded') && m.text.includes(`${p.findings.length ? 'F-2' : ''}`) && m.text.includes(token));
-    expect(receipt.text).toMatch(/cannot be released while it stays open; the inspector decides/);
+    expect(receipt.text).toContain("While it is open, the workshop will not mark the aircraft ready for release. Whether it may fly is the inspector's decision under the authority's rules.");
+    expect(receipt.text).not.toMatch(/cannot be released|fit to fly/);
+    // The total agreed after the decision (one name: "Agreed so far"), and how to reach the workshop.
+    expect(receipt.text).toMatch(/Agreed so far on this job: £[\d,]+\.\d{2} incl\. VAT\./);
+    expect(receipt.text).toContain(`To change a decision, contact ${a.workshop.name}: 01632 960777, desk@approvals.example.`);
+    expect(page.snapshot).toMatchObject({ workshopPhone: '01632 960777', workshopEmail: 'desk@approvals.example' });
+    for (const word of STAFF_ONLY_WORDS) expect(receipt.text, word).not.toContain(word);
     const history = (await manager.get(`/api/jobs/${p.job.id}/history`)).body as { action: string; summary: string }[];
     expect(history.map((h) => h.action)).toEqual(expect.arrayContaining(['approval.sent', 'approval.decided', 'job.state_changed']));
     // A declined airworthiness finding stays open: the release guard refuses.
@@ -247,7 +255,8 @@ describe("the owner's decision", () => {
     expect((await Finding.findByPk(p.findings[0]!.id))!.state).toBe('priced');
     const refused = await anon().post(`/api/decide/${token}`).send(allDecisions(page, () => 'approve'));
     expect(refused.status).toBe(409);
-    expect(refused.body.error.message).toMatch(/withdrew this link/);
+    expect(refused.body.error.message).toMatch(/revoked this link/);
+    expect(refused.body.error.message).toContain(`contact ${a.workshop.name}: 01632 960777, desk@approvals.example.`);
 
     const before = await ApprovalRequest.findByPk(r.id);
     const resent = await manager.post(`/api/approval-requests/${r.id}/resend`);
@@ -368,8 +377,16 @@ describe('pre-authorised limit', () => {
     expect(f.map((x) => x.state)).toEqual(['approved_within_limit', 'sent']);
     const after = (await manager.get(`/api/jobs/${p.job.id}/estimate`)).body as EstimateDto;
     expect(after.lines.filter((l) => l.findingId === p.findings[0]!.id).map((l) => l.stage)).toEqual(['approved']);
-    const report = await waitForMail(p.ownerEmail, (m) => m.subject.includes('approved within your limit') && m.text.includes('£150.00 incl. VAT') && m.text.includes('£250.00'));
+    const report = await waitForMail(p.ownerEmail, (m) => m.subject.includes('approved under your standing go-ahead') && m.text.includes('£150.00 incl. VAT') && m.text.includes('£250.00'));
     expect(report.text).toContain('F-1 Worn part 1');
+    expect(report.text).toContain('under the standing go-ahead you gave them:');
+    expect(report.text).toContain('Left of your standing go-ahead on this job: £250.00 incl. VAT.');
+    expect(report.text).not.toMatch(/limit/);
+    // The owner is sent to their own page, never a staff-only one.
+    expect(report.text).toMatch(/See your aircraft: http\S*\/my-aircraft\n/);
+    expect(report.text).not.toContain('/jobs/');
+    const history = (await manager.get(`/api/jobs/${p.job.id}/history`)).body as { action: string; summary: string }[];
+    expect(history.find((h) => h.action === 'finding.approved_within_limit')!.summary).toBe("Approved under the owner's standing go-ahead: F-1 £150.00 incl. VAT");
     const pa = await owner.get(`/api/jobs/${p.job.id}/pre-authorisation`);
     expect(pa.body).toMatchObject({ usedSoFar: '150.00', headroom: '250.00' });
   });
@@ -408,8 +425,11 @@ describe('reminders and expiry', () => {
     await chaseUndecided(deps(), h(97));
     expect((await ApprovalRequest.findByPk(r.id))!.lastRemindedAt?.getTime()).toBe(h(97).getTime());
     expect(early.expired).toBeGreaterThanOrEqual(0);
-    const reminders = await waitForMail(p.ownerEmail, (m) => m.subject.startsWith('Reminder:'));
+    // The owner's mailbox also holds other tests' reminders: this one's request is one finding at £19.20.
+    const reminders = await waitForMail(p.ownerEmail, (m) => m.subject.startsWith('Reminder:') && m.text.includes('(£19.20 incl. VAT in all)'));
     expect(reminders.text).toContain('/decide/');
+    expect(reminders.subject).toBe(`Reminder: your decision is needed on ${a.owners[0].aircraft.registration}`);
+    expect(reminders.text).toMatch(/: 1 finding on \S+ \(.*\) \(£19\.20 incl\. VAT in all\) is still waiting for your decision\./);
     expect(await AuditEvent.count({ where: { jobId: p.job.id, action: 'approval.reminded' } })).toBe(2);
     await chaseUndecided(deps(), h(15 * 24));
     expect((await ApprovalRequest.findByPk(r.id))!.state).toBe('expired');

@@ -168,7 +168,7 @@ export const OWNER_APPROVAL_REQUEST_STATE_LABELS: Record<ApprovalRequestState, s
   sent: 'Waiting for your decision',
   decided: 'You decided',
   expired: 'Link expired',
-  revoked: 'Link revoked by the workshop',
+  revoked: 'Revoked by the workshop',
   replaced: 'A newer link was sent',
 };
 export const APPROVAL_REQUEST_TRANSITIONS: Record<ApprovalRequestState, readonly ApprovalRequestState[]> = {

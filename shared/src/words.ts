@@ -17,3 +17,31 @@ export const TOTAL_NAMES = {
   undecidedOwner: 'Waiting for your decision',
   ifAllApproved: 'If everything is approved',
 } as const;
+
+/**
+ * The workshop's name with the phone and e-mail the request carries, for every "contact the
+ * workshop" the owner reads: "Brackenfold …: 01632 960418, office@….example". Only the name when it
+ * carries neither (a request sent before they were carried).
+ */
+export function workshopContactWords(w: { workshopName: string; workshopPhone?: string; workshopEmail?: string }): string {
+  const ways = [w.workshopPhone, w.workshopEmail].map((x) => x?.trim() ?? '').filter((x) => x.length > 0);
+  return ways.length ? `${w.workshopName}: ${ways.join(', ')}` : w.workshopName;
+}
+
+/** Words that belong to the workshop's side of a job; the owner's pages and e-mails must not show them. */
+export const STAFF_ONLY_WORDS = [
+  'Sent to owner',
+  'Priced',
+  'Awaiting owner',
+  'Approved within limit',
+  'Approved under standing go-ahead',
+  'Hold for owner',
+  'Draft',
+  'Inspecting',
+  'In work',
+  'Ready for release',
+  'Approved so far',
+  'Undecided',
+  "Waiting for the owner's decision",
+  'Link revoked',
+] as const;

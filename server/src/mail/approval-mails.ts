@@ -1,4 +1,4 @@
-import { formatMoney, FINDING_CATEGORY_LABELS, QUOTE_ITEM_ID, priceChoice, type ApprovalSnapshot, type Decision, type PricedChoice } from '@wingstage/shared';
+import { formatMoney, FINDING_CATEGORY_LABELS, QUOTE_ITEM_ID, priceChoice, TOTAL_NAMES, workshopContactWords, type ApprovalSnapshot, type Decision, type PricedChoice } from '@wingstage/shared';
 import type { MailMessage } from './mail-queue.js';
 
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
@@ -7,7 +7,7 @@ const when = (d: Date) => d.toLocaleString('en-GB', { day: 'numeric', month: 'lo
 function build(to: string, subject: string, paragraphs: string[], link: { href: string; label: string } | null): MailMessage {
   const body = paragraphs.map((p) => `<p style="margin:0 0 14px">${esc(p)}</p>`).join('');
   const linkHtml = link
-    ? `<p style="margin:0 0 14px"><a href="${esc(link.href)}" style="color:#1b4d8f">${esc(link.label)}</a></p><p style="margin:0;color:#4a5565;font-size:14px">If the link does not open, copy this address into your browser:<br>${esc(link.href)}</p>`
+    ? `<p style="margin:0 0 14px"><a href="${esc(link.href)}" style="color:#1b4d8f">${esc(link.label)}</a></p><p style="margin:0;color:#4a5565;font-size:14px">If the link does not open, copy this address into your browser:</p><p style="margin:0;color:#4a5565;font-size:14px"><span style="word-break:break-all;overflow-wrap:anywhere">${esc(link.href)}</span></p>`
     : '';
   return {
     to,
@@ -18,6 +18,8 @@ function build(to: string, subject: string, paragraphs: string[], link: { href: 
 }
 
 const aircraftLine = (s: ApprovalSnapshot) => `${s.registration} (${s.jobTitle}, job ${s.jobNumber})`;
+const contactOf = (s: ApprovalSnapshot) => workshopContactWords(s);
+
 const count = (n: number) => `${n} ${n === 1 ? 'finding' : 'findings'}`;
 
 /** "the quote and 2 findings", "3 findings", "the changed quote". */
@@ -59,12 +61,13 @@ export function approvalRequestMail(p: { to: string; ownerName: string; snapshot
 
 export function approvalReminderMail(p: { to: string; ownerName: string; snapshot: ApprovalSnapshot; link: string; expiresAt: Date }): MailMessage {
   const s = p.snapshot;
+  const one = (s.quote ? 1 : 0) + s.findings.length === 1;
   const lines = [
     `Hello ${p.ownerName},`,
-    `A reminder from ${s.workshopName}: ${whatIsAsked(s)} on ${aircraftLine(s)} (${formatMoney(s.totals.approvingNow.gross, s.currency)} incl. VAT in all) still wait for your decision. The work cannot start until you decide.`,
+    `A reminder from ${s.workshopName}: ${whatIsAsked(s)} on ${aircraftLine(s)} (${formatMoney(s.totals.approvingNow.gross, s.currency)} incl. VAT in all) ${one ? 'is' : 'are'} still waiting for your decision. The work cannot start until you decide.`,
     `The link works until ${when(p.expiresAt)}.`,
   ];
-  return build(p.to, `Reminder: ${s.registration} waits for your decision`, lines, { href: p.link, label: 'See the details and decide' });
+  return build(p.to, `Reminder: your decision is needed on ${s.registration}`, lines, { href: p.link, label: 'See the details and decide' });
 }
 
 export interface DecidedItem {
@@ -80,7 +83,7 @@ function decisionLines(s: ApprovalSnapshot, decisions: DecidedItem[], figures: P
   return [
     ...decisions.map((d) => `${d.name}: ${d.decision === 'approve' ? `approved, ${formatMoney(d.gross, s.currency)} incl. VAT` : 'declined'}${d.note ? ` (${whose} note: ${d.note})` : ''}`),
     ...figures.openingUp.filter((o) => o.charged).map((o) => `Opening-up work, charged once: ${o.name}, ${formatMoney(o.gross, s.currency)} incl. VAT`),
-    `Approved now: ${formatMoney(figures.approvingNow.gross, s.currency)} incl. VAT. Agreed so far on this job: ${formatMoney(figures.newTotal.gross, s.currency)} incl. VAT.`,
+    `Approved now: ${formatMoney(figures.approvingNow.gross, s.currency)} incl. VAT. ${TOTAL_NAMES.agreed} on this job: ${formatMoney(figures.newTotal.gross, s.currency)} incl. VAT.`,
   ];
 }
 
@@ -101,10 +104,10 @@ export function approvalReceiptMail(p: {
     ...decisionLines(s, p.decisions, p.figures, 'your'),
     ...(p.declinedAirworthiness.length
       ? [
-          `You declined ${p.declinedAirworthiness.join(', ')}, which affects airworthiness. The aircraft cannot be released while it stays open; the inspector decides when it is fit to fly. The workshop will talk to you about what happens next.`,
+          `You declined ${p.declinedAirworthiness.join(', ')}, an airworthiness item. While it is open, the workshop will not mark the aircraft ready for release. Whether it may fly is the inspector's decision under the authority's rules. The workshop will talk to you about what happens next.`,
         ]
       : []),
-    'To change a decision, contact the workshop.',
+    `To change a decision, contact ${contactOf(s)}.`,
   ];
   return build(p.to, `${s.registration}: your decisions are recorded`, lines, { href: p.link, label: 'See your decisions' });
 }
@@ -125,7 +128,7 @@ export function decisionToStaffMail(p: {
   const notes = p.decisions.filter((d) => d.note);
   const strong = [
     ...(p.declinedAirworthiness.length
-      ? [`ACTION NEEDED: the owner declined ${p.declinedAirworthiness.join(', ')}, an airworthiness item. The aircraft cannot be released while it is open; the inspector decides what it needs.`]
+      ? [`ACTION NEEDED: the owner declined ${p.declinedAirworthiness.join(', ')}, an airworthiness item. While it is open the job cannot be marked ready for release; whether the aircraft may fly is the inspector's decision.`]
       : []),
     ...(notes.length ? [`The owner left ${notes.length === 1 ? 'a note' : 'notes'}: ${notes.map((d) => `${d.name}: “${d.note}”`).join('; ')}`] : []),
   ];
@@ -143,6 +146,8 @@ export function withinLimitReportMail(p: {
   to: string;
   ownerName: string;
   workshopName: string;
+  workshopPhone?: string;
+  workshopEmail?: string;
   registration: string;
   jobTitle: string;
   findings: { number: string; title: string; category: string; gross: string }[];
@@ -152,10 +157,10 @@ export function withinLimitReportMail(p: {
 }): MailMessage {
   const lines = [
     `Hello ${p.ownerName},`,
-    `${p.workshopName} approved the following work on ${p.registration} (${p.jobTitle}) on your behalf, because it falls inside the limit you agreed with them in advance:`,
+    `${p.workshopName} approved the following work on ${p.registration} (${p.jobTitle}) on your behalf, under the standing go-ahead you gave them:`,
     ...p.findings.map((f) => `${f.number} ${f.title} (${f.category}): ${formatMoney(f.gross, p.currency)} incl. VAT`),
-    ...(p.headroom !== null ? [`What is left of your limit for this job: ${formatMoney(p.headroom, p.currency)} incl. VAT.`] : []),
-    'If anything here surprises you, contact the workshop before the work starts.',
+    ...(p.headroom !== null ? [`Left of your standing go-ahead on this job: ${formatMoney(p.headroom, p.currency)} incl. VAT.`] : []),
+    `If anything here surprises you, contact ${workshopContactWords(p)} before the work starts.`,
   ];
-  return build(p.to, `${p.registration}: work approved within your limit`, lines, { href: p.link, label: 'See the job' });
+  return build(p.to, `${p.registration}: work approved under your standing go-ahead`, lines, { href: p.link, label: 'See your aircraft' });
 }

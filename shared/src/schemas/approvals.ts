@@ -94,6 +94,9 @@ export interface ApprovalSnapshot {
   aircraftType: string;
   ownerName: string;
   workshopName: string;
+  /** The workshop's phone and e-mail at sending (its settings); absent on requests sent before they were carried. */
+  workshopPhone?: string;
+  workshopEmail?: string;
   currency: string;
   /** The VAT rounding method the figures were worked with. */
   rounding: string;
@@ -170,6 +173,25 @@ export type Decision = (typeof DECISIONS)[number];
 /** An item of a request: "quote", or a finding's id. */
 export const decisionItemIdSchema = z.union([z.literal(QUOTE_ITEM_ID), idSchema], { message: 'Not an item of this request.' });
 
+/** The owner's typed name that confirms their decisions: its bounds and words, shared by the schema and the page. */
+export const TYPED_NAME = {
+  min: 2,
+  max: 120,
+  tooShort: 'Type your name to confirm.',
+  tooLong: 'Your name is too long: keep it to 120 characters or fewer.',
+} as const;
+
+/**
+ * What is wrong with a typed name, in the schema's own words, or null. The decision page checks
+ * with this before sending (it loads no zod); the server checks the whole body with the schema.
+ */
+export function typedNameProblem(name: string): string | null {
+  const n = name.trim();
+  if (n.length < TYPED_NAME.min) return TYPED_NAME.tooShort;
+  if (n.length > TYPED_NAME.max) return TYPED_NAME.tooLong;
+  return null;
+}
+
 /** The owner's decisions on every item of one request (the quote and/or findings), confirmed by typing their name. */
 export const decisionSubmitSchema = z.object({
   snapshotHash: z.string().regex(/^[0-9a-f]{64}$/, { message: 'This page is out of date: reload it.' }),
@@ -183,7 +205,10 @@ export const decisionSubmitSchema = z.object({
     )
     .min(1)
     .max(50),
-  typedName: safeString('Your name').trim().min(2, { message: 'Type your name to confirm.' }).max(120),
+  typedName: safeString('Your name')
+    .trim()
+    .min(TYPED_NAME.min, { message: TYPED_NAME.tooShort })
+    .max(TYPED_NAME.max, { message: TYPED_NAME.tooLong }),
 });
 export type DecisionSubmitInput = z.input<typeof decisionSubmitSchema>;
 
@@ -194,6 +219,8 @@ export interface DecisionPageDto {
   closedReason: string | null;
   snapshot: ApprovalSnapshot;
   snapshotHash: string;
+  /** When the link stops working: the request's own time, moved on by a re-send (the snapshot keeps the first send's). */
+  expiresAt: string;
   /** Present once decided (never through a link that a newer one has superseded). */
   decisions: { itemId: DecisionItemId; decision: Decision; note: string }[] | null;
   decidedByName: string | null;

@@ -1,11 +1,11 @@
-import { z } from 'zod';
+import { config, z } from 'zod';
 
 /**
  * Messages for people. zod's own defaults ("Too big: expected string to have <=300 characters",
  * "Invalid UUID") leak how the program is built; every check without its own message falls back
  * to these, which say what to do in plain words. A schema's own message always wins.
  */
-z.config({
+config({
   customError: (iss) => {
     switch (iss.code) {
       case 'too_big':

@@ -1,5 +1,4 @@
 import { DECISIONS, type ApprovalRequestState, type Decision } from '@wingstage/shared';
-import { z } from 'zod';
 
 /**
  * The owner's choices kept on their own device until they confirm: phones reload a tab after a trip
@@ -29,14 +28,37 @@ export const DRAFT_DISCARD_WORDS: Record<DraftDiscard, string> = {
 const KEY_PREFIX = 'wingstage.decision-draft.';
 const draftKey = (requestId: string) => `${KEY_PREFIX}${requestId}`;
 
-const storedDraftSchema = z.object({
-  v: z.literal(1),
-  snapshotHash: z.string().regex(/^[0-9a-f]{64}$/),
-  choices: z.record(z.string().max(64), z.enum(DECISIONS)),
-  notes: z.record(z.string().max(64), z.string().max(1000)),
-  step: z.number().int().min(0).max(100),
-  savedAt: z.string(),
-});
+interface StoredDraft {
+  v: 1;
+  snapshotHash: string;
+  choices: Record<string, Decision>;
+  notes: Record<string, string>;
+  step: number;
+  savedAt: string;
+}
+
+// Checked by hand rather than with a zod schema: the decision page loads no zod (its size budget,
+// scripts/decide-size.mjs), and a stored draft is the page's own small, fixed shape.
+const isRecordOf = (x: unknown, ok: (v: unknown) => boolean): x is Record<string, never> =>
+  typeof x === 'object' && x !== null && !Array.isArray(x) && Object.entries(x).every(([k, v]) => k.length <= 64 && ok(v));
+
+/** The stored draft when it has exactly the shape this page writes, else null. */
+export function storedDraftOf(x: unknown): StoredDraft | null {
+  if (typeof x !== 'object' || x === null) return null;
+  const d = x as Record<string, unknown>;
+  const ok =
+    d.v === 1 &&
+    typeof d.snapshotHash === 'string' &&
+    /^[0-9a-f]{64}$/.test(d.snapshotHash) &&
+    isRecordOf(d.choices, (v) => (DECISIONS as readonly unknown[]).includes(v)) &&
+    isRecordOf(d.notes, (v) => typeof v === 'string' && v.length <= 1000) &&
+    typeof d.step === 'number' &&
+    Number.isInteger(d.step) &&
+    d.step >= 0 &&
+    d.step <= 100 &&
+    typeof d.savedAt === 'string';
+  return ok ? (d as unknown as StoredDraft) : null;
+}
 
 /** localStorage when the browser gives one; null when it is switched off or refused (private modes). */
 export function deviceStorage(): Storage | null {
@@ -94,11 +116,11 @@ export function readDraft(storage: Storage | null, target: DraftTarget): ReadDra
   const drop = (why: DraftDiscard): ReadDraft => ({ draft: null, discarded: why });
   if (target.state === 'decided') return drop('decided');
   if (target.state !== 'sent' || target.closedReason) return drop('closed');
-  let parsed: z.infer<typeof storedDraftSchema>;
+  let parsed: StoredDraft;
   try {
-    const r = storedDraftSchema.safeParse(JSON.parse(raw));
-    if (!r.success) return drop('unreadable');
-    parsed = r.data;
+    const r = storedDraftOf(JSON.parse(raw));
+    if (!r) return drop('unreadable');
+    parsed = r;
   } catch {
     return drop('unreadable');
   }

@@ -34,14 +34,15 @@ export function openingUpWords(o: PricedChoice['openingUp'][number], items: Page
 }
 
 /**
- * The product brief: a declined airworthiness defect is still a defect. Said plainly, and always
- * deferring to the inspector.
+ * The product brief: a declined airworthiness defect is still a defect. Said plainly: Wingstage
+ * holds back its own "ready for release" state; whether the aircraft may fly is the inspector's call.
  */
 export function declinedAirworthinessWords(registration: string): string {
-  return `You have declined an ${FINDING_CATEGORY_LABELS.airworthiness.toLowerCase()} item. ${registration} cannot be released to fly while it is open. The inspector decides what the aircraft needs before release, and we will talk it through with you.`;
+  return `You have declined an ${FINDING_CATEGORY_LABELS.airworthiness.toLowerCase()} item. While it is open, we will not mark ${registration} ready for release in Wingstage. Whether the aircraft may fly is the inspector's decision under the authority's rules; we will talk it through with you.`;
 }
 
 /** Declining the quote: nothing of the scheduled work is started without the owner's agreement. */
 export function declinedQuoteWords(workshopName: string): string {
   return `We will not start the quoted work without your agreement. ${workshopName} will be in touch to talk it through.`;
 }
+

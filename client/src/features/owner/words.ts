@@ -52,23 +52,8 @@ export const OWNER_JOB_MEANING: Record<JobState, string> = {
   cancelled: 'This job was cancelled.',
 };
 
-/** Words that belong to the workshop's side of a job; the owner's pages must not show them. */
-export const STAFF_ONLY_WORDS = [
-  'Sent to owner',
-  'Priced',
-  'Awaiting owner',
-  'Approved within limit',
-  'Approved under standing go-ahead',
-  'Hold for owner',
-  'Draft',
-  'Inspecting',
-  'In work',
-  'Ready for release',
-  'Approved so far',
-  'Undecided',
-  "Waiting for the owner's decision",
-  'Link revoked',
-] as const;
+/** Words that belong to the workshop's side of a job (shared: the decision page and the owner's e-mails are tested against them too). */
+export { STAFF_ONLY_WORDS } from '@wingstage/shared';
 
 /** Jobs still with the workshop (booked in up to finished), as opposed to invoiced, paid, closed or cancelled. */
 export const IN_THE_HANGAR: readonly JobState[] = ['booked_in', 'inspecting', 'awaiting_owner', 'in_work', 'ready_for_release'];

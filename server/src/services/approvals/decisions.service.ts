@@ -4,6 +4,7 @@ import {
   QUOTE_ITEM_ID,
   canStartWork,
   priceChoice,
+  workshopContactWords,
   type ApprovalSnapshot,
   type Decision,
   type DecisionPageDto,
@@ -31,15 +32,16 @@ type DecisionInput = z.output<typeof decisionSubmitSchema>;
 const day = (d: Date) => d.toLocaleDateString('en-GB', { day: 'numeric', month: 'short', timeZone: 'UTC' });
 
 function closedReason(r: ApprovalRequest): string | null {
+  const contact = workshopContactWords(r.snapshot);
   switch (r.state) {
     case 'sent':
       return null;
     case 'decided':
-      return `This request was already decided${r.decidedByName ? ` by ${r.decidedByName}` : ''} on ${day(r.decidedAt!)}. Your decisions are shown below; contact the workshop to change anything.`;
+      return `This request was already decided${r.decidedByName ? ` by ${r.decidedByName}` : ''} on ${day(r.decidedAt!)}. Your decisions are shown below; to change anything, contact ${contact}.`;
     case 'expired':
-      return `This link expired on ${day(r.expiresAt)}. Ask the workshop to send the request again.`;
+      return `This link expired on ${day(r.expiresAt)}. Ask the workshop to send the request again: ${contact}.`;
     case 'revoked':
-      return `The workshop withdrew this link on ${day(r.revokedAt ?? r.updatedAt)}. Contact the workshop if you expected to decide here.`;
+      return `The workshop revoked this link on ${day(r.revokedAt ?? r.updatedAt)}. If you expected to decide here, contact ${contact}.`;
     case 'replaced':
       return `This request was replaced by a newer one on ${day(r.updatedAt)}: the workshop changed a price. Use the link in the newest e-mail.`;
   }
@@ -52,6 +54,7 @@ async function pageOf(r: ApprovalRequest, t?: Transaction): Promise<DecisionPage
     closedReason: closedReason(r),
     snapshot: withPhotos(r.snapshot),
     snapshotHash: r.snapshotHash,
+    expiresAt: r.expiresAt.toISOString(),
     decisions: r.state === 'decided' ? await decisionsOf(r.id, t) : null,
     decidedByName: r.decidedByName ?? null,
     decidedAt: r.decidedAt ? r.decidedAt.toISOString() : null,
@@ -62,13 +65,14 @@ async function pageOf(r: ApprovalRequest, t?: Transaction): Promise<DecisionPage
 /** What an older e-mail's link says: a newer link exists, and what has happened to the request since. */
 function supersededReason(r: ApprovalRequest, newestAt: Date): string {
   const first = `A newer link was sent to you on ${day(newestAt)}`;
+  const contact = workshopContactWords(r.snapshot);
   switch (r.state) {
     case 'decided':
-      return `${first}, and the request has since been decided. Contact the workshop to change anything.`;
+      return `${first}, and the request has since been decided. To change anything, contact ${contact}.`;
     case 'expired':
-      return `${first}, and that link has since run out. Ask the workshop to send the request again.`;
+      return `${first}, and that link has since run out. Ask the workshop to send the request again: ${contact}.`;
     case 'revoked':
-      return `${first}, and the workshop has since withdrawn the request. Contact the workshop if you expected to decide it.`;
+      return `${first}, and the workshop has since revoked the request. If you expected to decide it, contact ${contact}.`;
     case 'replaced':
       return `${first}, and the request has since been replaced by a newer one: use the link in the newest e-mail.`;
     default:
@@ -87,6 +91,7 @@ function supersededPageOf(r: ApprovalRequest, newestAt: Date): DecisionPageDto {
     closedReason: supersededReason(r, newestAt),
     snapshot: { ...snap, findings: snap.findings.map((f) => ({ ...f, photos: [] })) },
     snapshotHash: r.snapshotHash,
+    expiresAt: r.expiresAt.toISOString(),
     decisions: null,
     decidedByName: null,
     decidedAt: null,

@@ -45,7 +45,7 @@ export async function putPreAuthorisation(scope: Scope, jobId: string, input: Pr
     await recordAudit(scope, t, {
       jobId: job.id,
       action: 'job.pre_authorisation_set',
-      summary: `Pre-authorised limit: per finding ${describe(fmt(input.perFinding))}, per job ${describe(fmt(input.perJob))} incl. VAT${input.agreedHow ? ` (${input.agreedHow})` : ''}`,
+      summary: `Standing go-ahead (pre-authorised limit): per finding ${describe(fmt(input.perFinding))}, per job ${describe(fmt(input.perJob))} incl. VAT${input.agreedHow ? ` (${input.agreedHow})` : ''}`,
       detail: { perFinding: fmt(input.perFinding), perJob: fmt(input.perJob), agreedHow: input.agreedHow },
     });
     return { ...preAuthDto(job, w.currency, await usedSoFar(job.id, t)), version: job.version };

@@ -33,7 +33,7 @@ import { toWorkshopDto } from '../workshop.service.js';
 import { canonicalJson, newLink } from './links.js';
 import { usedSoFar } from './pre-authorisation.service.js';
 import { addRequestFindings, findingIdsOf, jobOwner, moveRequest, supersedeLink, OPEN_REQUEST } from './repository.js';
-import { buildSnapshot, findingNumber } from './snapshot.js';
+import { buildSnapshot, findingNumber, workshopContact } from './snapshot.js';
 import { snapshotHashOf } from './links.js';
 import { inTransaction } from '../../db/transaction.js';
 
@@ -185,7 +185,7 @@ export async function sendForApproval(deps: Deps, scope: Scope, jobId: string, i
       await recordAudit(scope, t, {
         jobId: job.id,
         action: 'finding.approved_within_limit',
-        summary: `Approved within the owner's pre-authorised limit: ${approvedWithinLimit.map((a) => `${a.number} ${formatMoney(a.gross, w.currency)}`).join(', ')} incl. VAT`,
+        summary: `Approved under the owner's standing go-ahead: ${approvedWithinLimit.map((a) => `${a.number} ${formatMoney(a.gross, w.currency)}`).join(', ')} incl. VAT`,
         detail: { findings: approvedWithinLimit, headroom: limit.headroom },
       });
       const owner = await ownerContact(job, t);
@@ -194,12 +194,13 @@ export async function sendForApproval(deps: Deps, scope: Scope, jobId: string, i
           to: owner.email,
           ownerName: owner.name,
           workshopName: w.name,
+          ...workshopContact(w),
           registration: job.aircraft.registration,
           jobTitle: job.title,
           findings: approvedWithinLimit.map((a) => ({ ...a, title: byId.get(a.findingId)!.title, category: FINDING_CATEGORY_LABELS[byId.get(a.findingId)!.category] })),
           currency: w.currency,
           headroom: limit.headroom,
-          link: `${deps.config.APP_URL.replace(/\/$/, '')}/jobs/${job.id}`,
+          link: `${deps.config.APP_URL.replace(/\/$/, '')}/my-aircraft`,
         }),
         t,
       );

@@ -12,6 +12,15 @@ import type { Finding, Workshop } from '../../models/index.js';
 import type { JobRow } from '../job-access.js';
 import { pricingOf } from '../pricing.js';
 
+/** The workshop's phone and e-mail from its settings, only those it has filled in. */
+export function workshopContact(w: Workshop): { workshopPhone?: string; workshopEmail?: string } {
+  const settings = (w.settings ?? {}) as { contactPhone?: unknown; contactEmail?: unknown };
+  const text = (v: unknown) => (typeof v === 'string' ? v.trim() : '');
+  const phone = text(settings.contactPhone);
+  const email = text(settings.contactEmail);
+  return { ...(phone ? { workshopPhone: phone } : {}), ...(email ? { workshopEmail: email } : {}) };
+}
+
 export const findingNumber = (seq: number) => `F-${seq}`;
 
 /**
@@ -62,6 +71,7 @@ export function buildSnapshot(p: {
     aircraftType: p.job.aircraft.type,
     ownerName: p.owner.name,
     workshopName: w.name,
+    ...workshopContact(w),
     currency: priced.currency,
     rounding: priced.rounding,
     message: p.message,

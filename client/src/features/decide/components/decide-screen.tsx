@@ -40,8 +40,8 @@ export function DecideScreen({ token }: { token: string }) {
           <Loading label="Opening your request…" />
         )}
         <Caution>
-          Your decisions are about cost. Whether the aircraft may fly follows the manufacturer's data and the authority's rules, and is for the licensed inspector to
-          decide.
+          You decide whether to pay for this work. Whether the aircraft may fly is not decided here: the licensed inspector decides, under the authority's rules and
+          the manufacturer's data.
         </Caution>
         <footer className="mt-4 flex items-center gap-2 text-xs text-slate-soft">
           <span>Sent through</span>

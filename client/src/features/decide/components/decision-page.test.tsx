@@ -1,8 +1,8 @@
-import { priceChoice, QUOTE_ITEM_ID, type ApprovalSnapshot, type ChoiceBasis, type ChoiceLine, type DecisionPageDto, type VatRounding } from '@wingstage/shared';
+import { priceChoice, QUOTE_ITEM_ID, STAFF_ONLY_WORDS, type ApprovalSnapshot, type ChoiceBasis, type ChoiceLine, type DecisionPageDto, type VatRounding } from '@wingstage/shared';
 import { act, fireEvent, render, screen, within } from '@testing-library/react';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { ApiError } from '@/lib/api-client';
-import { DecisionPage } from './decision-page';
+import { DecisionPage, UnknownLink } from './decision-page';
 
 const PLUG = '2f0e7a1c-3b4d-4e5f-8a6b-7c8d9e0f1a2b';
 const SPRING = '8a9b0c1d-2e3f-4a5b-9c6d-7e8f9a0b1c2d';
@@ -91,6 +91,8 @@ function build({ findings = 3, quote = false, rounding = 'line-nearest' as VatRo
     aircraftType: 'Three-axis high-wing microlight',
     ownerName: 'Hazel Brambury',
     workshopName: 'Brackenfold Light Aircraft Engineering',
+    workshopPhone: '01632 960418',
+    workshopEmail: 'office@brackenfold.example',
     currency: 'GBP',
     rounding,
     message: 'Two things turned up.',
@@ -122,6 +124,7 @@ const page = (over: Partial<DecisionPageDto> = {}): DecisionPageDto => ({
   newerLinkSentAt: null,
   snapshot: snapshot(),
   snapshotHash: HASH,
+  expiresAt: '2026-12-08T10:00:00Z',
   decisions: null,
   decidedByName: null,
   decidedAt: null,
@@ -154,19 +157,23 @@ describe('DecisionPage', () => {
     expect(total('new-total')).toBe('£600.00');
   });
 
-  it('when an airworthiness finding is declined, then the page says plainly that the aircraft cannot be released with it open and that the inspector decides', () => {
+  it('when an airworthiness finding is declined, then the page says Wingstage will not mark it ready for release and that flying is the inspector’s decision, never that the software decides', () => {
     render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
     fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
     expect(screen.getByText('Finding 2 of 3')).toBeTruthy();
-    expect(screen.queryByText(/cannot be released/)).toBeNull();
+    expect(screen.queryByText(/ready for release/)).toBeNull();
     choose('Decline');
-    const warning = screen.getByRole('alert');
-    expect(warning.textContent).toContain('Q-SALT cannot be released to fly while it is open');
-    expect(warning.textContent).toContain('The inspector decides');
+    const warning = screen.getByTestId('declined-airworthiness');
+    expect(warning.textContent).toContain('This is an airworthiness item');
+    expect(warning.textContent).toContain('While it is open, we will not mark Q-SALT ready for release in Wingstage.');
+    expect(warning.textContent).toContain("Whether the aircraft may fly is the inspector's decision under the authority's rules");
+    expect(warning.textContent).not.toMatch(/cannot be (released|left open)/);
+    // It is the airworthiness mark, not an error: no alert role.
+    expect(screen.queryByRole('alert')).toBeNull();
     // Declining advisory work carries no such warning.
     fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
     choose('Decline');
-    expect(screen.queryByText(/cannot be released/)).toBeNull();
+    expect(screen.queryByText(/ready for release/)).toBeNull();
   });
 
   it('when the owner reviews and confirms, then the hash, every item’s decision with its note and the typed name are sent', async () => {
@@ -178,7 +185,7 @@ describe('DecisionPage', () => {
     fireEvent.change(screen.getByLabelText('A note for the workshop (optional)'), { target: { value: 'Spring from our stores.' } });
     fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
     // The review refuses to confirm while an item has no decision, and says which.
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Check your choices' }));
     expect((screen.getByRole('button', { name: 'Confirm decisions' }) as HTMLButtonElement).disabled).toBe(true);
     fireEvent.click(screen.getByRole('button', { name: 'Go to F-3' }));
     choose('Approve');
@@ -210,7 +217,7 @@ describe('DecisionPage', () => {
     const onReload = vi.fn();
     render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ findings: 1 }) })} onSubmit={onSubmit} onReload={onReload} />);
     choose('Approve');
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Check your choices' }));
     fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
     fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
     expect(await screen.findByText('The workshop changed something on this request: reload the page to see the latest.')).toBeTruthy();
@@ -221,7 +228,9 @@ describe('DecisionPage', () => {
   it("when the request is closed, then the server's reason is shown in plain words and no choices are offered", () => {
     render(<DecisionPage token={TOKEN} page={page({ state: 'replaced', closedReason: 'The workshop changed a price after sending, so a newer request replaced this one. Look for it in your e-mail.' })} onSubmit={vi.fn()} />);
     expect(screen.getByText('A newer request replaced this one')).toBeTruthy();
-    expect(screen.getByText('Replaced')).toBeTruthy();
+    // The owner's own word for the state, never the staff badge's "Replaced".
+    expect(screen.getByText('A newer link was sent')).toBeTruthy();
+    expect(screen.queryByText('Replaced')).toBeNull();
     expect(screen.getByText(/a newer request replaced this one/)).toBeTruthy();
     expect(screen.queryByRole('radio')).toBeNull();
   });
@@ -247,7 +256,8 @@ describe('DecisionPage', () => {
     const receipt = screen.getByTestId('decision-receipt');
     expect(receipt.textContent).toContain('Thank you, Hazel Brambury.');
     expect(receipt.textContent).toContain('Your note: Later.');
-    expect(receipt.textContent).toContain('Q-SALT cannot be released to fly while it is open');
+    expect(receipt.textContent).toContain('While it is open, we will not mark Q-SALT ready for release in Wingstage.');
+    expect(screen.getByTestId('receipt-contact').textContent).toBe('To change a decision, contact Brackenfold Light Aircraft Engineering: 01632 960418, office@brackenfold.example.');
     expect(receipt.querySelector('[data-receipt="F-1"]')!.textContent).toContain('£60.00 incl. VAT');
     expect(receipt.querySelector('[data-receipt="F-3"]')!.textContent).toContain('£12.00 incl. VAT, not included');
     const opening = receipt.querySelectorAll('[data-opening-up]');
@@ -276,7 +286,7 @@ describe('DecisionPage running total from priceChoice', () => {
     choose('Approve');
     fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
     choose('Decline');
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Check your choices' }));
     expect(document.querySelector('[data-review="F-1"]')!.textContent).toContain('£60.00 incl. VAT');
     expect(document.querySelector('[data-review="F-2"]')!.textContent).toContain('£30.00 incl. VAT');
     expect(document.querySelectorAll('[data-opening-up]')).toHaveLength(1);
@@ -296,7 +306,7 @@ describe('DecisionPage running total from priceChoice', () => {
     choose('Approve');
     expect(total('approving-now')).toBe('£24.04');
     expect(total('new-total')).toBe('£36.07');
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Check your choices' }));
     expect(document.querySelector('[data-review="F-1"]')!.textContent).toContain('£24.04 incl. VAT');
     expect(screen.getByTestId('choice-rows-total').textContent).toContain('£24.04');
   });
@@ -331,7 +341,7 @@ describe('DecisionPage with the quote in the request', () => {
     expect(screen.getByText(/We will not start the quoted work without your agreement/)).toBeTruthy();
     expect(total('approving-now')).toBe('£0.00');
     fireEvent.change(screen.getByLabelText('A note for the workshop (optional)'), { target: { value: 'Please ring me.' } });
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Check your choices' }));
     expect(document.querySelector('[data-review="quote"]')!.textContent).toContain('£446.40 incl. VAT, not included');
     fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
     fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
@@ -344,7 +354,7 @@ describe('DecisionPage with the quote in the request', () => {
     choose('Accept');
     fireEvent.click(screen.getByRole('button', { name: 'On to what we found →' }));
     choose('Approve');
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Check your choices' }));
     fireEvent.click(screen.getByRole('button', { name: 'Change the quote' }));
     expect(screen.getByText('1 of 2 · The quote')).toBeTruthy();
     fireEvent.click(screen.getByRole('button', { name: 'Back to your choices' }));
@@ -474,7 +484,7 @@ describe('DecisionPage keeps the owner’s choices on the device until they conf
     render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ findings: 1 }) })} onSubmit={onSubmit} />);
     choose('Approve');
     expect(localStorage.getItem(DRAFT_KEY)).not.toBeNull();
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Check your choices' }));
     fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
     fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
     await vi.waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
@@ -485,7 +495,7 @@ describe('DecisionPage keeps the owner’s choices on the device until they conf
     const onSubmit = vi.fn().mockRejectedValue(new ApiError({ code: 'conflict', status: 409, message: 'The workshop changed something on this request: reload the page to see the latest.' }));
     render(<DecisionPage token={TOKEN} page={page({ snapshot: build({ findings: 1 }) })} onSubmit={onSubmit} />);
     choose('Approve');
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Check your choices' }));
     fireEvent.change(screen.getByLabelText('Type your full name to confirm'), { target: { value: 'Hazel Brambury' } });
     fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
     expect(await screen.findByText(/The workshop changed something/)).toBeTruthy();
@@ -551,7 +561,7 @@ describe('DecisionPage keeps the owner’s choices on the device until they conf
     choose('Approve');
     fireEvent.click(screen.getByRole('button', { name: 'Next finding →' }));
     choose('Approve');
-    fireEvent.click(screen.getByRole('button', { name: 'Review your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Check your choices' }));
     fireEvent.click(screen.getByRole('button', { name: 'Change F-1' }));
     expect(screen.getByText('Finding 1 of 3')).toBeTruthy();
     expect(screen.queryByRole('button', { name: '← Back' })).toBeNull();
@@ -563,5 +573,94 @@ describe('DecisionPage keeps the owner’s choices on the device until they conf
     fireEvent.click(screen.getByRole('button', { name: 'Change F-2' }));
     fireEvent.click(screen.getByRole('button', { name: 'Back to your choices' }));
     expect(screen.getByRole('heading', { name: 'Check your choices' })).toBeTruthy();
+  });
+});
+
+describe('DecisionPage in the owner’s words', () => {
+  it('when the link was re-sent, then the page shows the request’s current expiry, not the first send’s', () => {
+    render(<DecisionPage token={TOKEN} page={page({ expiresAt: '2026-12-15T10:00:00Z' })} onSubmit={vi.fn()} />);
+    const until = screen.getByText(/^This link works until/).textContent!;
+    expect(until).toContain('15');
+    expect(until).not.toContain('8 Dec');
+  });
+
+  it('when the running total is shown, then it uses the one name for the agreed total and the owner’s name for the undecided one', () => {
+    render(<DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />);
+    const bar = screen.getByTestId('running-total');
+    expect(bar.textContent).toContain('Agreed so far');
+    expect(bar.textContent).toContain('Waiting for your decision, if approved');
+    expect(bar.textContent).not.toContain('Not yet decided');
+    expect(bar.textContent).not.toContain('Approved so far');
+  });
+
+  it('when the typed name is missing, then its error carries the error mark, not the airworthiness mark', () => {
+    render(<DecisionPage token={TOKEN} page={page({ snapshot: snapshot({ ...build({ findings: 1 }) }) })} onSubmit={vi.fn()} />);
+    choose('Approve');
+    fireEvent.click(screen.getByRole('button', { name: 'Check your choices' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Confirm decisions' }));
+    const error = screen.getByRole('alert');
+    expect(error.textContent).toBe('Type your name to confirm.');
+    expect(error.className).toContain('text-fault');
+    expect(error.className).not.toContain('ember');
+  });
+
+  it('when the workshop revoked the link, then the page says "revoked", in the owner’s words, with the workshop’s phone and e-mail', () => {
+    render(<DecisionPage token={TOKEN} page={page({ state: 'revoked', closedReason: null })} onSubmit={vi.fn()} />);
+    const closed = screen.getByTestId('decision-closed');
+    expect(within(closed).getByText('The workshop revoked this link')).toBeTruthy();
+    expect(within(closed).getByText('Revoked by the workshop')).toBeTruthy();
+    expect(closed.textContent).toContain('Please contact Brackenfold Light Aircraft Engineering: 01632 960418, office@brackenfold.example.');
+    expect(closed.textContent).not.toMatch(/withdr[ae]w/);
+  });
+
+  it('when an older request carries no workshop contact, then the page names the workshop alone', () => {
+    const { workshopPhone: _p, workshopEmail: _e, ...old } = snapshot();
+    render(<DecisionPage token={TOKEN} page={page({ state: 'expired', closedReason: null, snapshot: old })} onSubmit={vi.fn()} />);
+    expect(screen.getByTestId('decision-closed').textContent).toContain('Please contact Brackenfold Light Aircraft Engineering.');
+  });
+
+  it('when a link was never issued, then the heading does not say it once worked', () => {
+    render(<UnknownLink />);
+    expect(screen.getByRole('heading').textContent).toBe('This link does not open a request');
+  });
+
+  it('when the owner walks a quote and findings request, then no step, the review, the receipt or any closed state shows a staff-only word', () => {
+    const seen: string[] = [];
+    const s = snapshot({ ...build({ quote: true }) });
+    const { unmount } = render(<DecisionPage token={TOKEN} page={page({ snapshot: s })} onSubmit={vi.fn()} />);
+    seen.push(document.body.textContent!);
+    choose('Accept');
+    fireEvent.click(screen.getByRole('button', { name: 'On to what we found →' }));
+    // F-1 approved, then the airworthiness F-2 and the advisory F-3 declined: each step before and after choosing.
+    (['Approve', 'Decline', 'Decline'] as const).forEach((d, i) => {
+      seen.push(document.body.textContent!);
+      choose(d);
+      seen.push(document.body.textContent!);
+      fireEvent.click(screen.getByRole('button', { name: i === 2 ? 'Check your choices' : 'Next finding →' }));
+    });
+    expect(screen.getByRole('heading', { name: 'Check your choices' })).toBeTruthy();
+    seen.push(document.body.textContent!);
+    unmount();
+    const decided = { decidedByName: 'Hazel Brambury', decidedAt: '2026-12-01T12:30:00Z' };
+    const decisions = [
+      { itemId: QUOTE_ITEM_ID, decision: 'approve' as const, note: '' },
+      ...s.findings.map((f, i) => ({ itemId: f.findingId, decision: i === 0 ? ('approve' as const) : ('decline' as const), note: '' })),
+    ];
+    const closedPages: Partial<DecisionPageDto>[] = [
+      { state: 'decided', decisions, ...decided, closedReason: 'This request was already decided.' },
+      { state: 'decided', closedReason: 'A newer link was sent to you on 2 Dec, and the request has since been decided.', newerLinkSentAt: '2026-12-02T09:00:00Z' },
+      { state: 'expired', closedReason: null },
+      { state: 'revoked', closedReason: null },
+      { state: 'replaced', closedReason: null },
+    ];
+    for (const over of closedPages) {
+      const r = render(<DecisionPage token={TOKEN} page={page({ snapshot: s, ...over })} onSubmit={vi.fn()} storage={null} />);
+      expect(screen.queryByRole('radio')).toBeNull();
+      seen.push(document.body.textContent!);
+      r.unmount();
+    }
+    // The introduction, three findings before and after choosing, the review, the receipt and four closed pages.
+    expect(seen).toHaveLength(13);
+    for (const text of seen) for (const word of STAFF_ONLY_WORDS) expect(text, word).not.toContain(word);
   });
 });

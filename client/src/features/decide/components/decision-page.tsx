@@ -1,20 +1,22 @@
 import {
-  decisionSubmitSchema,
   describeLimit,
   FINDING_CATEGORY_MEANINGS,
+  OWNER_APPROVAL_REQUEST_STATE_LABELS,
   priceChoice,
   QUOTE_STATE_OWNER_WORDS,
+  TOTAL_NAMES,
+  typedNameProblem,
+  workshopContactWords,
   type ApprovalSnapshot,
   type Decision,
   type DecisionPageDto,
-  type DecisionSubmitInput,
   type PricedChoice,
 } from '@wingstage/shared';
 import { useEffect, useId, useMemo, useRef, useState, type ComponentProps, type ReactNode } from 'react';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { Button as BaseButton } from '@/components/ui/button';
 import { CategoryBadge } from '@/components/ui/finding-badges';
-import { CheckIcon, CrossIcon, DocumentIcon, EnvelopeIcon } from '@/components/ui/icons';
+import { CheckIcon, CrossIcon, DocumentIcon, EnvelopeIcon, FaultIcon, ShieldBarIcon } from '@/components/ui/icons';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
 import { formatDateTime, formatMoney, trimDecimal } from '@/lib/format';
@@ -123,7 +125,7 @@ function Letterhead({ s, children }: { s: ApprovalSnapshot; children?: ReactNode
   );
 }
 
-function Introduction({ s }: { s: ApprovalSnapshot }) {
+function Introduction({ s, expiresAt }: { s: ApprovalSnapshot; expiresAt: string }) {
   const found = s.findings.length;
   return (
     <div className="mt-3 flex flex-col gap-2">
@@ -147,7 +149,7 @@ function Introduction({ s }: { s: ApprovalSnapshot }) {
           your say-so.
         </p>
       )}
-      <p className="text-sm text-slate-soft">This link works until {formatDateTime(s.expiresAt)}.</p>
+      <p className="text-sm text-slate-soft">This link works until {formatDateTime(expiresAt)}.</p>
     </div>
   );
 }
@@ -191,21 +193,22 @@ function Deciding({
 
   const confirm = async () => {
     setProblem(null);
-    const body: DecisionSubmitInput = {
-      snapshotHash: page.snapshotHash,
-      decisions: items.map((i) => ({ itemId: i.id, decision: choices[i.id]!, note: notes[i.id]?.trim() ?? '' })),
-      typedName,
-    };
-    const parsed = decisionSubmitSchema.safeParse(body);
-    if (!parsed.success) {
-      const nameIssue = parsed.error.issues.find((i) => i.path[0] === 'typedName');
-      setNameError(nameIssue?.message ?? null);
-      if (!nameIssue) setProblem({ message: parsed.error.issues[0]?.message ?? 'Please check your choices.', reload: false });
+    // Only the name can be wrong here (Confirm stays off until every item is decided); the server
+    // checks the whole body against decisionSubmitSchema and its words come back the same way.
+    const name = typedName.trim();
+    const nameIssue = typedNameProblem(name);
+    if (nameIssue) {
+      setNameError(nameIssue);
       return;
     }
+    const body = {
+      snapshotHash: page.snapshotHash,
+      decisions: items.map((i) => ({ itemId: i.id, decision: choices[i.id]!, note: notes[i.id]?.trim() ?? '' })),
+      typedName: name,
+    };
     setNameError(null);
     try {
-      await onSubmit(parsed.data);
+      await onSubmit(body);
       clearDraft(storage, s.requestId);
     } catch (e) {
       if (isApiError(e) && e.status === 409) setProblem({ message: e.message, reload: true });
@@ -218,7 +221,7 @@ function Deciding({
   const item = items[step];
   return (
     <div ref={topRef} className="flex scroll-mt-2 flex-col gap-5">
-      <Letterhead s={s}>{step === 0 ? <Introduction s={s} /> : null}</Letterhead>
+      <Letterhead s={s}>{step === 0 ? <Introduction s={s} expiresAt={page.expiresAt ?? s.expiresAt} /> : null}</Letterhead>
 
       <DraftDropped discarded={discarded} />
       {restored ? (
@@ -278,7 +281,7 @@ function stepLabel(items: PageItem[], index: number): string {
 function nextLabel(items: PageItem[], index: number, returnToReview: boolean): string {
   if (returnToReview) return 'Back to your choices';
   const next = items[index + 1];
-  if (!next) return 'Review your choices';
+  if (!next) return 'Check your choices';
   return items[index]!.kind === 'quote' ? 'On to what we found →' : 'Next finding →';
 }
 
@@ -369,9 +372,7 @@ function ItemStep({
         />
       </fieldset>
       {choice === 'decline' && item.kind === 'finding' && item.finding.category === 'airworthiness' ? (
-        <Notice tone="problem" title="This cannot be left open for flying">
-          {declinedAirworthinessWords(s.registration)}
-        </Notice>
+        <AirworthinessNote title="This is an airworthiness item">{declinedAirworthinessWords(s.registration)}</AirworthinessNote>
       ) : null}
       {choice === 'decline' && isQuote ? <Notice title="The quoted work waits for you">{declinedQuoteWords(s.workshopName)}</Notice> : null}
       <div className="flex flex-col gap-1">
@@ -398,6 +399,21 @@ function ItemStep({
         </Button>
       </nav>
     </section>
+  );
+}
+
+/** Marks an airworthiness item with the category's own look (shield and bar), kept apart from the error mark. */
+function AirworthinessNote({ title, children }: { title: string; children: ReactNode }) {
+  return (
+    <div role="status" data-testid="declined-airworthiness" className="flex gap-3 rounded-card border-2 border-ember bg-ember-tint p-3 text-sm text-slate">
+      <span className="text-ember">
+        <ShieldBarIcon />
+      </span>
+      <div className="flex flex-col gap-1">
+        <p className="font-semibold">{title}</p>
+        <p>{children}</p>
+      </div>
+    </div>
   );
 }
 
@@ -596,11 +612,13 @@ function Review({
           autoComplete="name"
           aria-invalid={nameError ? true : undefined}
           aria-describedby={`${nameId}-hint${nameError ? ` ${nameId}-error` : ''}`}
-          className="block min-h-tap w-full rounded-control border border-seam-strong bg-cloth-raised px-3 py-2 text-base aria-[invalid=true]:border-2 aria-[invalid=true]:border-ember"
+          className="block min-h-tap w-full rounded-control border border-seam-strong bg-cloth-raised px-3 py-2 text-base aria-[invalid=true]:border-2 aria-[invalid=true]:border-fault"
         />
         {nameError ? (
-          <p id={`${nameId}-error`} role="alert" className="flex items-start gap-1 text-sm font-semibold text-ember">
-            <span aria-hidden="true">▲</span>
+          <p id={`${nameId}-error`} role="alert" className="flex items-start gap-1 text-sm font-semibold text-fault">
+            <span aria-hidden="true" className="shrink-0">
+              <FaultIcon size={16} />
+            </span>
             <span>{nameError}</span>
           </p>
         ) : null}
@@ -713,13 +731,13 @@ function RunningTotalBar({ currency, priced: p }: { currency: string; priced: Pr
     >
       <div className="mx-auto grid max-w-xl grid-cols-2 gap-x-4 gap-y-1 text-sm tabular-nums">
         <p className="flex justify-between gap-2">
-          <span className="text-slate-soft">Agreed so far</span> <span data-total="agreed-so-far">{m(p.agreedSoFar.gross)}</span>
+          <span className="text-slate-soft">{TOTAL_NAMES.agreed}</span> <span data-total="agreed-so-far">{m(p.agreedSoFar.gross)}</span>
         </p>
         <p className="flex justify-between gap-2">
           <span className="text-slate-soft">Approving now</span> <span data-total="approving-now">{m(p.approvingNow.gross)}</span>
         </p>
         <p className="col-span-2 flex justify-between gap-2">
-          <span className="text-slate-soft">Not yet decided, if approved</span> <span data-total="undecided">{m(p.undecidedGross)}</span>
+          <span className="text-slate-soft">{TOTAL_NAMES.undecidedOwner}, if approved</span> <span data-total="undecided">{m(p.undecidedGross)}</span>
         </p>
         <p className="col-span-2 flex justify-between gap-2 border-t border-seam pt-1 text-base font-bold">
           <span>New total, incl. VAT</span> <span data-total="new-total">{m(p.newTotal.gross)}</span>
@@ -760,6 +778,7 @@ function Receipt({ page, discarded }: { page: DecisionPageDto; discarded: DraftD
           {formatMoney(t.newTotal.gross, s.currency)}
         </dd>
       </dl>
+      <p data-testid="receipt-contact">To change a decision, contact {workshopContactWords(s)}.</p>
       <p>
         With thanks,
         <br />
@@ -773,7 +792,7 @@ const CLOSED_TITLE: Record<DecisionPageDto['state'], string> = {
   sent: 'This request cannot be decided here',
   decided: 'This request has been decided',
   expired: 'This link has run out',
-  revoked: 'The workshop withdrew this link',
+  revoked: 'The workshop revoked this link',
   replaced: 'A newer request replaced this one',
 };
 
@@ -786,9 +805,9 @@ function Closed({ page, discarded }: { page: DecisionPageDto; discarded: DraftDi
       <Notice title={superseded ? 'A newer link was sent to you' : CLOSED_TITLE[page.state]}>
         <p className="flex flex-wrap items-center gap-2">
           {superseded ? <span>This request:</span> : null}
-          <ApprovalRequestBadge state={page.state} />
+          <ApprovalRequestBadge state={page.state} words={OWNER_APPROVAL_REQUEST_STATE_LABELS} />
         </p>
-        <p>{page.closedReason ?? `This request can no longer be decided. Please contact ${s.workshopName}.`}</p>
+        <p>{page.closedReason ?? `This request can no longer be decided. Please contact ${workshopContactWords(s)}.`}</p>
       </Notice>
       <DraftDropped discarded={discarded} />
     </article>
@@ -803,7 +822,7 @@ export function UnknownLink() {
   return (
     <article className="flex flex-col gap-3" data-testid="decision-unknown-link">
       <h1 tabIndex={-1} className="text-2xl font-bold focus:outline-none">
-        This link no longer opens a request
+        This link does not open a request
       </h1>
       <p>The link may have been cut short or changed by your e-mail program. Open it again from the e-mail, taking care to use the whole link.</p>
       <p>If it still does not open, ask the workshop to send the request again.</p>
