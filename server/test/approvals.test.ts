@@ -200,6 +200,8 @@ describe("the owner's decision", () => {
     expect(receipt.text).toContain(`To change a decision, contact ${a.workshop.name}: 01632 960777, desk@approvals.example.`);
     expect(page.snapshot).toMatchObject({ workshopPhone: '01632 960777', workshopEmail: 'desk@approvals.example' });
     for (const word of STAFF_ONLY_WORDS) expect(receipt.text, word).not.toContain(word);
+    // At 375 px the long address wraps: it sits in its own paragraph in a span that may break anywhere.
+    expect(receipt.html).toContain(`into your browser:</p><p style="margin:0;color:#4a5565;font-size:14px"><span style="word-break:break-all;overflow-wrap:anywhere">`);
     const history = (await manager.get(`/api/jobs/${p.job.id}/history`)).body as { action: string; summary: string }[];
     expect(history.map((h) => h.action)).toEqual(expect.arrayContaining(['approval.sent', 'approval.decided', 'job.state_changed']));
     // A declined airworthiness finding stays open: the release guard refuses.
