@@ -92,7 +92,7 @@ test('an engineer raises findings, the manager sends one request, the owner deci
     const owner = await phone.newPage();
     await owner.goto(link);
     await expect(owner.getByRole('heading', { level: 1, name: 'Our quote for Q-SALT' })).toBeVisible();
-    await expect(owner.getByText('Waiting for your decision')).toBeVisible();
+    await expect(owner.getByText('Waiting for your decision', { exact: true })).toBeVisible();
     const price = (await owner.getByTestId('decide-price').locator('p.text-2xl').textContent()) ?? '';
     await shot(owner, testInfo, '00c-owner-quote-375', false);
     await owner.getByRole('radio', { name: /^Accept/ }).check();

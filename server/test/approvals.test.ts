@@ -200,6 +200,8 @@ describe("the owner's decision", () => {
     expect(receipt.text).toContain(`To change a decision, contact ${a.workshop.name}: 01632 960777, desk@approvals.example.`);
     expect(page.snapshot).toMatchObject({ workshopPhone: '01632 960777', workshopEmail: 'desk@approvals.example' });
     for (const word of STAFF_ONLY_WORDS) expect(receipt.text, word).not.toContain(word);
+    // At 375 px the long address wraps: it sits in its own paragraph in a span that may break anywhere.
+    expect(receipt.html).toContain(`into your browser:</p><p style="margin:0;color:#4a5565;font-size:14px"><span style="word-break:break-all;overflow-wrap:anywhere">`);
     const history = (await manager.get(`/api/jobs/${p.job.id}/history`)).body as { action: string; summary: string }[];
     expect(history.map((h) => h.action)).toEqual(expect.arrayContaining(['approval.sent', 'approval.decided', 'job.state_changed']));
     // A declined airworthiness finding stays open: the release guard refuses.
@@ -381,6 +383,7 @@ describe('pre-authorised limit', () => {
     expect(report.text).toContain('F-1 Worn part 1');
     expect(report.text).toContain('under the standing go-ahead you gave them:');
     expect(report.text).toContain('Left of your standing go-ahead on this job: £250.00 incl. VAT.');
+    expect(report.text).toContain(`contact the workshop before the work starts: ${a.workshop.name}: 01632 960777, desk@approvals.example.`);
     expect(report.text).not.toMatch(/limit/);
     // The owner is sent to their own page, never a staff-only one.
     expect(report.text).toMatch(/See your aircraft: http\S*\/my-aircraft\n/);
@@ -426,10 +429,10 @@ describe('reminders and expiry', () => {
     expect((await ApprovalRequest.findByPk(r.id))!.lastRemindedAt?.getTime()).toBe(h(97).getTime());
     expect(early.expired).toBeGreaterThanOrEqual(0);
     // The owner's mailbox also holds other tests' reminders: this one's request is one finding at £19.20.
-    const reminders = await waitForMail(p.ownerEmail, (m) => m.subject.startsWith('Reminder:') && m.text.includes('(£19.20 incl. VAT in all)'));
+    const reminders = await waitForMail(p.ownerEmail, (m) => m.subject.startsWith('Reminder:') && m.text.includes('£19.20 incl. VAT in all'));
     expect(reminders.text).toContain('/decide/');
     expect(reminders.subject).toBe(`Reminder: your decision is needed on ${a.owners[0].aircraft.registration}`);
-    expect(reminders.text).toMatch(/: 1 finding on \S+ \(.*\) \(£19\.20 incl\. VAT in all\) is still waiting for your decision\./);
+    expect(reminders.text).toMatch(/: 1 finding on \S+ \(.*\) is still waiting for your decision: £19\.20 incl\. VAT in all\./);
     expect(await AuditEvent.count({ where: { jobId: p.job.id, action: 'approval.reminded' } })).toBe(2);
     await chaseUndecided(deps(), h(15 * 24));
     expect((await ApprovalRequest.findByPk(r.id))!.state).toBe('expired');

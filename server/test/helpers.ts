@@ -166,6 +166,7 @@ interface MaildevMail {
   id: string;
   subject: string;
   text: string;
+  html?: string;
   to: { address: string }[];
   date?: string;
   time: string;

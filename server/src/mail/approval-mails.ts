@@ -64,7 +64,7 @@ export function approvalReminderMail(p: { to: string; ownerName: string; snapsho
   const one = (s.quote ? 1 : 0) + s.findings.length === 1;
   const lines = [
     `Hello ${p.ownerName},`,
-    `A reminder from ${s.workshopName}: ${whatIsAsked(s)} on ${aircraftLine(s)} (${formatMoney(s.totals.approvingNow.gross, s.currency)} incl. VAT in all) ${one ? 'is' : 'are'} still waiting for your decision. The work cannot start until you decide.`,
+    `A reminder from ${s.workshopName}: ${whatIsAsked(s)} on ${aircraftLine(s)} ${one ? 'is' : 'are'} still waiting for your decision: ${formatMoney(s.totals.approvingNow.gross, s.currency)} incl. VAT in all. The work cannot start until you decide.`,
     `The link works until ${when(p.expiresAt)}.`,
   ];
   return build(p.to, `Reminder: your decision is needed on ${s.registration}`, lines, { href: p.link, label: 'See the details and decide' });
@@ -160,7 +160,7 @@ export function withinLimitReportMail(p: {
     `${p.workshopName} approved the following work on ${p.registration} (${p.jobTitle}) on your behalf, under the standing go-ahead you gave them:`,
     ...p.findings.map((f) => `${f.number} ${f.title} (${f.category}): ${formatMoney(f.gross, p.currency)} incl. VAT`),
     ...(p.headroom !== null ? [`Left of your standing go-ahead on this job: ${formatMoney(p.headroom, p.currency)} incl. VAT.`] : []),
-    `If anything here surprises you, contact ${workshopContactWords(p)} before the work starts.`,
+    `If anything here surprises you, contact the workshop before the work starts: ${workshopContactWords(p)}.`,
   ];
   return build(p.to, `${p.registration}: work approved under your standing go-ahead`, lines, { href: p.link, label: 'See your aircraft' });
 }
