@@ -15,7 +15,7 @@ export async function startParts(config: Config): Promise<AppParts> {
   await sequelize.authenticate();
   initModels(sequelize);
   const photos = createPhotoStore(config);
-  const mail = new MailQueue(config, sequelize, logger.child({ part: 'mail' }));
+  const mail = new MailQueue(config, sequelize, logger.child({ part: 'mail' }), { queue: config.MAIL_QUEUE });
   await mail.start();
   const passwords = new PasswordHasher({ threads: config.PASSWORD_THREADS ?? defaultPasswordThreads(), queue: config.PASSWORD_QUEUE });
   let chaser: ApprovalChaser | undefined;

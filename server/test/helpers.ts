@@ -56,7 +56,9 @@ export const limitNamespace = () => `test-${uniq()}`;
 
 export async function startTestServer(overrides: Record<string, string> = {}): Promise<TestServer> {
   const ownDir = overrides.STORAGE_DIR ? null : tempStorageDir();
-  const all = { RATE_LIMIT_NAMESPACE: limitNamespace(), ...(ownDir ? { STORAGE_DIR: ownDir } : {}), ...overrides };
+  // Its own mail queue: a test server that stops while its worker holds a message would otherwise
+  // leave another test file's e-mail waiting minutes for pg-boss to expire the job.
+  const all = { RATE_LIMIT_NAMESPACE: limitNamespace(), MAIL_QUEUE: `mail-${uniq()}`, ...(ownDir ? { STORAGE_DIR: ownDir } : {}), ...overrides };
   const parts = await startParts(testConfig(all));
   return {
     app: createApp(parts),

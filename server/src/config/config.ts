@@ -132,6 +132,11 @@ const configSchema = z
     APPROVAL_CHASER: bool.default(true),
     /** Off in unit-style tests that do not need mail delivery; on everywhere else. */
     MAIL_WORKER: bool.default(true),
+    /**
+     * The pg-boss queue outgoing mail goes through. Every process of one deployment uses the same;
+     * each API test server takes its own, so no test's worker can hold another test's message.
+     */
+    MAIL_QUEUE: z.string().regex(/^[a-z0-9-]{1,60}$/, { message: 'MAIL_QUEUE: 1–60 lower-case letters, digits or dashes.' }).default('mail-send'),
     ...stripeShape,
   })
   .transform((c) => ({ ...c, COOKIE_SECURE: c.COOKIE_SECURE ?? c.NODE_ENV === 'production', stripeApi: stripeApi(c.STRIPE_API_URL) }))

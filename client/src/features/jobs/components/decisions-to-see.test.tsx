@@ -48,7 +48,7 @@ describe('DecisionsToSeePanel', () => {
     renderWithApp(<DecisionsToSeePanel jobId={TEST_JOB_ID} ownerName="Orla Fenwright" toSee={{ ...plain, declinedAirworthiness: true }} />);
     const panel = screen.getByTestId('decisions-to-see');
     expect(panel.textContent).toContain('Orla Fenwright decided a request');
-    expect(panel.textContent).toContain('cannot be released');
+    expect(panel.textContent).toContain('will not mark this job ready for release');
     expect(panel.textContent).toContain('the inspector decides');
   });
 

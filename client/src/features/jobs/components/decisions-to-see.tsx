@@ -29,7 +29,7 @@ export function DecisionsToSeePanel({ jobId, toSee, ownerName }: { jobId: string
       </p>
       {toSee.declinedAirworthiness ? (
         <p className="text-sm font-semibold">
-          A declined airworthiness item stays open: the aircraft cannot be released with it. Talk it through with the owner; the inspector decides what the aircraft needs.
+          A declined airworthiness item stays open, so Wingstage will not mark this job ready for release. Talk it through with the owner; the inspector decides what the aircraft needs.
         </p>
       ) : null}
       {seen.isError ? (
