@@ -21,3 +21,4 @@ export * from './words.js';
 export * from './money.js';
 export * from './money-format.js';
 export * from './pricing/index.js';
+export * from './documents.js';

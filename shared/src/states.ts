@@ -198,7 +198,7 @@ export function canMoveRequest(from: ApprovalRequestState, to: ApprovalRequestSt
 
 // ─── Enforcement ─────────────────────────────────────────────────────────────
 
-export type StateMachine = 'job' | 'finding' | 'approval_request' | 'payment';
+export type StateMachine = 'job' | 'finding' | 'approval_request' | 'payment' | 'deposit_request' | 'invoice' | 'exception';
 
 /**
  * A forbidden state move. Thrown by the assert functions below; the server's one error handler
@@ -342,4 +342,97 @@ export function assertPaymentMove(from: PaymentState, to: PaymentState): void {
 
 export function isTerminalPaymentState(state: PaymentState): boolean {
   return PAYMENT_TRANSITIONS[state].length === 0;
+}
+
+/** How a payment was taken (vocabulary.md, "payment"): by card through the processor, or offline. */
+export const PAYMENT_METHODS = ['card', 'bank_transfer', 'cash', 'cheque'] as const;
+export type PaymentMethod = (typeof PAYMENT_METHODS)[number];
+export const PAYMENT_METHOD_LABELS: Record<PaymentMethod, string> = {
+  card: 'Card',
+  bank_transfer: 'Bank transfer',
+  cash: 'Cash',
+  cheque: 'Cheque',
+};
+
+/** What a payment is for: a deposit asked before the invoice, or (part of) the invoice's balance. */
+export const PAYMENT_KINDS = ['deposit', 'balance'] as const;
+export type PaymentKind = (typeof PAYMENT_KINDS)[number];
+
+/**
+ * Deposit requests (vocabulary.md): waiting until a payment against it succeeds (paid), or until
+ * staff cancel it (only while nothing has been paid).
+ */
+export const DEPOSIT_REQUEST_STATES = ['waiting', 'paid', 'cancelled'] as const;
+export type DepositRequestState = (typeof DEPOSIT_REQUEST_STATES)[number];
+
+export const DEPOSIT_REQUEST_STATE_LABELS: Record<DepositRequestState, string> = {
+  waiting: 'Waiting for payment',
+  paid: 'Paid',
+  cancelled: 'Cancelled',
+};
+
+export const DEPOSIT_REQUEST_TRANSITIONS: Record<DepositRequestState, readonly DepositRequestState[]> = {
+  waiting: ['paid', 'cancelled'],
+  paid: [],
+  cancelled: [],
+};
+
+export const DEPOSIT_ORIGINS = ['quote_accepted', 'work_approved', 'manual'] as const;
+export type DepositOrigin = (typeof DEPOSIT_ORIGINS)[number];
+
+export function canMoveDepositRequest(from: DepositRequestState, to: DepositRequestState): TransitionCheck {
+  if (DEPOSIT_REQUEST_TRANSITIONS[from].includes(to)) return { ok: true };
+  if (from === to) return { ok: false, reason: `The deposit request is already ${DEPOSIT_REQUEST_STATE_LABELS[to].toLowerCase()}.` };
+  if (from === 'paid' && to === 'cancelled') return { ok: false, reason: 'A paid deposit cannot be cancelled: refund it instead, with a credit note.' };
+  return {
+    ok: false,
+    reason: `A deposit request that is ${DEPOSIT_REQUEST_STATE_LABELS[from].toLowerCase()} cannot become ${DEPOSIT_REQUEST_STATE_LABELS[to].toLowerCase()}.`,
+  };
+}
+
+export function assertDepositRequestMove(from: DepositRequestState, to: DepositRequestState): void {
+  assertCheck('deposit_request', from, to, canMoveDepositRequest(from, to));
+}
+
+/**
+ * VAT invoices: issued (immutable; the balance is owed) → paid once what is received covers it;
+ * credited when credit notes reduce it to nothing. A paid invoice may still be credited (a refund).
+ */
+export const INVOICE_STATES = ['issued', 'paid', 'credited'] as const;
+export type InvoiceState = (typeof INVOICE_STATES)[number];
+
+export const INVOICE_STATE_LABELS: Record<InvoiceState, string> = {
+  issued: 'Issued, balance owed',
+  paid: 'Paid',
+  credited: 'Credited in full',
+};
+
+export const INVOICE_TRANSITIONS: Record<InvoiceState, readonly InvoiceState[]> = {
+  issued: ['paid', 'credited'],
+  paid: ['credited', 'issued'],
+  credited: [],
+};
+
+export function canMoveInvoice(from: InvoiceState, to: InvoiceState): TransitionCheck {
+  if (INVOICE_TRANSITIONS[from].includes(to)) return { ok: true };
+  if (from === to) return { ok: false, reason: `The invoice is already ${INVOICE_STATE_LABELS[to].toLowerCase()}.` };
+  return {
+    ok: false,
+    reason: `An invoice that is ${INVOICE_STATE_LABELS[from].toLowerCase()} cannot become ${INVOICE_STATE_LABELS[to].toLowerCase()}.`,
+  };
+}
+
+export function assertInvoiceMove(from: InvoiceState, to: InvoiceState): void {
+  assertCheck('invoice', from, to, canMoveInvoice(from, to));
+}
+
+/** Accounts' exceptions (vocabulary.md): open until resolved with a note. */
+export const EXCEPTION_STATES = ['open', 'resolved'] as const;
+export type ExceptionState = (typeof EXCEPTION_STATES)[number];
+export const EXCEPTION_STATE_LABELS: Record<ExceptionState, string> = { open: 'Open', resolved: 'Resolved' };
+export const EXCEPTION_TRANSITIONS: Record<ExceptionState, readonly ExceptionState[]> = { open: ['resolved'], resolved: [] };
+
+export function assertExceptionMove(from: ExceptionState, to: ExceptionState): void {
+  const ok = EXCEPTION_TRANSITIONS[from].includes(to);
+  assertCheck('exception', from, to, ok ? { ok: true } : { ok: false, reason: from === to ? `The exception is already ${EXCEPTION_STATE_LABELS[to].toLowerCase()}.` : 'A resolved exception stays resolved.' });
 }

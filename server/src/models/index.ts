@@ -18,6 +18,11 @@ import { TimeLog } from './time-log.model.js';
 import { ApprovalRequest } from './approval-request.model.js';
 import { FindingPhoto } from './finding-photo.model.js';
 import { PaymentEvent } from './payment-event.model.js';
+import { DepositRequest } from './deposit-request.model.js';
+import { Payment } from './payment.model.js';
+import { Refund } from './refund.model.js';
+import { Invoice } from './invoice.model.js';
+import { CreditNote } from './credit-note.model.js';
 
 let bound: Sequelize | null = null;
 
@@ -27,6 +32,7 @@ export function initModels(sequelize: Sequelize): void {
   if (bound) throw new Error('Models are already bound to another database connection.');
   for (const m of [Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken]) m.initModel(sequelize);
   for (const m of [Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest, FindingPhoto, PaymentEvent]) m.initModel(sequelize);
+  for (const m of [DepositRequest, Payment, Refund, Invoice, CreditNote]) m.initModel(sequelize);
 
   Workshop.hasMany(User, { foreignKey: 'workshopId' });
   User.belongsTo(Workshop, { foreignKey: 'workshopId', as: 'workshop' });
@@ -48,6 +54,16 @@ export function initModels(sequelize: Sequelize): void {
   Finding.hasMany(FindingPhoto, { foreignKey: 'findingId', as: 'photos' });
   FindingPhoto.belongsTo(Finding, { foreignKey: 'findingId', as: 'finding' });
   FindingPhoto.belongsTo(User, { foreignKey: 'uploadedBy', as: 'uploader' });
+  Job.hasMany(DepositRequest, { foreignKey: 'jobId', as: 'depositRequests' });
+  Job.hasMany(Payment, { foreignKey: 'jobId', as: 'payments' });
+  Job.hasOne(Invoice, { foreignKey: 'jobId', as: 'invoice' });
+  DepositRequest.hasMany(Payment, { foreignKey: 'depositRequestId', as: 'payments' });
+  Payment.belongsTo(DepositRequest, { foreignKey: 'depositRequestId', as: 'depositRequest' });
+  Payment.belongsTo(Invoice, { foreignKey: 'invoiceId', as: 'invoice' });
+  Payment.hasMany(Refund, { foreignKey: 'paymentId', as: 'refunds' });
+  Refund.belongsTo(Payment, { foreignKey: 'paymentId', as: 'payment' });
+  Invoice.hasMany(CreditNote, { foreignKey: 'invoiceId', as: 'creditNotes' });
+  CreditNote.belongsTo(Invoice, { foreignKey: 'invoiceId', as: 'invoice' });
   bound = sequelize;
 }
 
@@ -56,4 +72,4 @@ export function boundSequelize(): Sequelize {
   return bound;
 }
 
-export { Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken, Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest, FindingPhoto, PaymentEvent };
+export { Workshop, User, Customer, Aircraft, Job, AuditEvent, OneTimeToken, Supplier, Part, JobTemplate, Estimate, EstimateLine, AccessTask, JobChecklistItem, Finding, TimeLog, ApprovalRequest, FindingPhoto, PaymentEvent, DepositRequest, Payment, Refund, Invoice, CreditNote };

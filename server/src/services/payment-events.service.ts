@@ -6,6 +6,9 @@ import { PaymentEvent, boundSequelize } from '../models/index.js';
 import { stripeClient } from '../payments/stripe-client.js';
 import type { PaymentEventOutcome } from '../models/payment-event.model.js';
 import type { Deps } from './deps.js';
+import { CHECKOUT_EVENT_HANDLERS } from '../payments/handlers/checkout.js';
+import { REFUND_EVENT_HANDLERS } from '../payments/handlers/refunds.js';
+import { PAYOUT_EVENT_HANDLERS } from '../payments/handlers/payouts.js';
 
 /**
  * A handler acts on one event inside the transaction that records it, so the record and its effect
@@ -15,7 +18,7 @@ export type PaymentEventHandler = (event: Stripe.Event, ctx: { deps: Deps; trans
 export type PaymentEventHandlers = Partial<Record<Stripe.Event['type'], PaymentEventHandler>>;
 
 /**
- * The types the deposit flow acts on (issue 10). Until a handler for one is registered below, its
+ * The types the payment flows act on. Until a handler for one is registered below, its
  * events are kept with the outcome "recorded"; every other type is acknowledged and "ignored".
  */
 export const PAYMENT_EVENT_TYPES_USED: readonly Stripe.Event['type'][] = [
@@ -24,10 +27,26 @@ export const PAYMENT_EVENT_TYPES_USED: readonly Stripe.Event['type'][] = [
   'payment_intent.succeeded',
   'payment_intent.payment_failed',
   'charge.refunded',
+  'refund.created',
+  'payout.paid',
 ];
 
-/** The handlers in use, by event type. Deposit requests and payments register theirs here. */
-export const PAYMENT_EVENT_HANDLERS: PaymentEventHandlers = {};
+/**
+ * The handlers in use, by event type, gathered from server/src/payments/handlers/ (checkout and
+ * payment intents; refunds; payouts). A type handled twice is a mistake caught at start-up.
+ */
+export const PAYMENT_EVENT_HANDLERS: PaymentEventHandlers = mergeHandlers([CHECKOUT_EVENT_HANDLERS, REFUND_EVENT_HANDLERS, PAYOUT_EVENT_HANDLERS]);
+
+function mergeHandlers(groups: PaymentEventHandlers[]): PaymentEventHandlers {
+  const merged: PaymentEventHandlers = {};
+  for (const group of groups) {
+    for (const [type, handler] of Object.entries(group) as [Stripe.Event['type'], PaymentEventHandler][]) {
+      if (merged[type]) throw new Error(`Two handlers for payment event type ${type}.`);
+      merged[type] = handler;
+    }
+  }
+  return merged;
+}
 
 const SIGNATURE_REFUSED = 'The webhook signature could not be verified: it is missing, made with another secret, older than five minutes, or the body was changed.';
 
