@@ -126,3 +126,28 @@ export interface CreditNoteDocument {
   refund: { amount: string; method: string; paymentId: string } | null;
   notes: string[];
 }
+
+/**
+ * A receipt for one payment received (a deposit or a balance, card or offline). A receipt for a
+ * deposit is not a VAT invoice; it says so, and states the VAT the deposit carries at its tax point.
+ */
+export interface ReceiptDocument {
+  version: 1;
+  kind: 'receipt';
+  /** The payment's id, shown as the receipt's reference. */
+  paymentId: string;
+  receivedOn: string;
+  supplier: DocumentSupplier;
+  customer: DocumentParty & { email: string | null };
+  job: DocumentJob;
+  currency: string;
+  /** What it was for, in the owner's words (e.g. "Deposit: propeller overhaul ordered"). */
+  description: string;
+  amount: string;
+  /** VAT included, fixed at the tax point for a deposit; null when not stated. */
+  vat: string | null;
+  method: string;
+  /** The invoice it pays towards, if issued. */
+  invoiceNumber: string | null;
+  notes: string[];
+}
