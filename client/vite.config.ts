@@ -83,5 +83,8 @@ export default defineConfig(({ isSsrBuild }) => ({
     include: ['src/**/*.test.{ts,tsx}', 'scripts/**/*.test.{ts,mjs}'],
     setupFiles: ['src/testing/setup.ts'],
     restoreMocks: true,
+    // jsdom forms with search pickers take a few seconds each when the two cores are shared (the
+    // default 5 s failed a picker test at load 12); shared allows 30 s and server 90 s likewise.
+    testTimeout: 20_000,
   },
 }));
