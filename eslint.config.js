@@ -68,6 +68,7 @@ export default tseslint.config(
     ignores: [
       '**/node_modules/**',
       '**/dist/**',
+      '**/dist-ssr/**',
       '.local/**',
       'coverage/**',
       'e2e/playwright-report/**',

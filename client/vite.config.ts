@@ -22,7 +22,22 @@ function decideEntry(): Plugin {
   };
 }
 
-export default defineConfig({
+/**
+ * `vite build --ssr` (docker-free-scripts/build-client.sh): the decision page's first view as a
+ * function the server calls (src/decide-ssr.tsx), one self-contained file in client/dist-ssr, loaded
+ * by the server by path. Everything is bundled in, so it needs nothing from client/node_modules.
+ */
+const ssrBuild = {
+  outDir: 'dist-ssr',
+  emptyOutDir: true,
+  ssr: 'src/decide-ssr.tsx',
+  copyPublicDir: false,
+  minify: true,
+  rolldownOptions: { output: { entryFileNames: 'decide-ssr.js' } },
+};
+
+export default defineConfig(({ isSsrBuild }) => ({
+  ssr: isSsrBuild ? { noExternal: true } : undefined,
   plugins: [react(), tailwindcss(), decideEntry()],
   resolve: {
     alias: { '@': fileURLToPath(new URL('./src', import.meta.url)) },
@@ -32,7 +47,7 @@ export default defineConfig({
     port: 5173,
     proxy: { '/api': 'http://127.0.0.1:3000' },
   },
-  build: {
+  build: isSsrBuild ? ssrBuild : {
     outDir: 'dist',
     emptyOutDir: true,
     // Two pages: the app, and the owner's decision page with only what it needs.
@@ -68,5 +83,8 @@ export default defineConfig({
     include: ['src/**/*.test.{ts,tsx}', 'scripts/**/*.test.{ts,mjs}'],
     setupFiles: ['src/testing/setup.ts'],
     restoreMocks: true,
+    // jsdom forms with search pickers take a few seconds each when the two cores are shared (the
+    // default 5 s failed a picker test at load 12); shared allows 30 s and server 90 s likewise.
+    testTimeout: 20_000,
   },
-});
+}));

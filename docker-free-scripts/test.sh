@@ -31,6 +31,8 @@ record() { # stage status seconds
 cleanup() {
   local rc=$?
   set +e
+  # A run stopped before its browser stage: the background preparation ends with it.
+  if [ -n "${prep_pid:-}" ]; then kill "$prep_pid" 2>/dev/null; wait "$prep_pid" 2>/dev/null; fi
   [ "$started_app" = 1 ] && bash "$SCRIPTS/app.sh" stop >/dev/null
   if [ "${WS_KEEP_SERVICES:-0}" != 1 ]; then
     [ "$started_mail" = 1 ] && bash "$SCRIPTS/maildev.sh" stop
@@ -96,20 +98,43 @@ run_unit() {
   else record "vitest" failed $(( $(date +%s) - t )); fi
 }
 
+# What the browser stage needs before its app can start: the client build (with the decision
+# page's first-view renderer) and a fresh, migrated, seeded e2e database. Neither depends on the
+# earlier stages, so a full run makes them in the background while tsc, ESLint and vitest run
+# (vitest's server tests mostly wait on PostgreSQL, bcrypt and mail, so the cores are free).
+e2e_prep() {
+  if ! bash "$SCRIPTS/build-client.sh"; then echo "client build" >"$RUN_DIR/e2e-prep.failed"; return 1; fi
+  if ! { bash "$SCRIPTS/postgres.sh" recreate-db "$WS_E2E_DB" >/dev/null \
+      && DATABASE_URL="$E2E_DB_URL" npm run --silent migrate -w server >"$LOG_DIR/migrate-e2e.log" 2>&1 \
+      && DATABASE_URL="$E2E_DB_URL" npm run --silent seed -w server >"$LOG_DIR/seed-e2e.log" 2>&1; }; then
+    tail -n 30 "$LOG_DIR/migrate-e2e.log" "$LOG_DIR/seed-e2e.log" 2>/dev/null >&2
+    echo "e2e database" >"$RUN_DIR/e2e-prep.failed"; return 1
+  fi
+}
+E2E_DB_URL="postgres://postgres@127.0.0.1:$WS_PG_PORT/$WS_E2E_DB"
+prep_pid=""
+start_e2e_prep() {
+  # Two runs in one checkout would share port $WS_APP_PORT and the e2e database: take turns. The
+  # lock is this shell's from here to the end of the browser stage (the background step shares it).
+  exec 9>"$RUN_DIR/e2e.lock"
+  if ! flock -n 9; then say "another npm test is in its browser stage here; waiting for it"; flock -w 1800 9 || die "waited 30 minutes for the other run"; fi
+  rm -f "$RUN_DIR/e2e-prep.failed" "$RUN_DIR/e2e-prep.seconds"
+  say "preparing the browser stage in the background (client build, e2e database; log: .local/logs/e2e-prep.log)"
+  ( b=$(date +%s); e2e_prep && echo $(( $(date +%s) - b )) >"$RUN_DIR/e2e-prep.seconds" ) >"$LOG_DIR/e2e-prep.log" 2>&1 &
+  prep_pid=$!
+}
+
 run_e2e() {
   local t=$(date +%s)
-  # Two runs in one checkout would share port $WS_APP_PORT and the e2e database: take turns.
-  exec 9>"$RUN_DIR/e2e.lock"
-  if ! flock -n 9; then say "another npm test is in its browser stage here; waiting for it"; flock -w 1800 9 || { record "e2e set-up" failed 0; return; }; fi
-  if ! bash "$SCRIPTS/build-client.sh"; then record "client build" failed $(( $(date +%s) - t )); return; fi
-  export DATABASE_URL="postgres://postgres@127.0.0.1:$WS_PG_PORT/$WS_E2E_DB"
-  export E2E_DATABASE_URL="$DATABASE_URL"
-  if ! { bash "$SCRIPTS/postgres.sh" recreate-db "$WS_E2E_DB" \
-      && npm run --silent migrate -w server >"$LOG_DIR/migrate-e2e.log" 2>&1 \
-      && npm run --silent seed -w server >"$LOG_DIR/seed-e2e.log" 2>&1; }; then
-    tail -n 30 "$LOG_DIR/migrate-e2e.log" "$LOG_DIR/seed-e2e.log" 2>/dev/null >&2
-    record "e2e database" failed $(( $(date +%s) - t )); return
+  if [ -z "$prep_pid" ]; then start_e2e_prep; fi
+  if ! wait "$prep_pid" || [ -f "$RUN_DIR/e2e-prep.failed" ]; then
+    cat "$LOG_DIR/e2e-prep.log" >&2
+    record "e2e set-up ($(cat "$RUN_DIR/e2e-prep.failed" 2>/dev/null || echo prep))" failed $(( $(date +%s) - t )); return
   fi
+  prep_pid=""
+  record "e2e prep (background)" passed "$(cat "$RUN_DIR/e2e-prep.seconds" 2>/dev/null || echo '?')"
+  export DATABASE_URL="$E2E_DB_URL"
+  export E2E_DATABASE_URL="$DATABASE_URL"
   if bash "$SCRIPTS/app.sh" status >/dev/null 2>&1; then
     record "e2e app" failed 0; say "an app from an earlier run still holds the test pid file; run: WS_PROFILE=test npm run stop" >&2; return
   fi
@@ -128,5 +153,5 @@ case "$only" in
   types) run_types ;;
   unit) run_unit "$@" ;;
   e2e) run_e2e "$@" ;;
-  *) run_types; run_unit; run_e2e ;;
+  *) start_e2e_prep; run_types; run_unit; run_e2e ;;
 esac

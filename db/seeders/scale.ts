@@ -96,8 +96,8 @@ export async function seedScale(sequelize: Sequelize, workshopId: string, log: (
       INSERT INTO approval_request_findings (job_id, request_id, finding_id, position)
       SELECT f.job_id, r.id, f.id, f.seq FROM findings f JOIN scale_jobs j ON j.id = f.job_id JOIN approval_requests r ON r.job_id = f.job_id`);
     await step('decisions', `
-      INSERT INTO approval_decisions (job_id, request_id, finding_id, decision, note)
-      SELECT arf.job_id, arf.request_id, arf.finding_id, CASE WHEN f.state = 'declined' THEN 'decline' ELSE 'approve' END, ''
+      INSERT INTO approval_decisions (job_id, request_id, finding_id, item_id, decision, note)
+      SELECT arf.job_id, arf.request_id, arf.finding_id, arf.finding_id::text, CASE WHEN f.state = 'declined' THEN 'decline' ELSE 'approve' END, ''
       FROM approval_request_findings arf JOIN approval_requests r ON r.id = arf.request_id AND r.state = 'decided'
       JOIN findings f ON f.id = arf.finding_id JOIN scale_jobs j ON j.id = arf.job_id`);
     await step('job counter', `

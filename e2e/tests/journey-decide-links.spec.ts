@@ -111,11 +111,25 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
 
   await test.step('the owner opens the link on a phone: photo full screen, and part-way choices charge the cowling once', async () => {
     const scripts = new Set<string>();
+    const asked: string[] = [];
+    const problems: string[] = [];
     phone.on('response', (r) => {
       if (r.request().resourceType() === 'script') scripts.add(new URL(r.url()).pathname);
+      if (/^\/api\/decide\/[\w-]+$/.test(new URL(r.url()).pathname)) asked.push(r.url());
     });
-    await phone.goto(first);
+    phone.on('console', (m) => void (m.type() === 'error' && problems.push(m.text())));
+    // The first view comes in the HTML, rendered on the server: the letter and the first finding
+    // are there before any script runs.
+    const html = await (await phone.request.get(first)).text();
+    expect(html.replace(/<!-- -->/g, '')).toContain('Finding 1 of 2');
+    const answer = await phone.goto(first);
+    expect(answer?.status()).toBe(200);
     await expect(phone.getByText('Finding 1 of 2')).toBeVisible();
+    // React takes over that markup (its handlers are on the server's elements) without asking for
+    // the data again, and without a mismatch to complain of.
+    await expect.poll(() => phone.locator('main h1').evaluate((h) => Object.keys(h).some((k) => k.startsWith('__react')))).toBe(true);
+    expect(asked, 'the page asked the API for data it already had').toEqual([]);
+    expect(problems, problems.join('\n')).toEqual([]);
     // The page's own entry: not the app with its router and shell.
     expect([...scripts].some((s) => /\/assets\/main-/.test(s)), [...scripts].join(' ')).toBe(false);
     const photo = phone.getByRole('img', { name: `Photo 1 of F-1: ${springTitle}` });

@@ -62,7 +62,7 @@ test('leaving the estimate with unsaved changes asks first @approval', async ({ 
 });
 
 test('at 375 px: the engineer starts in the Hangar with the cautions, the owner reads the letter, the admin sets the link life @approval', async ({ browser, baseURL }, testInfo) => {
-  test.skip(testInfo.project.name !== 'phone', 'The phone-width screens.');
+  test.skip(testInfo.project.name !== 'desktop', 'Its own 375 px windows: runs once.');
   test.setTimeout(300_000);
   const phone = () => browser.newContext({ baseURL, viewport: PHONE, isMobile: true, hasTouch: true, locale: 'en-GB', timezoneId: 'Europe/London' });
 

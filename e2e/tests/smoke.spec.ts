@@ -11,7 +11,7 @@ test.describe('smoke', () => {
     expect(await response.json()).toMatchObject({ status: 'ok', app: 'ok', database: 'ok' });
   });
 
-  test('when someone opens the sign-in page, then it shows the Wingstage mark, a heading and labelled fields', async ({
+  test('when someone opens the sign-in page, then it shows the Wingstage mark, a heading and labelled fields @phone', async ({
     page,
   }, testInfo) => {
     const response = await page.goto('/sign-in');

@@ -66,12 +66,18 @@ try {
       const w = window;
       w.__lcp = { time: 0, what: '' };
       new PerformanceObserver((list) => {
-        for (const e of list.getEntries()) w.__lcp = { time: e.startTime, what: `${e.element?.tagName ?? '?'} ${(e.element?.textContent ?? '').trim().slice(0, 40)}` };
+        for (const e of list.getEntries()) {
+          w.__lcp = { time: e.startTime, what: `${e.element?.tagName ?? '?'} ${(e.element?.textContent ?? '').trim().slice(0, 40)}` };
+          (w.__candidates ??= []).push(`${(e.startTime / 1000).toFixed(2)} s ${e.size} px² ${e.element?.tagName ?? '?'}`);
+        }
       }).observe({ type: 'largest-contentful-paint', buffered: true });
-      // When the owner's letter (its h1) is first in the page.
+      // When the owner's letter (its h1) is first in the page; that element is marked, so a later
+      // look tells whether React took over the server's markup (same element) or replaced it.
       new MutationObserver((_, obs) => {
-        if (document.querySelector('main h1')) {
+        const h1 = document.querySelector('main h1');
+        if (h1) {
           w.__shown = performance.now();
+          h1.__first = true;
           obs.disconnect();
         }
       }).observe(document, { childList: true, subtree: true });
@@ -83,7 +89,8 @@ try {
     const urls = new Map();
     cdp.on('Network.requestWillBeSent', (e) => {
       urls.set(e.requestId, e.request.url);
-      if (e.request.url.includes('/api/decide/') && !dataAsked) dataAsked = e.timestamp;
+      // The page's data (not its photos): asked for only when the HTML came without it.
+      if (/\/api\/decide\/[A-Za-z0-9_-]+$/.test(new URL(e.request.url).pathname) && !dataAsked) dataAsked = e.timestamp;
     });
     cdp.on('Network.loadingFinished', (e) => {
       if (urls.get(e.requestId)?.endsWith('.js')) {
@@ -92,18 +99,39 @@ try {
         lastScriptDone = Math.max(lastScriptDone, e.timestamp);
       }
     });
+    const problems = [];
+    page.on('console', (msg) => {
+      if (msg.type() === 'error') problems.push(msg.text().slice(0, 120));
+    });
+    page.on('pageerror', (err) => problems.push(String(err).slice(0, 120)));
+    // BENCH_LCP_TRACE=<folder>: a Chromium trace of each run (open in DevTools' Performance panel).
+    if (process.env.BENCH_LCP_TRACE) await browser.startTracing(page, { path: `${process.env.BENCH_LCP_TRACE}/lcp-run-${i + 1}.json`, screenshots: true });
     const navStart = Date.now();
     await page.goto(link, { waitUntil: 'load', timeout: 120_000 });
     await page.locator('main h1').first().waitFor({ timeout: 120_000 });
+    // Until React has run (the page's buttons answer), then a little longer for a late paint.
+    await page.waitForFunction(() => Object.keys(document.querySelector('main h1') ?? {}).some((k) => k.startsWith('__react')), null, { timeout: 120_000 });
     await page.waitForTimeout(1500);
-    const m = await page.evaluate(() => ({ lcp: window.__lcp, shown: window.__shown ?? 0, nav: performance.getEntriesByType('navigation')[0]?.responseEnd ?? 0 }));
+    const m = await page.evaluate(() => ({
+      lcp: window.__lcp,
+      shown: window.__shown ?? 0,
+      nav: performance.getEntriesByType('navigation')[0]?.responseEnd ?? 0,
+      kept: document.querySelector('main h1')?.__first === true,
+      inHtml: document.getElementById('wingstage-decide-data') !== null,
+      candidates: window.__candidates ?? [],
+      fonts: performance.getEntriesByType('resource').filter((r) => /\.woff2?$/.test(r.name)).map((r) => (r.responseEnd / 1000).toFixed(2)),
+    }));
+    if (process.env.BENCH_LCP_TRACE) await browser.stopTracing();
+    if (process.env.BENCH_LCP_VERBOSE) console.log(`  largest-paint candidates: ${m.candidates.join(', ')}; fonts arrived at ${m.fonts.join(', ') || 'none'} s`);
     // Seconds between asking for the decision data and the last script arriving: positive means the
     // data was asked for while the scripts were still on their way.
     const ahead = lastScriptDone && dataAsked ? lastScriptDone - dataAsked : 0;
-    runs.push({ lcp: m.lcp.time, lcpElement: m.lcp.what, shown: m.shown, htmlDone: m.nav, jsBytes, scripts, dataAskedAheadOfScripts: ahead, wall: Date.now() - navStart });
+    runs.push({ lcp: m.lcp.time, lcpElement: m.lcp.what, shown: m.shown, htmlDone: m.nav, jsBytes, scripts, dataInHtml: m.inHtml, markupKept: m.kept, problems, dataAskedAheadOfScripts: ahead, wall: Date.now() - navStart });
+    const data = m.inHtml && !dataAsked ? 'data in the HTML' : `data asked ${ahead >= 0 ? `${ahead.toFixed(2)} s before` : `${(-ahead).toFixed(2)} s after`} the last script arrived`;
     console.log(
       `run ${i + 1}: LCP ${(m.lcp.time / 1000).toFixed(2)} s (${m.lcp.what}), letter on screen ${(m.shown / 1000).toFixed(2)} s, HTML done ${(m.nav / 1000).toFixed(2)} s, ` +
-        `${scripts} scripts, ${jsBytes} B of JavaScript transferred, data asked ${ahead >= 0 ? `${ahead.toFixed(2)} s before` : `${(-ahead).toFixed(2)} s after`} the last script arrived`,
+        `${scripts} scripts, ${jsBytes} B of JavaScript transferred, ${data}, ${m.kept ? "React took over the server's markup" : 'the page was drawn by the scripts'}` +
+        `${problems.length ? `; console errors: ${problems.join(' | ')}` : ''}`,
     );
     await context.close();
   }

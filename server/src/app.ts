@@ -26,6 +26,7 @@ import { createRateLimits } from './lib/rate-limits.js';
 import type { PhotoStore } from './storage/index.js';
 import { webhooksRoutes } from './routes/webhooks.routes.js';
 import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
+import { decidePage } from './routes/decide-page.routes.js';
 
 export interface AppParts {
   config: Config;
@@ -168,8 +169,9 @@ export function createApp(parts: AppParts): Express {
       res.setHeader('Cache-Control', 'no-cache');
       res.sendFile(file);
     };
-    // The e-mailed link, /decide/<token>, opens the decision page on its own.
-    app.get('/decide/{*splat}', page(decideHtml));
+    // The e-mailed link, /decide/<token>, opens the decision page on its own, its first view
+    // rendered on the server when the build has the renderer (routes/decide-page.routes.ts).
+    app.get('/decide/{*splat}', decideHtml === indexHtml ? page(indexHtml) : decidePage({ dist: config.CLIENT_DIST, htmlFile: decideHtml, limiter: limits.decideAddress, logger }));
     // Client-side routes: any other GET, the root included, gets the app shell.
     app.get('/{*splat}', page(indexHtml));
   } else {

@@ -33,7 +33,8 @@ describe("the owner's decision page has its own entry", () => {
     expect(link.status).toBe(200);
     expect(link.type).toBe('text/html');
     expect(link.text).toContain('decision page');
-    expect(link.headers['cache-control']).toBe('no-cache');
+    // It may carry the owner's letter (its first view is rendered on the server): never stored.
+    expect(link.headers['cache-control']).toBe('no-store');
     expect((await request(server.app).get('/decide/AbCdEf0123456789_-xyz/')).text).toContain('decision page');
     for (const p of ['/', '/jobs', '/jobs/123', '/my-aircraft', '/decided']) {
       const res = await request(server.app).get(p);

@@ -11,6 +11,7 @@ import {
   type quotePhoneAgreementSchema,
   FINDING_STATE_LABELS,
   estimateEngineInput,
+  lineFiguresOf,
   priceEstimate,
   type AccessTaskDto,
   type EstimateDto,
@@ -83,14 +84,18 @@ function taskDto(a: AccessTask): AccessTaskDto {
 
 const stageOrder = (s: string) => ESTIMATE_STAGES.indexOf(s as (typeof ESTIMATE_STAGES)[number]);
 
-export async function loadLines(scope: Scope, jobId: string, t?: Transaction): Promise<{ lines: EstimateLineDto[]; accessTasks: AccessTaskDto[] }> {
+/** Who agreed an inspection line of the quote, how and when (null while unagreed). */
+type Agreement = Pick<EstimateLine, 'agreedAt' | 'agreedHow' | 'agreedBy'>;
+
+export async function loadLines(scope: Scope, jobId: string, t?: Transaction): Promise<{ lines: EstimateLineDto[]; accessTasks: AccessTaskDto[]; agreements: Agreement[] }> {
   const [lines, tasks] = await Promise.all([
     // Plain rows: up to 2,000 lines become DTOs at once, and model instances cost more than the query.
     EstimateLine.findAll({ where: inWorkshop(scope, { jobId }), order: [['sortOrder', 'ASC'], ['id', 'ASC']], transaction: t, raw: true }),
     AccessTask.findAll({ where: inWorkshop(scope, { jobId }), order: [['sortOrder', 'ASC'], ['id', 'ASC']], transaction: t, raw: true }),
   ]);
   const sorted = [...lines].sort((a, b) => stageOrder(a.stage) - stageOrder(b.stage));
-  return { lines: sorted.map(lineDto), accessTasks: tasks.map(taskDto) };
+  const agreements = lines.filter((l) => l.stage === 'inspection').map((l) => ({ agreedAt: l.agreedAt, agreedHow: l.agreedHow, agreedBy: l.agreedBy }));
+  return { lines: sorted.map(lineDto), accessTasks: tasks.map(taskDto), agreements };
 }
 
 function priced(w: Workshop, lines: EstimateLineDto[], tasks: AccessTaskDto[]): PricedEstimate {
@@ -98,11 +103,10 @@ function priced(w: Workshop, lines: EstimateLineDto[], tasks: AccessTaskDto[]): 
 }
 
 /** The quote's state, derived from the inspection lines' agreement and the requests that hold it. */
-async function quoteDto(jobId: string, p: PricedEstimate, t: Transaction): Promise<EstimateQuoteDto> {
-  const rows = await EstimateLine.findAll({ where: { jobId, stage: 'inspection' }, attributes: ['agreedAt', 'agreedHow', 'agreedBy'], transaction: t });
+async function quoteDto(jobId: string, p: PricedEstimate, rows: Agreement[], t: Transaction): Promise<EstimateQuoteDto> {
   const agreed = rows.filter((r) => r.agreedAt !== null);
   const facts = await quoteRequestFacts(jobId, t);
-  const last = agreed.reduce<EstimateLine | null>((a, r) => (a === null || r.agreedAt! > a.agreedAt! ? r : a), null);
+  const last = agreed.reduce<Agreement | null>((a, r) => (a === null || r.agreedAt! > a.agreedAt! ? r : a), null);
   return {
     state: quoteStateOf({ agreedLines: agreed.length, unagreedLines: rows.length - agreed.length, quoteRequestOpen: facts.openRequestId !== null, lastQuoteDecision: facts.lastDecision }),
     awaitingGross: p.quoteAwaiting.gross,
@@ -118,9 +122,10 @@ async function estimateDto(scope: Scope, jobId: string, t?: Transaction): Promis
     // A read takes the existing row; only a job made outside the service needs its row inserted.
     const est = (await Estimate.findOne({ where: inWorkshop(scope, { jobId }), transaction: tx, raw: true })) ?? (await ensureEstimate(scope, jobId, tx));
     const w = await loadWorkshop(scope, tx);
-    const { lines, accessTasks } = await loadLines(scope, jobId, tx);
+    // The quote's agreement comes from the lines just read (no second look at them).
+    const { lines, accessTasks, agreements } = await loadLines(scope, jobId, tx);
     const p = priced(w, lines, accessTasks);
-    return { jobId, version: est.version, currency: w.currency, lines, accessTasks, priced: p, quote: await quoteDto(jobId, p, tx) };
+    return { jobId, version: est.version, currency: w.currency, lines, accessTasks, priced: lineFiguresOf(p), quote: await quoteDto(jobId, p, agreements, tx) };
   };
   // Repeatable read: the version and the lines come from one snapshot, even while someone saves.
   return t ? run(t) : inTransaction(run, { isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ });

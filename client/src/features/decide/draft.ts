@@ -28,6 +28,19 @@ export const DRAFT_DISCARD_WORDS: Record<DraftDiscard, string> = {
 const KEY_PREFIX = 'wingstage.decision-draft.';
 const draftKey = (requestId: string) => `${KEY_PREFIX}${requestId}`;
 
+/**
+ * True when this device keeps choices for the request (or cannot say): the page then starts from
+ * them, which the server's first view, made without them, does not show.
+ */
+export function hasStoredDraft(storage: Storage | null, requestId: string): boolean {
+  if (!storage) return false;
+  try {
+    return storage.getItem(draftKey(requestId)) !== null;
+  } catch {
+    return true;
+  }
+}
+
 interface StoredDraft {
   v: 1;
   snapshotHash: string;

@@ -90,13 +90,15 @@ export async function jobOwner(jobId: string, t?: Transaction): Promise<{ name: 
 
 /** What the quote's state needs from the requests: the open one holding it, and the owner's last decision on it. */
 export async function quoteRequestFacts(jobId: string, t?: Transaction): Promise<{ openRequestId: string | null; lastDecision: Decision | null }> {
-  const open = await ApprovalRequest.findOne({ where: { jobId, includesQuote: true, state: OPEN_REQUEST }, attributes: ['id'], order: [['sentAt', 'DESC']], transaction: t });
-  const [last] = await boundSequelize().query<{ decision: Decision }>(
-    `SELECT d.decision FROM approval_decisions d JOIN approval_requests r ON r.id = d.request_id
-      WHERE r.job_id = $1 AND d.finding_id IS NULL ORDER BY r.decided_at DESC LIMIT 1`,
-    { bind: [jobId], type: QueryTypes.SELECT, transaction: t },
+  // One round trip: the newest open request holding the quote, and the owner's last word on it.
+  const [row] = await boundSequelize().query<{ open_id: string | null; decision: Decision | null }>(
+    `SELECT (SELECT r.id FROM approval_requests r
+              WHERE r.job_id = $1 AND r.includes_quote AND r.state = $2 ORDER BY r.sent_at DESC LIMIT 1) AS open_id,
+            (SELECT d.decision FROM approval_decisions d JOIN approval_requests r ON r.id = d.request_id
+              WHERE r.job_id = $1 AND d.finding_id IS NULL ORDER BY r.decided_at DESC LIMIT 1) AS decision`,
+    { bind: [jobId, OPEN_REQUEST], type: QueryTypes.SELECT, transaction: t },
   );
-  return { openRequestId: open?.id ?? null, lastDecision: last?.decision ?? null };
+  return { openRequestId: row?.open_id ?? null, lastDecision: row?.decision ?? null };
 }
 
 /**

@@ -8,6 +8,7 @@ import {
   type PricedChoice,
   type SendForApprovalResultDto,
   type WorkshopDto,
+  pricedEstimateOf,
 } from '@wingstage/shared';
 import { useId, useState } from 'react';
 import { Button } from '@/components/ui/button';
@@ -21,7 +22,7 @@ import { SENDING } from '../words';
 export const sendable = (f: FindingDto) => f.state === 'priced';
 
 /** The quote can be put to the owner while some inspection line is unagreed and no request holds it yet. */
-export const quoteSendable = (e: EstimateDto) => e.quote.state !== 'sent' && e.priced.lines.some((l) => l.stage === 'inspection' && !l.agreed);
+export const quoteSendable = (e: EstimateDto) => e.quote.state !== 'sent' && e.lines.some((l) => l.stage === 'inspection' && l.agreedAt === null);
 
 /** The tick beside each priced finding in the findings panel. */
 export function SendTick({ finding, checked, onChange }: { finding: FindingDto; checked: boolean; onChange: (on: boolean) => void }) {
@@ -43,7 +44,7 @@ export function sendPreview(estimate: EstimateDto, vatRates: WorkshopDto['vatRat
   if (!request.quote && request.findingIds.length === 0) return null;
   const names = new Map(estimate.accessTasks.map((t) => [t.id, t.name]));
   try {
-    const basis = choiceBasisFrom(estimate.priced, request, vatRates, (id) => names.get(id) ?? 'Opening-up work');
+    const basis = choiceBasisFrom(pricedEstimateOf(estimate), request, vatRates, (id) => names.get(id) ?? 'Opening-up work');
     return priceChoice(basis, Object.fromEntries(basis.items.map((i) => [i.id, 'approve' as const])));
   } catch {
     return null;

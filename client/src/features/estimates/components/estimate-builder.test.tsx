@@ -67,7 +67,7 @@ function estimateOf(lines: EstimateLineDto[], version = 3): EstimateDto {
     currency: 'GBP',
     lines,
     accessTasks: [],
-    priced,
+    priced: shared.lineFiguresOf(priced),
     quote: { state: 'agreed', awaitingGross: priced.quoteAwaiting.gross, agreedBy: null, agreedAt: '2026-11-30T09:00:00Z', agreedHow: 'recorded_before', openRequestId: null },
   };
 }
@@ -114,7 +114,7 @@ describe('EstimateBuilder', () => {
 
   it('lays out whatever the engine returns rather than adding lines up itself', () => {
     const estimate = estimateOf([line({})]);
-    const real = estimate.priced;
+    const real = shared.pricedEstimateOf(estimate);
     vi.mocked(shared.priceEstimate).mockImplementation(() => ({ ...real, quoted: { ...real.quoted, gross: '1234.56' } }));
     renderWithApp(<Harness estimate={estimate} />);
     expect(screen.getByTestId('total-quoted-gross').textContent).toBe('£1,234.56 incl. VAT');
