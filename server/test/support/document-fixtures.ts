@@ -62,7 +62,7 @@ export function anInvoice(over: Partial<InvoiceDocument> = {}): InvoiceDocument 
     ],
     byRate: [{ vatRate: 'standard', vatPercent: '20', net: '1200.00', vat: '240.00' }],
     totals: { net: '1200.00', vat: '240.00', gross: '1440.00' },
-    deposits: [{ paymentId: 'pay_3f9a1c', receivedOn: '2026-10-28', amount: '300.00', vat: '50.00', method: 'card', reference: 'Deposit on accepting the quote' }],
+    deposits: [{ paymentId: 'pay_3f9a1c', receivedOn: '2026-10-28', amount: '300.00', vat: '50.00', method: 'card', reference: 'Quote deposit' }],
     depositsVat: '50.00',
     balance: { net: '950.00', vat: '190.00', gross: '1140.00' },
     balanceDue: '1140.00',

@@ -1,11 +1,10 @@
 import Decimal from 'decimal.js';
 import { Text, View } from '@react-pdf/renderer';
-import type { InvoiceDocument, InvoiceDocumentLine } from '@wingstage/shared';
+import { PAYMENT_METHOD_LABELS, type InvoiceDocument, type InvoiceDocumentLine } from '@wingstage/shared';
 import { DocumentFrame, Facts, H2, Notice, P, Party, Sums, Table, day, money, quantity, s, type Column, type Row } from './kit.js';
 
-/** Payment methods in words. */
-export const METHOD_WORDS: Record<string, string> = { card: 'Card', bank_transfer: 'Bank transfer', cash: 'Cash', cheque: 'Cheque' };
-export const methodWords = (m: string) => METHOD_WORDS[m] ?? m;
+/** A payment method in words (the shared labels; a method stored before a label existed prints as stored). */
+export const methodWords = (m: string) => (PAYMENT_METHOD_LABELS as Record<string, string>)[m] ?? m;
 
 const STAGE_WORDS: Record<InvoiceDocumentLine['stage'], string> = {
   inspection: 'Inspection scope',
