@@ -1,8 +1,10 @@
 import { execFileSync } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { formatMoney, type DecisionPageDto, type EstimateDto, type EstimateLineInputForm, type SendForApprovalResultDto } from '@wingstage/shared';
+import { formatMoney, type DecisionPageDto, type EstimateDto, type EstimateLineInputForm, type JobDocumentsDto, type SendForApprovalResultDto } from '@wingstage/shared';
 import { renderInvoicePdf, renderReceiptPdf } from '../src/documents/index.js';
 import { CreditNote, Invoice, Job } from '../src/models/index.js';
 import { aCreditNote, aLongInvoice, aReceipt, anInvoice } from './support/document-fixtures.js';
@@ -25,7 +27,12 @@ function binary(res: import('node:http').IncomingMessage, done: (err: Error | nu
   res.on('data', (c: Buffer) => chunks.push(c));
   res.on('end', () => done(null, Buffer.concat(chunks)));
 }
-const getPdf = (c: Client, path: string) => c.get(path).buffer(true).parse(binary as unknown as Parameters<ReturnType<Client['get']>['parse']>[0]);
+/** WS_PDF_DIR=<folder> keeps each PDF a test fetched, to render with pdftoppm and look at. */
+function keep(name: string, pdf: Buffer): Buffer {
+  if (process.env.WS_PDF_DIR) fs.writeFileSync(path.join(process.env.WS_PDF_DIR, `${name}.pdf`), pdf);
+  return pdf;
+}
+const getPdf = (c: Client, url: string) => c.get(url).buffer(true).parse(binary as unknown as Parameters<ReturnType<Client['get']>['parse']>[0]);
 
 let server: TestServer;
 let a: WorkshopFixture;
@@ -102,7 +109,7 @@ describe('the VAT invoice PDF', () => {
     expect(res.headers['content-type']).toBe('application/pdf');
     const inv = (await Invoice.findByPk(invoiceId))!;
     expect(res.headers['content-disposition']).toBe(`attachment; filename="invoice-${inv.number}-Q-BRKA.pdf"`);
-    const pdf = res.body as Buffer;
+    const pdf = keep('invoice', res.body as Buffer);
     expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
     const text = flat(pdfText(pdf));
     // VAT Regulations 1995 reg 14(1), restated in HMRC VAT Notice 700 §16.3 (sources.md):
@@ -180,7 +187,7 @@ describe('the credit note PDF', () => {
     const cn = (await CreditNote.findByPk(creditNoteId))!;
     const inv = (await Invoice.findByPk(invoiceId))!;
     expect(res.headers['content-disposition']).toBe(`attachment; filename="credit-note-${cn.number}-Q-BRKA.pdf"`);
-    const text = flat(pdfText(res.body as Buffer));
+    const text = flat(pdfText(keep('credit-note', res.body as Buffer)));
     // VAT Regulations 1995 reg 38 and HMRC manual VATREC13040 (sources.md): its own number and date,
     // the original invoice's number and date, the VAT credited, both parties.
     expect(text).toContain(`Credit note number ${cn.number}`);
@@ -196,6 +203,26 @@ describe('the credit note PDF', () => {
   it('when another owner or workshop asks for it, then it is not found', async () => {
     expect((await otherOwner.get(`/api/credit-notes/${creditNoteId}/pdf`)).status).toBe(404);
     expect((await elsewhere.get(`/api/credit-notes/${creditNoteId}/pdf`)).status).toBe(404);
+  });
+});
+
+describe("the job's documents list", () => {
+  it("when the owner lists their job's documents, then the estimate, the invoice and its credit note come with their download paths; others get 404", async () => {
+    const inv = (await Invoice.findByPk(invoiceId))!;
+    const res = await owner.get(`/api/jobs/${inv.jobId}/documents`);
+    expect(res.status).toBe(200);
+    const docs = res.body as JobDocumentsDto;
+    expect(docs.estimate.path).toBe(`/api/jobs/${inv.jobId}/estimate.pdf`);
+    expect(docs.invoice).toMatchObject({ id: invoiceId, number: inv.number, path: `/api/invoices/${invoiceId}/pdf` });
+    expect(docs.creditNotes.map((c) => c.path)).toEqual([`/api/credit-notes/${creditNoteId}/pdf`]);
+    expect(docs.decisionRecords).toEqual([]);
+    // Every path it gives downloads.
+    expect((await getPdf(owner, docs.creditNotes[0]!.path)).status).toBe(200);
+    expect((await otherOwner.get(`/api/jobs/${inv.jobId}/documents`)).status).toBe(404);
+    expect((await elsewhere.get(`/api/jobs/${inv.jobId}/documents`)).status).toBe(404);
+    const none = (await manager.get(`/api/jobs/${a.owners[1].job.id}/documents`)).body as JobDocumentsDto;
+    expect(none.invoice).toBeNull();
+    expect(none.creditNotes).toEqual([]);
   });
 });
 
@@ -229,7 +256,7 @@ describe('the estimate PDF', () => {
     const res = await getPdf(owner, `/api/jobs/${job.id}/estimate.pdf`);
     expect(res.status).toBe(200);
     expect(res.headers['content-disposition']).toBe(`attachment; filename="estimate-${job.number}-${a.owners[0].aircraft.registration}.pdf"`);
-    const text = flat(pdfText(res.body as Buffer));
+    const text = flat(pdfText(keep('estimate', res.body as Buffer)));
     expect(text).toContain('Inspection scope');
     // pdftotext may close up the narrow space before a unit ("6h").
     expect(text).toMatch(/Annual inspection, Łódź pattern checklist 6 ?h 20% £372\.00/);
@@ -243,7 +270,8 @@ describe('the estimate PDF', () => {
     expect(text).toContain(`Waiting for your decision ${row(est.priced.undecided)}`);
     expect(text).toContain(`If everything is approved ${row(est.priced.ifAllApproved)}`);
     expect(text).toContain('Agreed so far £0.00 £0.00 £0.00');
-    expect(text).toContain('Discovered work: total incl. VAT £114.00');
+    expect(text).toContain('Discovered work: total excl. VAT £95.00');
+    expect(text).toContain('VAT £19.00 · total incl. VAT £114.00');
     expect(text).toContain('Treat the propeller as live.');
     expect(text).toContain('decided by the licensed inspector');
     expect(text).not.toContain('airworthy');
@@ -290,7 +318,7 @@ describe('the decision record PDF', () => {
     const res = await getPdf(owner, `/api/approval-requests/${requestId}/decision-record.pdf`);
     expect(res.status).toBe(200);
     expect(res.headers['content-disposition']).toMatch(new RegExp(`^attachment; filename="decision-record-${job.number}-Q-[A-Z0-9]+-\\d{4}-\\d{2}-\\d{2}\\.pdf"$`));
-    const text = flat(pdfText(res.body as Buffer));
+    const text = flat(pdfText(keep('decision-record', res.body as Buffer)));
     expect(text).toContain('F-1 Worn nose-wheel tyre');
     expect(text).toContain('New tyre and tube 1 20% £125.00');
     expect(text).toContain('Price shown incl. VAT £150.00');
@@ -304,6 +332,8 @@ describe('the decision record PDF', () => {
     expect(text).toContain(page.snapshotHash);
     expect(text).toContain('Approved in these decisions £48.00');
 
+    const listed = (await owner.get(`/api/jobs/${job.id}/documents`)).body as JobDocumentsDto;
+    expect(listed.decisionRecords).toMatchObject([{ requestId, decidedByName: 'Zofia Dvořák', path: `/api/approval-requests/${requestId}/decision-record.pdf` }]);
     expect((await otherOwner.get(`/api/approval-requests/${requestId}/decision-record.pdf`)).status).toBe(404);
     expect((await elsewhere.get(`/api/approval-requests/${requestId}/decision-record.pdf`)).status).toBe(404);
     expect((await getPdf(manager, `/api/approval-requests/${requestId}/decision-record.pdf`)).status).toBe(200);

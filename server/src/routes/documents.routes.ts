@@ -30,6 +30,9 @@ export function documentsRoutes(deps: Deps): Router {
   router.get('/credit-notes/:id/pdf', signedIn, params, async (req, res) => {
     sendPdf(res, await documents.creditNotePdf(scopeOf(req), validParams(req, idParamsSchema).id));
   });
+  router.get('/jobs/:id/documents', signedIn, params, async (req, res) => {
+    res.json(await documents.jobDocuments(scopeOf(req), validParams(req, idParamsSchema).id));
+  });
   router.get('/jobs/:id/estimate.pdf', signedIn, params, async (req, res) => {
     sendPdf(res, await documents.estimatePdf(scopeOf(req), validParams(req, idParamsSchema).id));
   });

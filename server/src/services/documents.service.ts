@@ -4,12 +4,14 @@ import {
   JOB_STATE_LABELS,
   OWNER_APPROVAL_REQUEST_STATE_LABELS,
   OWNER_JOB_STATE_LABELS,
+  DOCUMENT_PATHS,
   QUOTE_ITEM_ID,
   TOTAL_NAMES,
   priceChoice,
   vatRoundingWords,
   type ApprovalRequestState,
   type ApprovalSnapshot,
+  type JobDocumentsDto,
   type JobState,
   type EstimateStage,
   type LineKind,
@@ -161,9 +163,9 @@ export async function estimateDocument(scope: Scope, jobId: string, now = new Da
     }),
     totals: [
       total(TOTAL_NAMES.quoted, p.quoted),
+      total(TOTAL_NAMES.agreed, p.committed, true),
       total(owner ? TOTAL_NAMES.undecidedOwner : TOTAL_NAMES.undecided, p.undecided),
       total(TOTAL_NAMES.ifAllApproved, p.ifAllApproved),
-      total(TOTAL_NAMES.agreed, p.committed, true),
     ],
     cautions: [
       ...(job.scopeCautions ?? []).map((c) => ({ where: `Inspection scope: ${c.line}`, caution: c.caution })),
@@ -254,4 +256,25 @@ export async function decisionRecordPdf(scope: Scope, requestId: string): Promis
   const bytes = await cached(key, () => renderDecisionRecordPdf(doc));
   const on = (doc.decided?.at ?? doc.sentAt).slice(0, 10);
   return { bytes, filename: pdfName('decision-record', doc.job.number, doc.job.registration, on) };
+}
+
+/** The job's downloadable documents, for its documents section (owner: their own job; staff: the workshop's). */
+export async function jobDocuments(scope: Scope, jobId: string): Promise<JobDocumentsDto> {
+  const job = await viewJob(scope, jobId);
+  const [requests, invoice, creditNotes] = await Promise.all([
+    ApprovalRequest.findAll({
+      where: { jobId: job.id, workshopId: scope.workshopId, state: 'decided' },
+      attributes: ['id', 'decidedAt', 'decidedByName'],
+      order: [['decidedAt', 'ASC']],
+    }),
+    Invoice.findOne({ where: { jobId: job.id, workshopId: scope.workshopId }, attributes: ['id', 'number', 'issuedAt'] }),
+    CreditNote.findAll({ where: { jobId: job.id, workshopId: scope.workshopId }, attributes: ['id', 'number', 'issuedAt'], order: [['seq', 'ASC']] }),
+  ]);
+  return {
+    jobId: job.id,
+    estimate: { path: DOCUMENT_PATHS.estimate(job.id) },
+    decisionRecords: requests.map((r) => ({ requestId: r.id, decidedAt: r.decidedAt!.toISOString(), decidedByName: r.decidedByName ?? '', path: DOCUMENT_PATHS.decisionRecord(r.id) })),
+    invoice: invoice ? { id: invoice.id, number: invoice.number, issuedAt: invoice.issuedAt.toISOString(), path: DOCUMENT_PATHS.invoice(invoice.id) } : null,
+    creditNotes: creditNotes.map((c) => ({ id: c.id, number: c.number, issuedAt: c.issuedAt.toISOString(), path: DOCUMENT_PATHS.creditNote(c.id) })),
+  };
 }

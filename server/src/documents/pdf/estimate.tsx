@@ -53,7 +53,7 @@ export function EstimatePdf({ doc }: { doc: EstimateDocument }) {
             ],
           });
         }
-        if (st.lines.length) rows.push({ kind: 'sum', cells: [`${h.title}: total incl. VAT ${money(st.totals.gross, c)}`, '', ...(anyDiscount ? [''] : []), 'VAT', money(st.totals.vat, c)] });
+        if (st.lines.length) rows.push({ kind: 'sum', cells: [`${h.title}: total excl. VAT`, '', ...(anyDiscount ? [''] : []), '', money(st.totals.net, c)] });
         return (
           <View key={st.stage}>
             <H2>{h.title}</H2>
@@ -69,6 +69,11 @@ export function EstimatePdf({ doc }: { doc: EstimateDocument }) {
               rows={rows}
               empty="Nothing at this stage."
             />
+            {st.lines.length > 0 && (
+              <Text style={[s.small, { textAlign: 'right' }]}>
+                VAT {money(st.totals.vat, c)} · total incl. VAT {money(st.totals.gross, c)}
+              </Text>
+            )}
           </View>
         );
       })}
