@@ -25,6 +25,7 @@ import type { Deps } from './services/deps.js';
 import { createRateLimits } from './lib/rate-limits.js';
 import type { PhotoStore } from './storage/index.js';
 import { webhooksRoutes } from './routes/webhooks.routes.js';
+import { documentsRoutes } from './routes/documents.routes.js';
 import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
 import { decidePage } from './routes/decide-page.routes.js';
 
@@ -156,6 +157,7 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/suppliers', suppliersRoutes(deps));
   app.use('/api/parts', partsRoutes(deps));
   app.use('/api/templates', templatesRoutes(deps));
+  app.use('/api', documentsRoutes(deps));
   app.use('/api', apiNotFound);
 
   const indexHtml = path.join(config.CLIENT_DIST, 'index.html');

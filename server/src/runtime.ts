@@ -4,6 +4,7 @@ import { createLogger } from './lib/logger.js';
 import { MailQueue } from './mail/mail-queue.js';
 import { initModels } from './models/index.js';
 import { PasswordHasher, defaultPasswordThreads } from './lib/passwords.js';
+import { closeDocumentRenderer } from './documents/renderer.js';
 import type { AppParts } from './app.js';
 import { ApprovalChaser } from './jobs/approval-chaser.js';
 import { createPhotoStore } from './storage/index.js';
@@ -30,5 +31,6 @@ export async function stopParts(parts: AppParts): Promise<void> {
   await parts.chaser?.stop();
   await parts.mail.stop();
   await parts.passwords.close();
+  await closeDocumentRenderer();
   await parts.sequelize.close();
 }

@@ -1,6 +1,7 @@
 import { isTerminalJobState } from '@wingstage/shared';
 import { useQueries, useSuspenseQuery } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
+import { jobDocumentsQueryOptions } from '@/components/documents-section';
 import { Caution } from '@/components/ui/notice';
 import { myAircraftQueryOptions } from '@/features/owner/api/get-my-aircraft';
 import { myJobsQueryOptions } from '@/features/owner/api/get-my-jobs';
@@ -27,9 +28,12 @@ export function Component() {
   const estimates = useQueries({ queries: open.map((j) => myJobEstimateQueryOptions(j.id)) });
   const requests = useQueries({ queries: open.map((j) => myJobRequestsQueryOptions(j.id)) });
   const findings = useQueries({ queries: open.map((j) => myJobFindingsQueryOptions(j.id)) });
+  // Documents matter for every job, a closed one's invoice included.
+  const documents = useQueries({ queries: jobs.items.map((j) => jobDocumentsQueryOptions(j.id)) });
   const money: Record<string, JobMoney> = Object.fromEntries(
-    open.map((j, i) => [j.id, { estimate: estimates[i]?.data, requests: requests[i]?.data, findings: findings[i]?.data }]),
+    jobs.items.map((j, i) => [j.id, { documents: documents[i]?.data }]),
   );
+  open.forEach((j, i) => Object.assign(money[j.id]!, { estimate: estimates[i]?.data, requests: requests[i]?.data, findings: findings[i]?.data }));
   return (
     <>
       <MyAircraftLetter firstName={firstName} workshopName={session.workshop.name} contact={session.workshop.contact} aircraft={aircraft.items} jobs={jobs.items} money={money} />

@@ -1,7 +1,8 @@
-import { JOB_TYPE_LABELS, QUOTE_STATE_OWNER_WORDS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto } from '@wingstage/shared';
+import { JOB_TYPE_LABELS, QUOTE_STATE_OWNER_WORDS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDocumentsDto, type JobDto } from '@wingstage/shared';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { CategoryBadge, FindingStateBadge } from '@/components/ui/finding-badges';
 import { PhotoStrip } from '@/components/ui/photo-strip';
+import { DocumentsSection } from '@/components/documents-section';
 import { EnvelopeIcon } from '@/components/ui/icons';
 import { StateBadge } from '@/components/ui/state-badge';
 import { formatDate, formatDateTime, formatHours, formatMoney } from '@/lib/format';
@@ -13,6 +14,8 @@ export interface JobMoney {
   requests?: ApprovalRequestDto[];
   /** What was found on the job, as the server lets the owner see it. */
   findings?: FindingDto[];
+  /** The job's documents to download. */
+  documents?: JobDocumentsDto;
 }
 
 const WORDS = ['No', 'One', 'Two', 'Three', 'Four', 'Five', 'Six', 'Seven', 'Eight', 'Nine', 'Ten'];
@@ -134,6 +137,7 @@ function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
       {waiting ? <DecisionWaiting request={waiting} currency={currency} /> : null}
       {money?.estimate && !isTerminalJobState(job.state) ? <MoneySoFar estimate={money.estimate} /> : null}
       {money?.findings ? <WhatWeFound findings={money.findings} /> : null}
+      <DocumentsSection jobId={job.id} audience="owner" docs={money?.documents} />
     </li>
   );
 }

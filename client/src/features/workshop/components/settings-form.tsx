@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { APPROVAL_LINK_DAYS, CHASE_AFTER_HOURS, DEPOSIT_POLICY_KINDS, TEXT_MAX, VAT_ROUNDING_METHODS, workshopUpdateSchema, type WorkshopDto } from '@wingstage/shared';
+import { APPROVAL_LINK_DAYS, CHASE_AFTER_HOURS, DEPOSIT_POLICY_KINDS, TEXT_MAX, VAT_ROUNDING_LABELS, VAT_ROUNDING_METHODS, workshopUpdateSchema, type WorkshopDto } from '@wingstage/shared';
 import { useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import type { z } from 'zod';
@@ -12,14 +12,8 @@ import { applyServerErrors } from '@/lib/form-errors';
 import { formatMoney } from '@/lib/format';
 import { useUpdateWorkshop } from '../api/update-workshop';
 
-// Wording follows the options HMRC VAT Notice 700 §17.5 allows: VAT on the invoice total rounded
-// down (or to the nearest penny), or worked out per line.
-const ROUNDING_LABELS: Record<(typeof VAT_ROUNDING_METHODS)[number], string> = {
-  'invoice-down': 'On the invoice total, rounded down to the penny',
-  'invoice-nearest': 'On the invoice total, rounded to the nearest penny',
-  'line-nearest': 'On each line, rounded to the nearest penny',
-  'line-down-tenth': 'On each line, rounded down to a tenth of a penny',
-};
+// The rounding methods' words live in shared (vat-rounding-words.ts): the documents print them too.
+const ROUNDING_LABELS = VAT_ROUNDING_LABELS;
 
 const DEPOSIT_KIND_LABELS: Record<(typeof DEPOSIT_POLICY_KINDS)[number], string> = {
   none: 'No deposit',
