@@ -25,6 +25,7 @@ import type { Deps } from './services/deps.js';
 import { createRateLimits } from './lib/rate-limits.js';
 import type { PhotoStore } from './storage/index.js';
 import { webhooksRoutes } from './routes/webhooks.routes.js';
+import { depositRoutes, jobPaymentRoutes } from './routes/payments.routes.js';
 import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
 
 export interface AppParts {
@@ -148,6 +149,8 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/jobs', jobWorkRoutes(deps));
   app.use('/api/jobs', jobApprovalRoutes(deps));
   app.use('/api/jobs', findingPhotoRoutes(deps));
+  app.use('/api/jobs', jobPaymentRoutes(deps));
+  app.use('/api/deposits', depositRoutes(deps));
   app.use('/api/photos', photoRoutes(deps));
   app.use('/api/approval-requests', approvalRequestRoutes(deps));
   app.use('/api/decide', decideRoutes(deps, limits));
