@@ -25,7 +25,7 @@ import type { Deps } from './services/deps.js';
 import { createRateLimits } from './lib/rate-limits.js';
 import type { PhotoStore } from './storage/index.js';
 import { webhooksRoutes } from './routes/webhooks.routes.js';
-import { depositRoutes, jobPaymentRoutes } from './routes/payments.routes.js';
+import { decideDepositRoutes, depositRoutes, jobPaymentRoutes } from './routes/payments.routes.js';
 import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
 
 export interface AppParts {
@@ -155,6 +155,7 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/approval-requests', approvalRequestRoutes(deps));
   app.use('/api/decide', decideRoutes(deps, limits));
   app.use('/api/decide', decidePhotoRoutes(deps, limits));
+  app.use('/api/decide', decideDepositRoutes(deps, limits));
   app.use('/api/suppliers', suppliersRoutes(deps));
   app.use('/api/parts', partsRoutes(deps));
   app.use('/api/templates', templatesRoutes(deps));

@@ -10,6 +10,8 @@ import {
   depositRequestCreateSchema,
   idParamsSchema,
 } from '@wingstage/shared';
+import { failedLookupsPerAddress, type RateLimits } from '../lib/rate-limits.js';
+import { invalidDecideLink, wellFormedToken } from '../middleware/decide-link.js';
 import { authorize, scopeOf } from '../middleware/authorize.js';
 import { validBody, validParams, validQuery, validate } from '../middleware/validate.js';
 import { openCheckout, syncCheckout } from '../payments/checkout.service.js';
@@ -59,5 +61,17 @@ export function depositRoutes({ config }: Deps): Router {
   router.get('/accounts', authorize(config, 'admin', 'manager', 'accounts'), async (req, res) => {
     res.json(await deposits.depositAccounts(scopeOf(req)));
   });
+  return router;
+}
+
+/** The deposits an owner's decision raised, for the decision page's receipt. Mounted under /api/decide; failed look-ups count as the page's do. */
+export function decideDepositRoutes(_deps: Deps, limits: RateLimits): Router {
+  const router = Router();
+  const lookups = failedLookupsPerAddress(limits.decideAddress);
+  router.get('/:token/deposits', lookups.check, async (req, res) => {
+    if (!wellFormedToken(req.params.token)) throw invalidDecideLink();
+    res.set('Cache-Control', 'no-store').json(await deposits.depositsForDecisionLink(String(req.params.token)));
+  });
+  router.use(lookups.countFailure);
   return router;
 }

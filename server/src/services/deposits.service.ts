@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { QueryTypes, type Transaction } from 'sequelize';
 import {
   Dec,
@@ -18,11 +19,12 @@ import {
   type DepositWaitingRow,
   type Page,
   type PaymentDto,
+  type PricedChoice,
 } from '@wingstage/shared';
 import { inTransaction } from '../db/transaction.js';
-import { conflict, notFound } from '../errors/app-error.js';
+import { AppError, conflict, notFound } from '../errors/app-error.js';
 import { depositRequestedMail } from '../mail/deposit-mails.js';
-import { DepositRequest, Payment, Workshop, boundSequelize } from '../models/index.js';
+import { ApprovalRequest, DepositRequest, Payment, Workshop, boundSequelize } from '../models/index.js';
 import { depositDto, expireSession, processorTrouble, recordAppAudit } from '../payments/card-payments.js';
 import { depositMailFacts } from '../payments/deposit-facts.js';
 import { recordAudit } from './audit.js';
@@ -108,13 +110,21 @@ export interface DecisionForDeposit {
   workshopId: string;
   jobId: string;
   approvalRequestId: string;
-  currency: string;
-  /** The quote's gross when the owner accepted it in this decision, else null. */
-  quoteGross: string | null;
-  /** Newly approved work (findings and their opening-up) in this decision, gross. */
-  workGross: string;
-  /** The job's committed VAT mix after the decision: gross per rate. */
-  vatMix: { rate: string; gross: string }[];
+  /** The decision priced by the engine (priceChoice). */
+  figures: PricedChoice;
+}
+
+/** The quote's gross when accepted in this decision, the newly approved work beside it, and the job's VAT mix after it. */
+function decisionAmounts(f: PricedChoice): { quoteGross: string | null; workGross: string; vatMix: { rate: string; gross: string }[] } {
+  const dp = minorUnits(f.currency);
+  const quote = f.items.find((i) => i.kind === 'quote' && i.choice === 'approve');
+  const quoteGross = quote ? quote.gross : null;
+  const work = new Dec(f.approvingNow.gross).minus(quoteGross ?? '0');
+  return {
+    quoteGross,
+    workGross: formatAmount(Dec.max(work, 0), dp),
+    vatMix: f.newTotal.byRate.map((r) => ({ rate: r.rate, gross: formatAmount(new Dec(r.net).plus(r.vat), dp) })),
+  };
 }
 
 /**
@@ -122,7 +132,8 @@ export interface DecisionForDeposit {
  * or a share of newly approved work above the threshold. Called once from the decision's
  * transaction (job locked); the unique index on (approval request, origin) keeps it to one.
  */
-export async function raiseDepositsForDecision(deps: Deps, d: DecisionForDeposit, t: Transaction): Promise<void> {
+export async function raiseDepositsForDecision(deps: Deps, decision: DecisionForDeposit, t: Transaction): Promise<void> {
+  const d = { ...decision, currency: decision.figures.currency, ...decisionAmounts(decision.figures) };
   const workshop = await Workshop.findByPk(d.workshopId, { attributes: ['id', 'settings'], transaction: t });
   const policy = workshopSettingsSchema.parse(workshop?.settings ?? {}).depositPolicy;
   if (policy.kind === 'none') return;
@@ -250,4 +261,18 @@ export async function depositAccounts(scope: Scope): Promise<DepositAccountsDto>
       waiting: sum(waiting.items.filter((w) => w.currency === currency).map((w) => w.amount)),
     },
   };
+}
+
+/** What the owner's decision page may show after deciding: the deposits that decision raised (no fees, no staff words). */
+export interface DecisionDepositsDto {
+  jobId: string;
+  deposits: { id: string; amount: string; currency: string; reason: string; state: DepositRequest['state'] }[];
+}
+
+/** The deposits one decision raised, found by the decision link (same 404 as the page for an unknown or revoked link). */
+export async function depositsForDecisionLink(token: string): Promise<DecisionDepositsDto> {
+  const r = await ApprovalRequest.findOne({ where: { tokenHash: createHash('sha256').update(token, 'utf8').digest('hex') }, attributes: ['id', 'jobId', 'state'] });
+  if (!r || r.state === 'revoked') throw new AppError('not_found', 404, 'This approval link is not valid. Use the link in the newest e-mail from the workshop.');
+  const deposits = await DepositRequest.findAll({ where: { approvalRequestId: r.id }, order: [['createdAt', 'ASC'], ['id', 'ASC']] });
+  return { jobId: r.jobId, deposits: deposits.map((d) => ({ id: d.id, amount: d.amount, currency: d.currency, reason: d.reason, state: d.state })) };
 }
