@@ -52,7 +52,7 @@ describe('deposits raised by the workshop’s policy', () => {
     // £100 at 20 % → £120 [HMRC "Calculating VAT"]; 25 % of £120.00 = £30.00 (half-up to the penny).
     const deposits = await DepositRequest.findAll({ where: { jobId: job.id } });
     expect(deposits).toHaveLength(1);
-    expect(deposits[0]).toMatchObject({ origin: 'quote_accepted', amount: '30.00', currency: 'GBP', state: 'waiting', approvalRequestId: r.id, reason: 'Deposit of 25% on the accepted quote of £120.00' });
+    expect(deposits[0]).toMatchObject({ origin: 'quote_accepted', amount: '30.00', currency: 'GBP', state: 'waiting', approvalRequestId: r.id, reason: '25% of the quote you accepted (£120.00)' });
     expect(deposits[0]!.vatMix).toEqual([{ rate: '20', gross: '120.00' }]);
     expect(await AuditEvent.count({ where: { jobId: job.id, action: 'deposit.requested', actorUserId: null } })).toBe(1);
     await waitForMail(w.owners[0].customer.email, (m) => m.subject.includes('a deposit of £30.00'));
@@ -68,7 +68,7 @@ describe('deposits raised by the workshop’s policy', () => {
     const big = await sendQuote(w, manager, '150.00');
     expect((await decide(big.token, big.page, { [QUOTE_ITEM_ID]: 'approve', [big.finding.id]: 'approve' })).status).toBe(200);
     // The finding £150 + 20 % VAT = £180.00 is above £100.00; half of it is £90.00. The quote is not counted as new work.
-    expect(await DepositRequest.findAll({ where: { jobId: big.job.id }, raw: true })).toEqual([expect.objectContaining({ origin: 'work_approved', amount: '90.00', reason: 'Deposit of 50% on the approved work of £180.00' })]);
+    expect(await DepositRequest.findAll({ where: { jobId: big.job.id }, raw: true })).toEqual([expect.objectContaining({ origin: 'work_approved', amount: '90.00', reason: '50% of the work you approved (£180.00)' })]);
 
     const small = await sendQuote(w, manager, '60.00');
     expect((await decide(small.token, small.page, { [QUOTE_ITEM_ID]: 'approve', [small.finding.id]: 'approve' })).status).toBe(200);

@@ -140,10 +140,10 @@ export async function raiseDepositsForDecision(deps: Deps, decision: DecisionFor
   const asks: { origin: 'quote_accepted' | 'work_approved'; amount: string; reason: string }[] = [];
   if (d.quoteGross !== null) {
     const a = depositOnQuoteAccepted(d.quoteGross, d.currency, policy);
-    if (a.applies) asks.push({ origin: 'quote_accepted', amount: a.amount, reason: `Deposit of ${policy.kind === 'quote_percent' ? policy.percent : ''}% on the accepted quote of ${formatMoney(a.basis, d.currency)}` });
+    if (a.applies) asks.push({ origin: 'quote_accepted', amount: a.amount, reason: `${policy.kind === 'quote_percent' ? policy.percent : ''}% of the quote you accepted (${formatMoney(a.basis, d.currency)})` });
   }
   const w = depositOnWorkApproved(d.workGross, d.currency, policy);
-  if (w.applies) asks.push({ origin: 'work_approved', amount: w.amount, reason: `Deposit of ${policy.kind === 'approved_work_percent' ? policy.percent : ''}% on the approved work of ${formatMoney(w.basis, d.currency)}` });
+  if (w.applies) asks.push({ origin: 'work_approved', amount: w.amount, reason: `${policy.kind === 'approved_work_percent' ? policy.percent : ''}% of the work you approved (${formatMoney(w.basis, d.currency)})` });
   for (const ask of asks) {
     const exists = await DepositRequest.count({ where: { approvalRequestId: d.approvalRequestId, origin: ask.origin }, transaction: t });
     if (exists) continue;
