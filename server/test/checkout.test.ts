@@ -358,3 +358,46 @@ describe('asking and cancelling deposits', () => {
     expect((await s.manager.post(`/api/jobs/${closedJob.id}/deposits`, { amount: '10.00', reason: 'x' })).status).toBe(409);
   });
 });
+
+describe('webhook processing time', () => {
+  it('when 200 real checkout events are processed (payments settled, deposits paid), then the median and 95th percentile are logged and each is well under a second', async () => {
+    const s = await setup(quietApp);
+    const sessions: string[] = [];
+    for (let batch = 0; batch < 10; batch += 1) {
+      const urls = await Promise.all(
+        Array.from({ length: 10 }, async (_, i) => {
+          const d = await DepositRequest.create({ workshopId: s.w.workshop.id, jobId: s.jobId, origin: 'manual', reason: `Parts batch ${batch}-${i}`, amount: `${10 + batch}.${String(i).padStart(2, '0')}`, currency: 'GBP' });
+          return (await checkout(s, d.id)).body.url as string;
+        }),
+      );
+      for (const url of urls) {
+        expect((await payOnPage(url, SUCCESS)).status).toBe(303);
+        sessions.push(sessionOf(url));
+      }
+    }
+    // Every event the fake made for these payments: each payment intent's success and each session's completion.
+    const events: Stripe.Event[] = [];
+    for await (const e of quietSdk.events.list({ limit: 100 })) {
+      const o = e.data.object as { id: string; metadata?: Record<string, string> };
+      if ((e.type === 'checkout.session.completed' && sessions.includes(o.id)) || (e.type === 'payment_intent.succeeded' && o.metadata?.job_id === s.jobId)) events.push(e);
+    }
+    expect(events).toHaveLength(200);
+    events.reverse(); // oldest first, as delivered
+    const times: number[] = [];
+    for (const e of events) {
+      const payload = JSON.stringify(e);
+      const header = quietSdk.webhooks.generateTestHeaderString({ payload, secret: TEST_WEBHOOK_SECRET });
+      const t0 = process.hrtime.bigint();
+      const res = await request(quietApp).post('/api/webhooks/stripe').set('Content-Type', 'application/json').set('Stripe-Signature', header).send(payload);
+      times.push(Number(process.hrtime.bigint() - t0) / 1e6);
+      expect(res.body).toMatchObject({ duplicate: false, outcome: 'processed' });
+    }
+    expect(await Payment.count({ where: { jobId: s.jobId, state: 'succeeded' } })).toBe(100);
+    expect(await DepositRequest.count({ where: { jobId: s.jobId, state: 'paid' } })).toBe(100);
+    times.sort((a, b) => a - b);
+    const median = (times[99]! + times[100]!) / 2;
+    const p95 = times[189]!;
+    console.info(`checkout webhook processing over 200 events (signature, record, SDK read-back, settle): median ${median.toFixed(1)} ms, 95th percentile ${p95.toFixed(1)} ms`);
+    expect(p95).toBeLessThan(1000);
+  }, 180_000);
+});

@@ -10,6 +10,7 @@ import { findPaymentFor, lockPayment, readPaymentIntent, recordDeclined, recordE
  * arrives twice, late or out of order still ends in the right state. Objects Wingstage did not
  * open (no payment row) are acknowledged and left alone.
  */
+const unsettled = (state: string) => state === 'pending' || state === 'failed';
 const idOf = (v: string | { id: string } | null | undefined) => (typeof v === 'string' ? v : (v?.id ?? null));
 
 export const CHECKOUT_EVENT_HANDLERS: PaymentEventHandlers = {
@@ -20,7 +21,8 @@ export const CHECKOUT_EVENT_HANDLERS: PaymentEventHandlers = {
     await lockJobById(found.jobId, t);
     const payment = await lockPayment(found.id, t);
     const piId = idOf(session.payment_intent);
-    if (session.payment_status === 'paid' && piId) await recordSucceeded(deps, payment, await readPaymentIntent(deps, piId), t);
+    // Already settled (its payment intent's event came first): nothing to read back.
+    if (session.payment_status === 'paid' && piId && unsettled(payment.state)) await recordSucceeded(deps, payment, await readPaymentIntent(deps, piId), t);
     return { workshopId: payment.workshopId };
   },
   'payment_intent.succeeded': async (event, { deps, transaction: t }) => {
@@ -29,7 +31,7 @@ export const CHECKOUT_EVENT_HANDLERS: PaymentEventHandlers = {
     if (!found) return { workshopId: null };
     await lockJobById(found.jobId, t);
     const payment = await lockPayment(found.id, t);
-    await recordSucceeded(deps, payment, await readPaymentIntent(deps, pi.id), t);
+    if (unsettled(payment.state)) await recordSucceeded(deps, payment, await readPaymentIntent(deps, pi.id), t);
     return { workshopId: payment.workshopId };
   },
   'payment_intent.payment_failed': async (event, { deps, transaction: t }) => {
