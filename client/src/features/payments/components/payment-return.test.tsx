@@ -1,4 +1,4 @@
-import type { CheckoutSyncDto, PaymentDto } from '@wingstage/shared';
+import type { CheckoutSyncDto, DepositRequestDto, PaymentDto } from '@wingstage/shared';
 import { screen } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { json } from '@/testing/http';
@@ -27,7 +27,7 @@ const payment = (over: Partial<PaymentDto>): PaymentDto => ({
   createdAt: '2026-12-02T10:00:00.000Z',
   ...over,
 });
-const deposit = { id: '00000000-0000-4000-8000-0000000000dd', jobId: JOB, origin: 'manual', reason: 'Propeller overhaul ordered', amount: '250.00', currency: 'GBP', state: 'waiting', createdAt: '2026-12-02T09:00:00.000Z', paidAt: null, cancelledAt: null, cancelReason: null, version: 0, payments: [], lastDecline: null } as const;
+const deposit: DepositRequestDto = { id: '00000000-0000-4000-8000-0000000000dd', jobId: JOB, origin: 'manual', reason: 'Propeller overhaul ordered', amount: '250.00', currency: 'GBP', state: 'waiting', createdAt: '2026-12-02T09:00:00.000Z', paidAt: null, cancelledAt: null, cancelReason: null, version: 0, payments: [], lastDecline: null };
 
 describe('the page the owner comes back to from the payment page', () => {
   const fetchMock = vi.fn<typeof fetch>();
