@@ -6,6 +6,8 @@ import { DEMO_JOBS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_STAFF, DEMO_WORKSHOP } from
 import { seedCatalogue, seedJobWork, type SeededJob } from './demo-estimates.js';
 import { seedApprovals } from './demo-approvals.js';
 import { seedDemoPhotos } from './demo-photos.js';
+import { seedDeposits } from './demo-deposits.js';
+import type Stripe from 'stripe';
 import { loadStorageConfig } from '../../server/src/config/config.js';
 import { createPhotoStore, type PhotoStore } from '../../server/src/storage/index.js';
 
@@ -35,7 +37,7 @@ const isoDay = (d: Date) => d.toISOString().slice(0, 10);
  * Seeds the demo workshop unless it is already there. Returns whether it seeded. Demo photos go to
  * the given store, or to the one the environment's storage settings name (as the app would use).
  */
-export async function seedDemo(sequelize: Sequelize, now = new Date(), store?: PhotoStore): Promise<boolean> {
+export async function seedDemo(sequelize: Sequelize, now = new Date(), store?: PhotoStore, stripe: Stripe | null = null): Promise<boolean> {
   const photos = store ?? createPhotoStore(loadStorageConfig());
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   return sequelize.transaction(async (t) => {
@@ -101,6 +103,7 @@ export async function seedDemo(sequelize: Sequelize, now = new Date(), store?: P
       const brke = seeded.find((j) => j.registration === 'Q-BRKE' && j.job.title === '100-hour engine service');
       if (brke) await seedDemoPhotos(w, brke.job.id, staff.get('priya')!, photos, brke.at, t);
       await seedApprovals(w, seeded, staff, now, t);
+      await seedDeposits(w, seeded, staff, now, t, stripe);
     }
     await sequelize.query('INSERT INTO job_counters (workshop_id, last_number) VALUES ($1, $2)', { bind: [w.id, n], transaction: t });
     return true;

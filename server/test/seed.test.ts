@@ -3,19 +3,25 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { JOB_STATES } from '@wingstage/shared';
 import sharp from 'sharp';
-import { Aircraft, ApprovalRequest, Finding, FindingPhoto, Job, JobTemplate, Part, User, boundSequelize } from '../src/models/index.js';
+import { Aircraft, ApprovalRequest, DepositRequest, Payment, Finding, FindingPhoto, Job, JobTemplate, Part, User, boundSequelize } from '../src/models/index.js';
 import { DEMO_PASSWORD, demoSignIns } from '../../db/seeders/demo-data.js';
 import { findDemoWorkshop, removeDemo, seedDemo } from '../../db/seeders/demo.js';
-import { startTestServer, waitForMail, type TestServer } from './helpers.js';
+import { startStripeFake, type RunningFake } from '@wingstage/stripe-fake';
+import { stripeClient } from '../src/payments/stripe-client.js';
+import { startTestServer, testConfig, TEST_STRIPE_KEY, waitForMail, type TestServer } from './helpers.js';
 
 let server: TestServer;
+let fake: RunningFake;
 
 beforeAll(async () => {
   server = await startTestServer();
-  await seedDemo(boundSequelize(), new Date(), server.parts.photos);
+  // The demo's paid deposit is taken through the SDK from an in-process fake (no webhooks).
+  fake = await startStripeFake({ apiKey: TEST_STRIPE_KEY, port: 0 });
+  await seedDemo(boundSequelize(), new Date(), server.parts.photos, stripeClient(testConfig({ STRIPE_API_URL: fake.url })));
 });
 afterAll(async () => {
   await removeDemo(boundSequelize());
+  await fake?.stop();
   await server?.close();
 });
 
@@ -147,5 +153,19 @@ describe('demo seed', () => {
     const res = await agent.post('/api/jobs').set('X-CSRF-Token', s.body.csrfToken).send({ aircraftId: aircraft.id, title: 'Radio check', type: 'other', bookedInOn: '2026-12-02' });
     expect(res.status).toBe(201);
     expect(res.body.number).toBe('J-0010');
+  });
+
+  it('when seeded, then one deposit is paid by card (in the processor too, with its fee and net) and one is waiting', async () => {
+    const w = (await findDemoWorkshop())!;
+    const deposits = await DepositRequest.findAll({ where: { workshopId: w.id }, order: [['amount', 'ASC']] });
+    expect(deposits.map((d) => [d.amount, d.state])).toEqual([
+      ['85.00', 'waiting'],
+      ['300.00', 'paid'],
+    ]);
+    const paid = await Payment.findOne({ where: { depositRequestId: deposits[1]!.id } });
+    // UK standard card fee 1.5 % + £0.20 (sources.md, "Card payments"): £300.00 → £4.70, net £295.30.
+    expect(paid).toMatchObject({ state: 'succeeded', amount: '300.00', fee: '4.70', net: '295.30', method: 'card' });
+    const pi = await stripeClient(testConfig({ STRIPE_API_URL: fake.url })).paymentIntents.retrieve(paid!.stripePaymentIntentId!);
+    expect(pi).toMatchObject({ status: 'succeeded', amount_received: 30000, metadata: { payment_id: paid!.id } });
   });
 });

@@ -15,6 +15,7 @@ export * from './schemas/estimates.js';
 export * from './schemas/approvals.js';
 export * from './schemas/photos.js';
 export * from './schemas/documents.js';
+export * from './schemas/payments.js';
 export * from './checklist.js';
 export * from './bounds.js';
 export * from './words.js';

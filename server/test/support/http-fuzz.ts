@@ -119,6 +119,8 @@ export async function fuzzWorld(app: Express): Promise<FuzzWorld> {
     { method: 'post', path: `${J}/time`, who: 'engineer', body: { hours: '1.5', workedOn: '2026-12-01', note: 'Strip and inspect', findingId: finding.id } },
     { method: 'put', path: `${J}/pre-authorisation`, who: 'manager', body: { version: 0, perFinding: '150.00', perJob: '400.00', agreedHow: 'Phone call, 1 Dec' } },
     { method: 'post', path: `${J}/approval-requests`, who: 'manager', body: { findingIds: [finding.id], message: 'Found while inspecting.', estimateVersion: 1 } },
+    { method: 'post', path: `${J}/deposits`, who: 'manager', body: { amount: '120.00', reason: 'Propeller overhaul ordered' } },
+    { method: 'post', path: `${J}/deposits/${randomUUID()}/cancel`, who: 'manager', body: { reason: 'Owner bringing the parts' } },
     { method: 'post', path: `/api/decide/${decideToken}`, who: 'anyone', body: { snapshotHash: 'c'.repeat(64), typedName: 'Owner One', decisions: [{ findingId: finding.id, decision: 'approve', note: 'Go ahead' }] } },
   ];
   return { w, clients: { manager, admin, engineer }, routes };

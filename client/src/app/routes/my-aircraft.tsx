@@ -8,6 +8,7 @@ import { myJobsQueryOptions } from '@/features/owner/api/get-my-jobs';
 import { myJobEstimateQueryOptions, myJobFindingsQueryOptions, myJobRequestsQueryOptions } from '@/features/owner/api/get-my-job-money';
 import { MyAircraftLetter, type JobMoney } from '@/features/owner/components/my-aircraft-letter';
 import { OWNER_WORDS } from '@/features/owner/words';
+import { OwnerDeposits } from '@/features/payments/components/owner-deposits';
 import { queryClient } from '@/lib/query-client';
 import { requireSession } from '../guards';
 import { useCurrentSession } from '../use-current-session';
@@ -36,7 +37,7 @@ export function Component() {
   open.forEach((j, i) => Object.assign(money[j.id]!, { estimate: estimates[i]?.data, requests: requests[i]?.data, findings: findings[i]?.data }));
   return (
     <>
-      <MyAircraftLetter firstName={firstName} workshopName={session.workshop.name} contact={session.workshop.contact} aircraft={aircraft.items} jobs={jobs.items} money={money} />
+      <MyAircraftLetter firstName={firstName} workshopName={session.workshop.name} contact={session.workshop.contact} aircraft={aircraft.items} jobs={jobs.items} money={money} jobExtra={(jobId) => <OwnerDeposits jobId={jobId} />} />
       <div className="mx-auto max-w-2xl">
         <Caution>
           <span className="font-semibold">{OWNER_WORDS.cautionHeading}.</span> {OWNER_WORDS.caution}

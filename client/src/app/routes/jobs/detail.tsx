@@ -30,6 +30,7 @@ import { JobActions } from '@/features/jobs/components/job-actions';
 import { DecisionsToSeePanel } from '@/features/jobs/components/decisions-to-see';
 import { JobEditForm } from '@/features/jobs/components/job-edit-form';
 import { JobHistory } from '@/features/jobs/components/job-history';
+import { JobDeposits } from '@/features/payments/components/job-deposits';
 import { formatDate, formatMoney } from '@/lib/format';
 import { can } from '@/lib/permissions';
 import { queryClient } from '@/lib/query-client';
@@ -126,6 +127,7 @@ export function Component() {
           </Card>
           <Card><DocumentsSection jobId={job.id} audience="staff" docs={documents.data} failed={documents.isError} /></Card>
         </div>
+        <JobDeposits jobId={job.id} role={role} />
         {can.seeHistory(role) ? (
           <Card title="History">{history.data ? <JobHistory events={history.data} /> : history.isError ? <p>History could not be loaded.</p> : <Loading />}</Card>
         ) : null}

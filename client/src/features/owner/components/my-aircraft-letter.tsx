@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { JOB_TYPE_LABELS, QUOTE_STATE_OWNER_WORDS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDocumentsDto, type JobDto } from '@wingstage/shared';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { CategoryBadge, FindingStateBadge } from '@/components/ui/finding-badges';
@@ -120,7 +121,7 @@ function WhatWeFound({ findings }: { findings: FindingDto[] }) {
   );
 }
 
-function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
+function JobEntry({ job, money, extra }: { job: JobDto; money?: JobMoney; extra?: ReactNode }) {
   const waiting = money?.requests?.find((r) => r.state === 'sent');
   const currency = money?.estimate?.currency ?? 'GBP';
   return (
@@ -136,6 +137,7 @@ function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
       </p>
       {waiting ? <DecisionWaiting request={waiting} currency={currency} /> : null}
       {money?.estimate && !isTerminalJobState(job.state) ? <MoneySoFar estimate={money.estimate} /> : null}
+      {extra}
       {money?.findings ? <WhatWeFound findings={money.findings} /> : null}
       <DocumentsSection jobId={job.id} audience="owner" docs={money?.documents} />
     </li>
@@ -176,6 +178,7 @@ export function MyAircraftLetter({
   aircraft,
   jobs,
   money = {},
+  jobExtra,
 }: {
   firstName: string;
   workshopName: string;
@@ -183,6 +186,8 @@ export function MyAircraftLetter({
   aircraft: AircraftDto[];
   jobs: JobDto[];
   money?: Record<string, JobMoney>;
+  /** More about one job (its deposits), rendered by the page inside the job's entry. */
+  jobExtra?: (jobId: string) => ReactNode;
 }) {
   const inHangar = jobs.filter((j) => IN_THE_HANGAR.includes(j.state));
   const others = jobs.length - inHangar.length;
@@ -217,7 +222,7 @@ export function MyAircraftLetter({
             ) : (
               <ul className="flex flex-col gap-3" aria-label={W.jobsFor(a.registration)}>
                 {own.map((j) => (
-                  <JobEntry key={j.id} job={j} money={money[j.id]} />
+                  <JobEntry key={j.id} job={j} money={money[j.id]} extra={jobExtra?.(j.id)} />
                 ))}
               </ul>
             )}
