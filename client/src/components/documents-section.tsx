@@ -5,6 +5,9 @@ import { formatDate } from '@/lib/format';
 import { jobKeysBase } from '@/lib/job-keys';
 
 /** The job's documents as PDF downloads; one list for the owner's page and the staff job page. */
+/** The staff page's card title. */
+export const DOCUMENTS_TITLE = 'Documents';
+
 export const jobDocumentsQueryOptions = (jobId: string) =>
   queryOptions({
     queryKey: [...jobKeysBase.detail(jobId), 'documents'] as const,
@@ -37,11 +40,24 @@ function DocumentLink({ href, label }: { href: string; label: string }) {
  * GET /api/jobs/:id/documents (the page loads it with jobDocumentsQueryOptions and passes it in).
  * The estimate's link shows at once; the invoice and credit notes appear once they exist.
  */
-export function DocumentsSection({ jobId, audience, docs, failed = false }: { jobId: string; audience: 'owner' | 'staff'; docs?: JobDocumentsDto; failed?: boolean }) {
+export function DocumentsSection({
+  jobId,
+  audience,
+  docs,
+  failed = false,
+  heading = true,
+}: {
+  jobId: string;
+  audience: 'owner' | 'staff';
+  docs?: JobDocumentsDto;
+  failed?: boolean;
+  /** False inside a card that already carries the title. */
+  heading?: boolean;
+}) {
   const w = WORDS[audience];
   return (
-    <section aria-label={w.heading} data-testid="documents-section" className="mt-3">
-      <h4 className="text-sm font-semibold">{w.heading}</h4>
+    <section aria-label={w.heading} data-testid="documents-section" className={heading ? 'mt-3' : ''}>
+      {heading ? <h4 className="text-sm font-semibold">{w.heading}</h4> : null}
       <ul className="flex flex-col">
         <DocumentLink href={docs?.estimate.path ?? DOCUMENT_PATHS.estimate(jobId)} label={w.estimate} />
         {docs?.decisionRecords.map((r) => (

@@ -3,7 +3,7 @@ import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { useMemo, useRef, useState } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
-import { DocumentsSection, jobDocumentsQueryOptions } from '@/components/documents-section';
+import { DOCUMENTS_TITLE, DocumentsSection, jobDocumentsQueryOptions } from '@/components/documents-section';
 import { Caution, Loading, Notice } from '@/components/ui/notice';
 import { Card, Facts, PageHeader } from '@/components/ui/page';
 import { StateBadge } from '@/components/ui/state-badge';
@@ -125,7 +125,7 @@ export function Component() {
               />
             )}
           </Card>
-          <Card><DocumentsSection jobId={job.id} audience="staff" docs={documents.data} failed={documents.isError} /></Card>
+          <Card title={DOCUMENTS_TITLE}><DocumentsSection jobId={job.id} audience="staff" docs={documents.data} failed={documents.isError} heading={false} /></Card>
         </div>
         <JobDeposits jobId={job.id} role={role} />
         {can.seeHistory(role) ? (
