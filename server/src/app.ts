@@ -26,6 +26,7 @@ import { createRateLimits } from './lib/rate-limits.js';
 import type { PhotoStore } from './storage/index.js';
 import { webhooksRoutes } from './routes/webhooks.routes.js';
 import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
+import { accountsRoutes } from './routes/accounts.routes.js';
 
 export interface AppParts {
   config: Config;
@@ -38,6 +39,8 @@ export interface AppParts {
   passwords: import('./lib/passwords.js').PasswordHasher;
   /** The reminder and expiry schedule, when this process runs it. */
   chaser?: import('./jobs/approval-chaser.js').ApprovalChaser;
+  /** The hourly payout fetch, when this process runs it. */
+  payouts?: import('./jobs/payout-fetch.js').PayoutFetcher;
 }
 
 const REQUEST_ID = /^[A-Za-z0-9._-]{8,64}$/;
@@ -155,6 +158,7 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/suppliers', suppliersRoutes(deps));
   app.use('/api/parts', partsRoutes(deps));
   app.use('/api/templates', templatesRoutes(deps));
+  app.use('/api/accounts', accountsRoutes(deps));
   app.use('/api', apiNotFound);
 
   const indexHtml = path.join(config.CLIENT_DIST, 'index.html');
