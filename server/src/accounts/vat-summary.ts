@@ -83,6 +83,9 @@ export async function vatSummary(scope: Scope, period: Period, currency: string)
       docs.push({ kind: 'credit_note', id: c.id, reference: `Credit note ${c.number}`, jobNumber: c.job_number, taxPoint: c.tax_point, rate: rateLabel(r.vatPercent), net: fmt(new Dec(r.net).negated()), vat: fmt(new Dec(r.vat).negated()), gross: fmt(new Dec(r.net).plus(r.vat).negated()), note: 'Reduces output VAT at its own date (VAT Regulations 1995 reg 38).' });
     }
   }
+  // In date order; on one date, deposits, then invoices, then credit notes (a stable sort keeps each document's rows together).
+  const order = { deposit: 0, invoice: 1, credit_note: 2 } as const;
+  docs.sort((a, b) => a.taxPoint.localeCompare(b.taxPoint) || order[a.kind] - order[b.kind]);
   const byRate = new Map<string, { net: Dec; vat: Dec; gross: Dec }>();
   const tot = { net: new Dec(0), vat: new Dec(0), gross: new Dec(0) };
   for (const d of docs) {

@@ -16,7 +16,7 @@ export const ACCOUNTS_SECTIONS: { to: string; label: string }[] = [
 
 export function AccountsNav() {
   return (
-    <nav aria-label="Accounts sections" className="mb-5 overflow-x-auto">
+    <nav aria-label="Accounts sections" className="relative mb-5 overflow-x-auto">
       <ul className="flex gap-1 border-b border-seam">
         {ACCOUNTS_SECTIONS.map((s) => (
           <li key={s.to}>

@@ -31,7 +31,7 @@ export function AgedDebtPage() {
         ) : d.rows.length === 0 ? (
           <p>No owner owes anything on an issued invoice.</p>
         ) : (
-          <div className="overflow-x-auto">
+          <div className="relative overflow-x-auto">
             <table className="w-full min-w-[48rem] border-collapse">
               <caption className="sr-only">Days are counted from each invoice's due date; an invoice not yet due counts in 0–30 days.</caption>
               <thead className="border-b border-seam-strong">

@@ -73,7 +73,7 @@ export function LedgerPage() {
         {!data ? (
           <Loading />
         ) : (
-          <div className="overflow-x-auto">
+          <div className="relative overflow-x-auto">
             <table className="w-full min-w-[60rem] border-collapse" aria-busy={q.isPlaceholderData || undefined}>
               <caption className="sr-only">Ledger, sorted by {p.sort} {p.dir === 'asc' ? 'ascending' : 'descending'}</caption>
               <thead className="border-b border-seam-strong">

@@ -7,5 +7,5 @@ export function Money({ amount, currency }: { amount: string | null | undefined;
 
 export const th = 'px-2 py-2 text-left text-sm font-semibold';
 export const thNum = 'px-2 py-2 text-right text-sm font-semibold';
-export const td = 'px-2 py-2 align-top text-sm';
+export const td = 'px-2 py-2 text-left align-top text-sm';
 export const tdNum = 'px-2 py-2 text-right align-top text-sm';

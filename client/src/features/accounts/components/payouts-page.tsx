@@ -46,7 +46,7 @@ export function PayoutsPage() {
         ) : q.data.length === 0 ? (
           <p>No payouts yet. They appear here when the card processor sends money to the bank.</p>
         ) : (
-          <div className="overflow-x-auto">
+          <div className="relative overflow-x-auto">
             <table className="w-full min-w-[44rem] border-collapse">
               <thead className="border-b border-seam-strong">
                 <tr>
@@ -87,7 +87,7 @@ export function PayoutDetailPage({ id }: { id: string }) {
         <Loading />
       ) : (
         <Card title={`Arrives ${formatDate(p.arrivalOn)}: ${p.transactionsCount} ${p.transactionsCount === 1 ? 'item' : 'items'}`}>
-          <div className="overflow-x-auto">
+          <div className="relative overflow-x-auto">
             <table className="w-full min-w-[40rem] border-collapse">
               <thead className="border-b border-seam-strong">
                 <tr>

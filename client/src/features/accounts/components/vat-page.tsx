@@ -41,7 +41,7 @@ export function VatPage() {
           err ? null : <Loading />
         ) : (
           <div className="flex flex-col gap-6">
-            <div className="overflow-x-auto">
+            <div className="relative overflow-x-auto">
               <table className="w-full min-w-[28rem] border-collapse">
                 <caption className="mb-2 text-left font-semibold">Output VAT by rate, {formatDate(s.from)} to {formatDate(s.to)}</caption>
                 <thead className="border-b border-seam-strong">
@@ -55,7 +55,7 @@ export function VatPage() {
                 <tbody>
                   {s.byRate.map((r) => (
                     <tr key={r.rate} className="border-b border-seam">
-                      <th scope="row" className={td}>{r.rate}</th>
+                      <th scope="row" className={`${td} text-left`}>{r.rate}</th>
                       <td className={tdNum}><Money amount={r.net} currency={s.currency} /></td>
                       <td className={tdNum}><Money amount={r.vat} currency={s.currency} /></td>
                       <td className={tdNum}><Money amount={r.gross} currency={s.currency} /></td>
@@ -72,7 +72,7 @@ export function VatPage() {
                 </tfoot>
               </table>
             </div>
-            <div className="overflow-x-auto">
+            <div className="relative overflow-x-auto">
               <table className="w-full min-w-[48rem] border-collapse">
                 <caption className="mb-2 text-left font-semibold">The documents behind these totals</caption>
                 <thead className="border-b border-seam-strong">
@@ -93,7 +93,7 @@ export function VatPage() {
                       <tr key={`${d.id}-${i}`} className="border-b border-seam">
                         <td className={td}>{formatDate(d.taxPoint)}</td>
                         <td className={td}>
-                          {KIND_WORDS[d.kind]}: {d.reference}
+                          <span className="sr-only">{KIND_WORDS[d.kind]}: </span>{d.reference}
                           {d.note ? <span className="block text-xs text-slate-soft">{d.note}</span> : null}
                         </td>
                         <td className={td}>{d.jobNumber}</td>

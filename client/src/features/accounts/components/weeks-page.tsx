@@ -28,7 +28,7 @@ export function WeeksPage() {
             </Suspense>
           </Card>
           <Card title="Per week, as a table">
-            <div className="overflow-x-auto">
+            <div className="relative overflow-x-auto">
               <table className="w-full border-collapse">
                 <caption className="sr-only">Invoiced, received and paid out per week, week starting Monday</caption>
                 <thead className="border-b border-seam-strong">
