@@ -1,4 +1,5 @@
 import type { Sequelize } from 'sequelize';
+import { seedScalePayments } from './scale-payments.js';
 
 /**
  * A busy workshop's worth of rows for the benchmark, added to the demo workshop in bulk: a few
@@ -100,6 +101,7 @@ export async function seedScale(sequelize: Sequelize, workshopId: string, log: (
       SELECT arf.job_id, arf.request_id, arf.finding_id, arf.finding_id::text, CASE WHEN f.state = 'declined' THEN 'decline' ELSE 'approve' END, ''
       FROM approval_request_findings arf JOIN approval_requests r ON r.id = arf.request_id AND r.state = 'decided'
       JOIN findings f ON f.id = arf.finding_id JOIN scale_jobs j ON j.id = arf.job_id`);
+    await seedScalePayments(step);
     await step('job counter', `
       INSERT INTO job_counters (workshop_id, last_number) VALUES ($1, ${10000 + SCALE.jobs})
       ON CONFLICT (workshop_id) DO UPDATE SET last_number = GREATEST(job_counters.last_number, EXCLUDED.last_number)`);

@@ -29,6 +29,7 @@ import { documentsRoutes } from './routes/documents.routes.js';
 import { decideDepositRoutes, depositRoutes, jobPaymentRoutes } from './routes/payments.routes.js';
 import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
 import { decidePage } from './routes/decide-page.routes.js';
+import { accountsRoutes } from './routes/accounts.routes.js';
 
 export interface AppParts {
   config: Config;
@@ -41,6 +42,8 @@ export interface AppParts {
   passwords: import('./lib/passwords.js').PasswordHasher;
   /** The reminder and expiry schedule, when this process runs it. */
   chaser?: import('./jobs/approval-chaser.js').ApprovalChaser;
+  /** The hourly payout fetch, when this process runs it. */
+  payouts?: import('./jobs/payout-fetch.js').PayoutFetcher;
 }
 
 const REQUEST_ID = /^[A-Za-z0-9._-]{8,64}$/;
@@ -162,6 +165,7 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/parts', partsRoutes(deps));
   app.use('/api/templates', templatesRoutes(deps));
   app.use('/api', documentsRoutes(deps));
+  app.use('/api/accounts', accountsRoutes(deps));
   app.use('/api', apiNotFound);
 
   const indexHtml = path.join(config.CLIENT_DIST, 'index.html');

@@ -7,6 +7,7 @@ import { PasswordHasher, defaultPasswordThreads } from './lib/passwords.js';
 import { closeDocumentRenderer } from './documents/renderer.js';
 import type { AppParts } from './app.js';
 import { ApprovalChaser } from './jobs/approval-chaser.js';
+import { PayoutFetcher } from './jobs/payout-fetch.js';
 import { createPhotoStore } from './storage/index.js';
 
 /** Connects the database, binds the models and starts the mail queue and its worker. */
@@ -24,11 +25,14 @@ export async function startParts(config: Config): Promise<AppParts> {
     chaser = new ApprovalChaser(config, { config, mail, logger, photos }, logger.child({ part: 'approvals' }));
     await chaser.start();
   }
-  return { config, logger, sequelize, mail, photos, chaser, passwords };
+  const payouts = config.PAYOUT_SCHEDULE ? new PayoutFetcher(config, logger.child({ part: 'payouts' })) : undefined;
+  await payouts?.start();
+  return { config, logger, sequelize, mail, photos, chaser, passwords, payouts };
 }
 
 export async function stopParts(parts: AppParts): Promise<void> {
   await parts.chaser?.stop();
+  await parts.payouts?.stop();
   await parts.mail.stop();
   await parts.passwords.close();
   await closeDocumentRenderer();

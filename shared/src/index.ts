@@ -25,3 +25,4 @@ export * from './money-format.js';
 export * from './pricing/index.js';
 export * from './documents.js';
 export * from './vat-rounding-words.js';
+export * from './schemas/accounts.js';

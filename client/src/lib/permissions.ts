@@ -41,6 +41,7 @@ export function navFor(role: Role): NavItem[] {
   if (role === 'accounts' || role === 'admin' || role === 'manager') items.push({ to: '/accounts/deposits', label: 'Accounts' });
   if (can.seeCatalogue(role)) items.push({ to: '/catalogue', label: 'Catalogue' });
   if (can.seeTemplates(role)) items.push({ to: '/templates', label: 'Templates' });
+  if (role === 'accounts' || role === 'admin' || role === 'manager') items.push({ to: '/accounts', label: 'Accounts' });
   if (can.manageStaff(role)) items.push({ to: '/staff', label: 'Staff' });
   if (can.manageSettings(role)) items.push({ to: '/settings', label: 'Settings' });
   return items;

@@ -130,6 +130,8 @@ const configSchema = z
     PASSWORD_QUEUE: z.coerce.number().int().min(0).max(10000).default(16),
     /** Runs the reminder and expiry schedule; off unless asked for in tests. */
     APPROVAL_CHASER: bool.default(true),
+    /** Runs the hourly payout fetch; off in tests unless asked for. */
+    PAYOUT_SCHEDULE: bool.optional(),
     /** Off in unit-style tests that do not need mail delivery; on everywhere else. */
     MAIL_WORKER: bool.default(true),
     /**
@@ -139,7 +141,7 @@ const configSchema = z
     MAIL_QUEUE: z.string().regex(/^[a-z0-9-]{1,60}$/, { message: 'MAIL_QUEUE: 1–60 lower-case letters, digits or dashes.' }).default('mail-send'),
     ...stripeShape,
   })
-  .transform((c) => ({ ...c, COOKIE_SECURE: c.COOKIE_SECURE ?? c.NODE_ENV === 'production', stripeApi: stripeApi(c.STRIPE_API_URL) }))
+  .transform((c) => ({ ...c, COOKIE_SECURE: c.COOKIE_SECURE ?? c.NODE_ENV === 'production', PAYOUT_SCHEDULE: c.PAYOUT_SCHEDULE ?? c.NODE_ENV !== 'test', stripeApi: stripeApi(c.STRIPE_API_URL) }))
   .superRefine((c, ctx) => {
     // ASVS 4.0.3 V2.2.1: at most 100 failed attempts per account per hour, so at most 25 per 15 minutes.
     // Test runs may raise it (many journeys sign in as the same person); production may not.

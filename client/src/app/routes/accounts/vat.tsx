@@ -1,0 +1,13 @@
+import { VatPage } from '@/features/accounts/components/vat-page';
+import { OFFICE, requireSession } from '../../guards';
+import type { LoaderFunctionArgs } from 'react-router-dom';
+
+/** Accounts and admin work here; managers may read. */
+export async function loader({ request }: LoaderFunctionArgs) {
+  await requireSession(request, OFFICE);
+  return null;
+}
+
+export function Component() {
+  return <VatPage />;
+}
