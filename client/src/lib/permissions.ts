@@ -38,7 +38,6 @@ export function navFor(role: Role): NavItem[] {
   if (can.seeOwners(role)) items.push({ to: '/owners', label: 'Owners' });
   if (role === 'manager' || role === 'admin') items.push({ to: '/hangar', label: 'Hangar' });
   if (role !== 'engineer') items.push({ to: '/deposits', label: 'Deposits waiting' });
-  if (role === 'accounts' || role === 'admin' || role === 'manager') items.push({ to: '/accounts/deposits', label: 'Accounts' });
   if (can.seeCatalogue(role)) items.push({ to: '/catalogue', label: 'Catalogue' });
   if (can.seeTemplates(role)) items.push({ to: '/templates', label: 'Templates' });
   if (role === 'accounts' || role === 'admin' || role === 'manager') items.push({ to: '/accounts', label: 'Accounts' });

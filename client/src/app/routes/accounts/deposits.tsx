@@ -1,5 +1,6 @@
 import type { LoaderFunctionArgs } from 'react-router-dom';
 import { DepositAccountsPage } from '@/features/payments/components/deposit-lists';
+import { AccountsNav } from '@/features/accounts/components/accounts-nav';
 import { OFFICE, requireSession } from '../../guards';
 
 export async function loader({ request }: LoaderFunctionArgs) {
@@ -8,5 +9,5 @@ export async function loader({ request }: LoaderFunctionArgs) {
 }
 
 export function Component() {
-  return <DepositAccountsPage />;
+  return <DepositAccountsPage nav={<AccountsNav />} />;
 }

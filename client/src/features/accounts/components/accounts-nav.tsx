@@ -1,12 +1,10 @@
 import { NavLink } from 'react-router-dom';
 import { ACCOUNTS_WORDS as W } from '../words';
 
-/**
- * The Accounts area's own sections. Other areas that show accounts a page (the deposits received
- * and waiting, /accounts/deposits) add their entry here.
- */
+/** The Accounts area's sections, including the deposits page (received and waiting), which the payments feature draws. */
 export const ACCOUNTS_SECTIONS: { to: string; label: string }[] = [
   { to: '/accounts', label: W.ledger.title },
+  { to: '/accounts/deposits', label: 'Deposits' },
   { to: '/accounts/payouts', label: W.payouts.title },
   { to: '/accounts/exceptions', label: W.exceptions.title },
   { to: '/accounts/aged-debt', label: W.agedDebt.title },

@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import type { DepositWaitingRow } from '@wingstage/shared';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
@@ -100,8 +101,8 @@ export function WaitingDepositsPage() {
   );
 }
 
-/** Accounts' first page: deposits received with fee and net, and deposits waiting. */
-export function DepositAccountsPage() {
+/** Accounts' page of deposits: received with fee and net, and waiting. `nav` is the Accounts area's section links. */
+export function DepositAccountsPage({ nav }: { nav?: ReactNode } = {}) {
   const q = useQuery(depositAccountsQueryOptions());
   if (q.isPending) return <Loading />;
   if (q.isError) return <Notice tone="problem">{isApiError(q.error) ? q.error.message : 'The page could not be loaded.'}</Notice>;
@@ -110,6 +111,7 @@ export function DepositAccountsPage() {
   return (
     <>
       <PageHeader title={W.accountsHeading} lead={W.accountsLead} />
+      {nav}
       <div className="flex flex-col gap-4">
         <Card title={W.received}>
           <dl className="mb-3 grid grid-cols-2 gap-2 text-sm tabular-nums sm:grid-cols-4" aria-label="Totals of deposits received">
