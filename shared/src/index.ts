@@ -22,3 +22,4 @@ export * from './money.js';
 export * from './money-format.js';
 export * from './pricing/index.js';
 export * from './documents.js';
+export * from './schemas/invoices.js';
