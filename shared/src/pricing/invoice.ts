@@ -164,7 +164,7 @@ export function buildInvoiceDocument(input: InvoiceBuildInput): InvoiceDocument 
   if (deposits.length) {
     notes.push('Deposits received before this invoice were taxed when received (each on its own date); the VAT on the balance is the rest.');
   }
-  notes.push(`Payment due within ${input.paymentTermsDays} ${input.paymentTermsDays === 1 ? 'day' : 'days'} of the invoice date, by ${input.dueOn}.`);
+  notes.push(input.paymentTermsDays === 0 ? 'Payment due on receipt of this invoice.' : `Payment due within ${input.paymentTermsDays} ${input.paymentTermsDays === 1 ? 'day' : 'days'} of the invoice date.`);
 
   return {
     version: 1,

@@ -1,15 +1,18 @@
-import { isTerminalJobState } from '@wingstage/shared';
+import { isTerminalJobState, type JobState } from '@wingstage/shared';
 import { useQueries, useSuspenseQuery } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
 import { Caution } from '@/components/ui/notice';
 import { myAircraftQueryOptions } from '@/features/owner/api/get-my-aircraft';
 import { myJobsQueryOptions } from '@/features/owner/api/get-my-jobs';
 import { myJobEstimateQueryOptions, myJobFindingsQueryOptions, myJobRequestsQueryOptions } from '@/features/owner/api/get-my-job-money';
+import { myJobInvoiceQueryOptions } from '@/features/owner/api/get-my-invoice';
 import { MyAircraftLetter, type JobMoney } from '@/features/owner/components/my-aircraft-letter';
 import { OWNER_WORDS } from '@/features/owner/words';
 import { queryClient } from '@/lib/query-client';
 import { requireSession } from '../guards';
 import { useCurrentSession } from '../use-current-session';
+
+const INVOICED: readonly JobState[] = ['invoiced', 'paid', 'closed'];
 
 export async function loader({ request }: LoaderFunctionArgs) {
   await requireSession(request, ['owner']);
@@ -27,9 +30,15 @@ export function Component() {
   const estimates = useQueries({ queries: open.map((j) => myJobEstimateQueryOptions(j.id)) });
   const requests = useQueries({ queries: open.map((j) => myJobRequestsQueryOptions(j.id)) });
   const findings = useQueries({ queries: open.map((j) => myJobFindingsQueryOptions(j.id)) });
+  // Invoices: jobs invoiced, paid or closed (a closed job's invoice and credit notes stay to download).
+  const invoiced = jobs.items.filter((j) => INVOICED.includes(j.state));
+  const invoices = useQueries({ queries: invoiced.map((j) => myJobInvoiceQueryOptions(j.id)) });
   const money: Record<string, JobMoney> = Object.fromEntries(
     open.map((j, i) => [j.id, { estimate: estimates[i]?.data, requests: requests[i]?.data, findings: findings[i]?.data }]),
   );
+  invoiced.forEach((j, i) => {
+    money[j.id] = { ...money[j.id], invoice: invoices[i]?.data };
+  });
   return (
     <>
       <MyAircraftLetter firstName={firstName} workshopName={session.workshop.name} contact={session.workshop.contact} aircraft={aircraft.items} jobs={jobs.items} money={money} />

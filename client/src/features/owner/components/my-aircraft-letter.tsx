@@ -6,6 +6,8 @@ import { EnvelopeIcon } from '@/components/ui/icons';
 import { StateBadge } from '@/components/ui/state-badge';
 import { formatDate, formatDateTime, formatHours, formatMoney } from '@/lib/format';
 import { IN_THE_HANGAR, OWNER_JOB_MEANING, OWNER_WORDS as W } from '../words';
+import { MyInvoice } from './my-invoice';
+import type { InvoiceDto } from '@wingstage/shared';
 
 /** What the letter knows about the money on one job; either part may still be loading. */
 export interface JobMoney {
@@ -13,6 +15,8 @@ export interface JobMoney {
   requests?: ApprovalRequestDto[];
   /** What was found on the job, as the server lets the owner see it. */
   findings?: FindingDto[];
+  /** The job's invoice once issued (invoiced, paid and closed jobs). */
+  invoice?: InvoiceDto | null;
 }
 
 const WORDS = ['No', 'One', 'Two', 'Three', 'Four', 'Five', 'Six', 'Seven', 'Eight', 'Nine', 'Ten'];
@@ -134,6 +138,7 @@ function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
       {waiting ? <DecisionWaiting request={waiting} currency={currency} /> : null}
       {money?.estimate && !isTerminalJobState(job.state) ? <MoneySoFar estimate={money.estimate} /> : null}
       {money?.findings ? <WhatWeFound findings={money.findings} /> : null}
+      {money?.invoice ? <MyInvoice jobId={job.id} invoice={money.invoice} /> : null}
     </li>
   );
 }
