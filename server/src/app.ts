@@ -26,6 +26,7 @@ import type { Deps } from './services/deps.js';
 import { createRateLimits } from './lib/rate-limits.js';
 import type { PhotoStore } from './storage/index.js';
 import { webhooksRoutes } from './routes/webhooks.routes.js';
+import { decideDepositRoutes, depositRoutes, jobPaymentRoutes } from './routes/payments.routes.js';
 import { decidePhotoRoutes, findingPhotoRoutes, photoRoutes } from './routes/photos.routes.js';
 
 export interface AppParts {
@@ -149,10 +150,13 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/jobs', jobWorkRoutes(deps));
   app.use('/api/jobs', jobApprovalRoutes(deps));
   app.use('/api/jobs', findingPhotoRoutes(deps));
+  app.use('/api/jobs', jobPaymentRoutes(deps));
+  app.use('/api/deposits', depositRoutes(deps));
   app.use('/api/photos', photoRoutes(deps));
   app.use('/api/approval-requests', approvalRequestRoutes(deps));
   app.use('/api/decide', decideRoutes(deps, limits));
   app.use('/api/decide', decidePhotoRoutes(deps, limits));
+  app.use('/api/decide', decideDepositRoutes(deps, limits));
   app.use('/api/suppliers', suppliersRoutes(deps));
   app.use('/api/parts', partsRoutes(deps));
   app.use('/api/templates', templatesRoutes(deps));

@@ -98,12 +98,13 @@ describe('the webhook signature check', () => {
 
 describe('POST /api/webhooks/stripe', () => {
   it('when a signed event arrives, then it is recorded once with its type and object, and acknowledged', async () => {
+    // A session Wingstage never opened: its handler finds no payment and leaves everything else alone.
     const payload = eventBody('checkout.session.completed', 'cs_test_recorded1');
     const res = await post(payload, sign(payload));
     expect(res.status).toBe(200);
-    expect(res.body).toMatchObject({ received: true, duplicate: false, outcome: 'recorded' });
+    expect(res.body).toMatchObject({ received: true, duplicate: false, outcome: 'processed' });
     const row = await PaymentEvent.findOne({ where: { stripeEventId: res.body.eventId } });
-    expect(row).toMatchObject({ type: 'checkout.session.completed', objectId: 'cs_test_recorded1', livemode: false, apiVersion: '2026-10-28.endive', outcome: 'recorded' });
+    expect(row).toMatchObject({ type: 'checkout.session.completed', objectId: 'cs_test_recorded1', livemode: false, apiVersion: '2026-10-28.endive', outcome: 'processed', workshopId: null });
     // The raw bytes were verified; the stored payload is the event itself.
     expect((row!.payload as { data: { object: { amount_total: number } } }).data.object.amount_total).toBe(12000);
   });
@@ -217,8 +218,8 @@ describe('deliveries from the Stripe fake', () => {
     const done = await client.checkout.sessions.retrieve(s.id);
     const events = await PaymentEvent.findAll({ where: { objectId: [s.id, done.payment_intent as string] }, order: [['receivedAt', 'ASC']] });
     expect(events.map((e) => [e.type, e.outcome])).toEqual([
-      ['payment_intent.succeeded', 'recorded'],
-      ['checkout.session.completed', 'recorded'],
+      ['payment_intent.succeeded', 'processed'],
+      ['checkout.session.completed', 'processed'],
     ]);
     const completed = events[1]!.stripeEventId;
     await fetch(`${fake.url}/control/events/${completed}/resend`, { method: 'POST', headers: { Authorization: `Bearer ${TEST_STRIPE_KEY}` } });

@@ -14,6 +14,7 @@ export * from './schemas/findings.js';
 export * from './schemas/estimates.js';
 export * from './schemas/approvals.js';
 export * from './schemas/photos.js';
+export * from './schemas/payments.js';
 export * from './checklist.js';
 export * from './bounds.js';
 export * from './words.js';

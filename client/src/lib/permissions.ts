@@ -37,6 +37,8 @@ export function navFor(role: Role): NavItem[] {
   if (can.seeAircraft(role)) items.push({ to: '/aircraft', label: 'Aircraft' });
   if (can.seeOwners(role)) items.push({ to: '/owners', label: 'Owners' });
   if (role === 'manager' || role === 'admin') items.push({ to: '/hangar', label: 'Hangar' });
+  if (role !== 'engineer') items.push({ to: '/deposits', label: 'Deposits waiting' });
+  if (role === 'accounts' || role === 'admin' || role === 'manager') items.push({ to: '/accounts/deposits', label: 'Accounts' });
   if (can.seeCatalogue(role)) items.push({ to: '/catalogue', label: 'Catalogue' });
   if (can.seeTemplates(role)) items.push({ to: '/templates', label: 'Templates' });
   if (can.manageStaff(role)) items.push({ to: '/staff', label: 'Staff' });

@@ -8,6 +8,7 @@ import { myJobEstimateQueryOptions, myJobFindingsQueryOptions, myJobRequestsQuer
 import { myJobInvoiceQueryOptions } from '@/features/owner/api/get-my-invoice';
 import { MyAircraftLetter, type JobMoney } from '@/features/owner/components/my-aircraft-letter';
 import { OWNER_WORDS } from '@/features/owner/words';
+import { OwnerDeposits } from '@/features/payments/components/owner-deposits';
 import { queryClient } from '@/lib/query-client';
 import { requireSession } from '../guards';
 import { useCurrentSession } from '../use-current-session';
@@ -41,7 +42,7 @@ export function Component() {
   });
   return (
     <>
-      <MyAircraftLetter firstName={firstName} workshopName={session.workshop.name} contact={session.workshop.contact} aircraft={aircraft.items} jobs={jobs.items} money={money} />
+      <MyAircraftLetter firstName={firstName} workshopName={session.workshop.name} contact={session.workshop.contact} aircraft={aircraft.items} jobs={jobs.items} money={money} jobExtra={(jobId) => <OwnerDeposits jobId={jobId} />} />
       <div className="mx-auto max-w-2xl">
         <Caution>
           <span className="font-semibold">{OWNER_WORDS.cautionHeading}.</span> {OWNER_WORDS.caution}

@@ -25,6 +25,7 @@ import { linkOf, sameHash, sha256 } from './links.js';
 import { bySupersededHash, decisionsOf, insertDecision, jobOwner, markDecisionsSeen, moveRequest, OPEN_REQUEST } from './repository.js';
 import { checklistComplete, expireIfDue } from './requests.service.js';
 import { itemIdsOf, itemName } from './snapshot.js';
+import { raiseDepositsForDecision } from '../deposits.service.js';
 import { inTransaction } from '../../db/transaction.js';
 
 type DecisionInput = z.output<typeof decisionSubmitSchema>;
@@ -170,6 +171,7 @@ export async function submitDecision(deps: Deps, token: string, input: DecisionI
     await moveFindings(r.jobId, approve, 'approved', t);
     await moveFindings(r.jobId, decline, 'declined', t);
     await moveRequest(r, 'decided', t, { decidedAt: now, decidedByName: input.typedName, decidedIp: from.ip.slice(0, 100), decidedUserAgent: from.userAgent.slice(0, 500) });
+    await raiseDepositsForDecision(deps, { workshopId: r.workshopId, jobId: r.jobId, approvalRequestId: r.id, figures }, t);
 
     const named = (want: Decision) => ids.filter((id) => choice[id] === want).map((id) => itemName(snap, id)).join(', ') || 'none';
     const audit = (action: string, summary: string, detail: Record<string, unknown>) =>

@@ -30,6 +30,7 @@ import { InvoiceSection } from '@/features/invoices/components/invoice-section';
 import { DecisionsToSeePanel } from '@/features/jobs/components/decisions-to-see';
 import { JobEditForm } from '@/features/jobs/components/job-edit-form';
 import { JobHistory } from '@/features/jobs/components/job-history';
+import { JobDeposits } from '@/features/payments/components/job-deposits';
 import { formatDate, formatMoney } from '@/lib/format';
 import { can } from '@/lib/permissions';
 import { queryClient } from '@/lib/query-client';
@@ -125,6 +126,7 @@ export function Component() {
             )}
           </Card>
         </div>
+        <JobDeposits jobId={job.id} role={role} />
         {can.seeHistory(role) ? (
           <Card title="History">{history.data ? <JobHistory events={history.data} /> : history.isError ? <p>History could not be loaded.</p> : <Loading />}</Card>
         ) : null}

@@ -23,6 +23,7 @@ import { formatDateTime, formatMoney, trimDecimal } from '@/lib/format';
 import { clearDraft, deviceStorage, DRAFT_DISCARD_WORDS, readDraft, saveDraft, type DecisionDraft, type DraftDiscard } from '../draft';
 import { choiceOf, declinedAirworthinessWords, declinedQuoteWords, itemsOf, openingUpWords, type Choices, type PageItem, type SnapshotFinding, type SnapshotQuote } from '../items';
 import { FindingPhotos } from './finding-photos';
+import { DecisionDepositsNote } from './decision-deposits';
 
 /** The owner's pages use the 44 px size throughout. */
 const Button = (props: ComponentProps<typeof BaseButton>) => <BaseButton size="lg" {...props} />;
@@ -77,7 +78,7 @@ export function DecisionPage({ page, token, onSubmit, submitting = false, onRelo
   }, [stored, storage, s.requestId]);
 
   if (page.state !== 'sent' || page.closedReason || superseded) {
-    return page.decisions && page.decidedAt && !superseded ? <Receipt page={page} discarded={stored.discarded} /> : <Closed page={page} discarded={stored.discarded} />;
+    return page.decisions && page.decidedAt && !superseded ? <Receipt page={page} discarded={stored.discarded} token={token} /> : <Closed page={page} discarded={stored.discarded} />;
   }
   return (
     <Deciding
@@ -751,7 +752,7 @@ function RunningTotalBar({ currency, priced: p }: { currency: string; priced: Pr
   );
 }
 
-function Receipt({ page, discarded }: { page: DecisionPageDto; discarded: DraftDiscard | null }) {
+function Receipt({ page, discarded, token }: { page: DecisionPageDto; discarded: DraftDiscard | null; token: string }) {
   const s = page.snapshot;
   const items = itemsOf(s);
   const byId = new Map((page.decisions ?? []).map((d) => [d.itemId, d]));
@@ -778,6 +779,7 @@ function Receipt({ page, discarded }: { page: DecisionPageDto; discarded: DraftD
           {formatMoney(t.newTotal.gross, s.currency)}
         </dd>
       </dl>
+      <DecisionDepositsNote token={token} />
       <p data-testid="receipt-contact">To change a decision, contact {workshopContactWords(s)}.</p>
       <p>
         With thanks,

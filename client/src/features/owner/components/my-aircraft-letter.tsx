@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { JOB_TYPE_LABELS, QUOTE_STATE_OWNER_WORDS, compareAmounts, isTerminalJobState, photoUrl, type AircraftDto, type ApprovalRequestDto, type EstimateDto, type FindingDto, type JobDto } from '@wingstage/shared';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { CategoryBadge, FindingStateBadge } from '@/components/ui/finding-badges';
@@ -121,7 +122,7 @@ function WhatWeFound({ findings }: { findings: FindingDto[] }) {
   );
 }
 
-function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
+function JobEntry({ job, money, extra }: { job: JobDto; money?: JobMoney; extra?: ReactNode }) {
   const waiting = money?.requests?.find((r) => r.state === 'sent');
   const currency = money?.estimate?.currency ?? 'GBP';
   return (
@@ -137,6 +138,7 @@ function JobEntry({ job, money }: { job: JobDto; money?: JobMoney }) {
       </p>
       {waiting ? <DecisionWaiting request={waiting} currency={currency} /> : null}
       {money?.estimate && !isTerminalJobState(job.state) ? <MoneySoFar estimate={money.estimate} /> : null}
+      {extra}
       {money?.findings ? <WhatWeFound findings={money.findings} /> : null}
       {money?.invoice ? <MyInvoice jobId={job.id} invoice={money.invoice} /> : null}
     </li>
@@ -177,6 +179,7 @@ export function MyAircraftLetter({
   aircraft,
   jobs,
   money = {},
+  jobExtra,
 }: {
   firstName: string;
   workshopName: string;
@@ -184,6 +187,8 @@ export function MyAircraftLetter({
   aircraft: AircraftDto[];
   jobs: JobDto[];
   money?: Record<string, JobMoney>;
+  /** More about one job (its deposits), rendered by the page inside the job's entry. */
+  jobExtra?: (jobId: string) => ReactNode;
 }) {
   const inHangar = jobs.filter((j) => IN_THE_HANGAR.includes(j.state));
   const others = jobs.length - inHangar.length;
@@ -218,7 +223,7 @@ export function MyAircraftLetter({
             ) : (
               <ul className="flex flex-col gap-3" aria-label={W.jobsFor(a.registration)}>
                 {own.map((j) => (
-                  <JobEntry key={j.id} job={j} money={money[j.id]} />
+                  <JobEntry key={j.id} job={j} money={money[j.id]} extra={jobExtra?.(j.id)} />
                 ))}
               </ul>
             )}
