@@ -6,6 +6,7 @@ import { DEMO_JOBS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_STAFF, DEMO_WORKSHOP } from
 import { seedCatalogue, seedJobWork, type SeededJob } from './demo-estimates.js';
 import { seedApprovals } from './demo-approvals.js';
 import { seedDemoPhotos } from './demo-photos.js';
+import { seedInvoices } from './demo-invoices.js';
 import { loadStorageConfig } from '../../server/src/config/config.js';
 import { createPhotoStore, type PhotoStore } from '../../server/src/storage/index.js';
 
@@ -101,6 +102,7 @@ export async function seedDemo(sequelize: Sequelize, now = new Date(), store?: P
       const brke = seeded.find((j) => j.registration === 'Q-BRKE' && j.job.title === '100-hour engine service');
       if (brke) await seedDemoPhotos(w, brke.job.id, staff.get('priya')!, photos, brke.at, t);
       await seedApprovals(w, seeded, staff, now, t);
+      await seedInvoices(w, seeded, staff, now, t);
     }
     await sequelize.query('INSERT INTO job_counters (workshop_id, last_number) VALUES ($1, $2)', { bind: [w.id, n], transaction: t });
     return true;

@@ -216,15 +216,18 @@ async function writeCreditNote(
 /** A credit note without a refund (a goodwill reduction): lowers what the owner owes. */
 export async function issueGoodwillCreditNote(scope: Scope, invoiceId: string, input: GoodwillInput): Promise<CreditNoteDto> {
   requireStaff(scope);
-  const id = await inTransaction(async (t) => {
-    const invoice = await lockInvoice(scope, invoiceId, t);
-    const cn = await writeCreditNote(scope, invoice, input.amount, input.reason, null, t);
-    await creditInvoiceIfCleared(invoice.id, t);
-    // The reduction may leave what was received covering the rest.
-    await settleJobIfCovered(scope, invoice.jobId, t);
-    return cn.id;
-  });
+  const id = await inTransaction((t) => issueGoodwillCreditNoteIn(scope, invoiceId, input, t));
   return getCreditNote(scope, id);
+}
+
+/** The same inside the caller's transaction; returns the credit note's id. */
+export async function issueGoodwillCreditNoteIn(scope: Scope, invoiceId: string, input: GoodwillInput, t: Transaction): Promise<string> {
+  const invoice = await lockInvoice(scope, invoiceId, t);
+  const cn = await writeCreditNote(scope, invoice, input.amount, input.reason, null, t);
+  await creditInvoiceIfCleared(invoice.id, t);
+  // The reduction may leave what was received covering the rest.
+  await settleJobIfCovered(scope, invoice.jobId, t);
+  return cn.id;
 }
 
 /**

@@ -352,7 +352,14 @@ export async function invoiceOfJob(scope: Scope, jobId: string): Promise<Invoice
  */
 export async function recordOfflinePayment(scope: Scope, jobId: string, input: OfflineInput): Promise<{ paymentId: string; invoice: InvoiceDto }> {
   requireStaff(scope);
-  const paymentId = await inTransaction(async (t) => {
+  const paymentId = await inTransaction((t) => recordOfflinePaymentIn(scope, jobId, input, t));
+  const inv = await invoiceOfJob(scope, jobId);
+  return { paymentId, invoice: inv! };
+}
+
+/** The same inside the caller's transaction (job row locked first); returns the payment's id. */
+export async function recordOfflinePaymentIn(scope: Scope, jobId: string, input: OfflineInput, t: Transaction): Promise<string> {
+  {
     const job = await lockJob(scope, jobId, t);
     const invoice = await Invoice.findOne({ where: { jobId: job.id, workshopId: scope.workshopId }, transaction: t });
     if (!invoice) throw conflict('Issue the invoice first: a payment is recorded against the invoice’s balance.');
@@ -392,9 +399,7 @@ export async function recordOfflinePayment(scope: Scope, jobId: string, input: O
     });
     await settleJobIfCovered(scope, job.id, t);
     return p.id;
-  });
-  const inv = await invoiceOfJob(scope, jobId);
-  return { paymentId, invoice: inv! };
+  }
 }
 
 /** After a credit note: the invoice is credited once credit notes cover all of it. */
