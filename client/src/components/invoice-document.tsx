@@ -31,15 +31,15 @@ export function InvoiceDocumentView({ doc, audience }: { doc: InvoiceDocument; a
           {doc.supplier.vatNumber ? ` · VAT no. ${doc.supplier.vatNumber}` : ''}
         </dd>
       </dl>
-      <div className="overflow-x-auto">
-        <table className="w-full min-w-[32rem] text-sm">
+      <div>
+        <table className="w-full text-sm">
           <caption className="sr-only">Invoice lines</caption>
           <thead>
             <tr className="border-b border-seam-strong text-left">
               <th scope="col" className="py-1 pr-2">What was done</th>
               <th scope="col" className="py-1 pr-2 text-right">Qty</th>
-              <th scope="col" className="py-1 pr-2 text-right">Unit price excl. VAT</th>
-              <th scope="col" className="py-1 pr-2 text-right">VAT rate</th>
+              <th scope="col" className="hidden py-1 pr-2 text-right sm:table-cell">Unit price excl. VAT</th>
+              <th scope="col" className="hidden py-1 pr-2 text-right sm:table-cell">VAT rate</th>
               <th scope="col" className="py-1 text-right">Amount excl. VAT</th>
             </tr>
           </thead>
@@ -49,13 +49,17 @@ export function InvoiceDocumentView({ doc, audience }: { doc: InvoiceDocument; a
                 <td className="py-1 pr-2">
                   {l.description}
                   {l.finding ? <span className="block text-slate-soft">{l.finding}</span> : null}
+                  {/* On a phone the unit price and rate sit under the description instead of in columns. */}
+                  <span className="block text-slate-soft sm:hidden">
+                    {formatMoney(l.unitNet, c, { exact: true })} {l.unit === 'h' ? 'an hour' : 'each'} excl. VAT · VAT {rateWords(l.vatRate, l.vatPercent)}
+                  </span>
                 </td>
                 <td className="py-1 pr-2 text-right tabular-nums">
                   {l.quantity}
                   {l.unit ? ` ${l.unit}` : ''}
                 </td>
-                <td className="py-1 pr-2 text-right tabular-nums">{formatMoney(l.unitNet, c, { exact: true })}</td>
-                <td className="py-1 pr-2 text-right tabular-nums">{rateWords(l.vatRate, l.vatPercent)}</td>
+                <td className="hidden py-1 pr-2 text-right tabular-nums sm:table-cell">{formatMoney(l.unitNet, c, { exact: true })}</td>
+                <td className="hidden py-1 pr-2 text-right tabular-nums sm:table-cell">{rateWords(l.vatRate, l.vatPercent)}</td>
                 <td className="py-1 text-right tabular-nums">{formatMoney(l.net, c)}</td>
               </tr>
             ))}
