@@ -116,8 +116,8 @@ export const DEMO_JOBS: DemoJob[] = [
     path: [
       { to: 'inspecting', by: 'sam' },
       { to: 'in_work', by: 'declan' },
+      // Invoiced by the invoice seeder (demo-invoices.ts), with the deposit deducted.
       { to: 'ready_for_release', by: 'declan' },
-      { to: 'invoiced', by: 'declan' },
     ],
   },
   {
@@ -125,9 +125,8 @@ export const DEMO_JOBS: DemoJob[] = [
     path: [
       { to: 'inspecting', by: 'priya' },
       { to: 'in_work', by: 'declan' },
+      // Invoiced, credited and paid by the invoice seeder (demo-invoices.ts).
       { to: 'ready_for_release', by: 'declan' },
-      { to: 'invoiced', by: 'declan' },
-      { to: 'paid', by: 'declan' },
     ],
   },
   {

@@ -9,6 +9,7 @@ import { seedDemoPhotos } from './demo-photos.js';
 import { seedDeposits } from './demo-deposits.js';
 import type Stripe from 'stripe';
 import { seedAccounts } from './demo-accounts.js';
+import { seedInvoices } from './demo-invoices.js';
 import { loadStorageConfig } from '../../server/src/config/config.js';
 import { createPhotoStore, type PhotoStore } from '../../server/src/storage/index.js';
 
@@ -105,6 +106,7 @@ export async function seedDemo(sequelize: Sequelize, now = new Date(), store?: P
       if (brke) await seedDemoPhotos(w, brke.job.id, staff.get('priya')!, photos, brke.at, t);
       await seedApprovals(w, seeded, staff, now, t);
       await seedDeposits(w, seeded, staff, now, t, stripe);
+      await seedInvoices(w, seeded, staff, now, t);
     }
     await seedAccounts(w, seeded, staff, now, t);
     await sequelize.query('INSERT INTO job_counters (workshop_id, last_number) VALUES ($1, $2)', { bind: [w.id, n], transaction: t });

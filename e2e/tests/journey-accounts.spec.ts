@@ -21,7 +21,7 @@ test.describe('@accounts closing the week', () => {
 
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Accounts' }).click();
     await expect(page.getByRole('heading', { level: 1, name: 'Accounts' })).toBeVisible();
-    await expect(page.getByRole('table')).toContainText('Deposit: Fabric and dope ordered for the re-cover');
+    await expect(page.getByRole('table')).toContainText('Deposit: Propeller sent out for overhaul');
     await page.getByRole('navigation', { name: 'Accounts sections' }).getByRole('link', { name: 'Payouts' }).click();
     await page.getByRole('button', { name: 'Fetch payouts now' }).click();
     await expect(page.getByRole('status').filter({ hasText: /Fetched \d+ payout/ })).toBeVisible();

@@ -18,6 +18,7 @@ import { jobsRoutes } from './routes/jobs.routes.js';
 import { usersRoutes } from './routes/users.routes.js';
 import { partsRoutes, suppliersRoutes } from './routes/catalogue.routes.js';
 import { templatesRoutes } from './routes/templates.routes.js';
+import { creditNotesRoutes, invoicesRoutes, jobInvoiceRoutes } from './routes/invoices.routes.js';
 import { jobWorkRoutes } from './routes/job-work.routes.js';
 import { workshopRoutes } from './routes/workshop.routes.js';
 import { approvalRequestRoutes, decideRoutes, jobApprovalRoutes } from './routes/approvals.routes.js';
@@ -166,6 +167,9 @@ export function createApp(parts: AppParts): Express {
   app.use('/api/templates', templatesRoutes(deps));
   app.use('/api', documentsRoutes(deps));
   app.use('/api/accounts', accountsRoutes(deps));
+  app.use('/api/jobs', jobInvoiceRoutes(deps));
+  app.use('/api/invoices', invoicesRoutes(deps));
+  app.use('/api/credit-notes', creditNotesRoutes(deps));
   app.use('/api', apiNotFound);
 
   const indexHtml = path.join(config.CLIENT_DIST, 'index.html');

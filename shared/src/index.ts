@@ -26,3 +26,4 @@ export * from './pricing/index.js';
 export * from './documents.js';
 export * from './vat-rounding-words.js';
 export * from './schemas/accounts.js';
+export * from './schemas/invoices.js';

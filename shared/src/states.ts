@@ -57,6 +57,23 @@ export const JOB_TRANSITIONS: Record<JobState, readonly JobState[]> = {
   cancelled: [],
 };
 
+/**
+ * States a job reaches only through money, never by a button: invoiced when its invoice is issued,
+ * paid when what is received covers the invoice (vocabulary.md, "Job states").
+ */
+export const JOB_STATES_BY_MONEY: readonly JobState[] = ['invoiced', 'paid'];
+
+/** Why a person cannot move a job into a state set by money, in the office's words. */
+export const JOB_STATE_BY_MONEY_REASON: Partial<Record<JobState, string>> = {
+  invoiced: 'A job becomes invoiced when its invoice is issued: use "Issue invoice".',
+  paid: 'A job becomes paid when the money received covers its invoice: use "Record a payment" for money taken another way.',
+};
+
+/** The moves a person may make by hand from a state: the table above without the moves money makes. */
+export function manualJobMoves(from: JobState): readonly JobState[] {
+  return JOB_TRANSITIONS[from].filter((s) => !JOB_STATES_BY_MONEY.includes(s));
+}
+
 /** The button label for moving a job into each state (vocabulary.md, "Actions"). */
 export const JOB_TRANSITION_ACTIONS: Record<JobState, string> = {
   booked_in: 'Book in',
@@ -64,8 +81,8 @@ export const JOB_TRANSITION_ACTIONS: Record<JobState, string> = {
   awaiting_owner: 'Hold for owner',
   in_work: 'Start work',
   ready_for_release: 'Mark ready for release',
-  invoiced: 'Mark invoiced',
-  paid: 'Mark paid',
+  invoiced: 'Issue invoice',
+  paid: 'Record a payment',
   closed: 'Close job',
   cancelled: 'Cancel job',
 };

@@ -9,7 +9,7 @@ export const VAT_ROUNDING_LABELS: Record<VatRounding, string> = {
   'invoice-down': 'On the invoice total, rounded down to the penny',
   'invoice-nearest': 'On the invoice total, rounded to the nearest penny',
   'line-nearest': 'On each line, rounded to the nearest penny',
-  'line-down-tenth': 'On each line, rounded down to a tenth of a penny',
+  'line-down-tenth': 'On each line, rounded down to a tenth of a penny, the total rounded down',
 };
 
 /** The label for a stored method, or the stored text itself for one Wingstage no longer offers. */

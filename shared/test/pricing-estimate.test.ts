@@ -87,7 +87,7 @@ describe('line amounts', () => {
     const p = workshopPricingFrom({
       currency: 'GBP',
       vatRates: { standard: '20', reduced: '5', zero: '0' },
-      settings: { vatRounding: 'line-nearest', partsMarkupPercent: '15', subcontractMarkupPercent: '5', approvalLinkDays: 14, chaseAfterHours: 48, contactPhone: '', contactEmail: '', depositPolicy: { kind: 'none' } },
+      settings: { vatRounding: 'line-nearest', partsMarkupPercent: '15', subcontractMarkupPercent: '5', approvalLinkDays: 14, chaseAfterHours: 48, contactPhone: '', contactEmail: '', depositPolicy: { kind: 'none' }, paymentTermsDays: 30 },
     });
     expect(p).toEqual({ ...pricing, vatRounding: 'line-nearest', partsMarkupPercent: '15', subcontractMarkupPercent: '5' });
   });

@@ -9,6 +9,8 @@ export interface MailMessage {
   subject: string;
   text: string;
   html: string;
+  /** Files sent with it (a document's PDF), as base64 so the queued message stays JSON. */
+  attachments?: { filename: string; contentType: string; contentBase64: string }[];
 }
 
 export const MAIL_QUEUE = 'mail-send';
@@ -91,7 +93,14 @@ export class MailQueue {
 
   /** Deliver now, bypassing the queue; the worker uses it, and so can a health check. */
   async deliver(msg: MailMessage): Promise<void> {
-    await this.transport.sendMail({ from: this.config.MAIL_FROM, to: msg.to, subject: msg.subject, text: msg.text, html: msg.html });
+    await this.transport.sendMail({
+      from: this.config.MAIL_FROM,
+      to: msg.to,
+      subject: msg.subject,
+      text: msg.text,
+      html: msg.html,
+      attachments: msg.attachments?.map((a) => ({ filename: a.filename, contentType: a.contentType, content: Buffer.from(a.contentBase64, 'base64') })),
+    });
   }
 
   async enqueue(msg: MailMessage, transaction?: Transaction): Promise<string | null> {

@@ -2,6 +2,7 @@ import { Op, type Transaction, type WhereOptions } from 'sequelize';
 import {
   JOB_STATE_LABELS,
   assertJobMove,
+  JOB_STATE_BY_MONEY_REASON,
   canStartWork,
   type JobDecisionsToSee,
   type AuditEventDto,
@@ -184,6 +185,9 @@ export async function transitionJob(scope: Scope, id: string, input: JobTransiti
     if (!mayMove(scope, job.state, input.to)) throw forbidden('Your role cannot make this change to a job.');
     if (job.version !== input.version) throw staleVersion();
     assertJobMove(job.state, input.to);
+    // Invoiced and paid follow from the invoice and the money (services/invoices), never from a button.
+    const byMoney = JOB_STATE_BY_MONEY_REASON[input.to];
+    if (byMoney) throw new AppError('invalid_transition', 409, byMoney);
     if (input.to === 'ready_for_release') {
       const blocker = await releaseBlockers(scope, job.id, t);
       if (blocker) throw new AppError('invalid_transition', 409, blocker);

@@ -5,3 +5,4 @@ export * from './limits.js';
 export * from './deposits.js';
 export * from './choice.js';
 export * from './deposit-policy.js';
+export * from './invoice.js';

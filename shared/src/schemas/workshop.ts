@@ -20,6 +20,7 @@ export const labourRateSchema = z.object({
 
 export const APPROVAL_LINK_DAYS = { min: 1, max: 60 } as const;
 export const CHASE_AFTER_HOURS = { min: 1, max: 720 } as const;
+export const PAYMENT_TERMS_DAYS = { min: 0, max: 120 } as const;
 
 export const DEPOSIT_POLICY_KINDS = ['none', 'quote_percent', 'approved_work_percent'] as const;
 
@@ -66,6 +67,13 @@ export const workshopSettingsSchema = z.object({
     .default(''),
   contactEmail: z.union([z.literal(''), z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address.' }))]).default(''),
   depositPolicy: depositPolicySchema.default({ kind: 'none' }),
+  /** Days the owner has to pay an invoice, counted from the invoice date: 0 (on receipt) to 120. */
+  paymentTermsDays: z
+    .number({ message: 'Enter the number of days, e.g. 30.' })
+    .int({ message: 'Give whole days.' })
+    .min(PAYMENT_TERMS_DAYS.min, { message: 'Payment terms cannot be negative; use 0 for payment on receipt.' })
+    .max(PAYMENT_TERMS_DAYS.max, { message: `Payment terms can be at most ${PAYMENT_TERMS_DAYS.max} days.` })
+    .default(30),
 });
 
 

@@ -1,4 +1,4 @@
-import { isTerminalJobState } from '@wingstage/shared';
+import { isTerminalJobState, type JobState } from '@wingstage/shared';
 import { useQueries, useSuspenseQuery } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
 import { jobDocumentsQueryOptions } from '@/components/documents-section';
@@ -6,12 +6,15 @@ import { Caution } from '@/components/ui/notice';
 import { myAircraftQueryOptions } from '@/features/owner/api/get-my-aircraft';
 import { myJobsQueryOptions } from '@/features/owner/api/get-my-jobs';
 import { myJobEstimateQueryOptions, myJobFindingsQueryOptions, myJobRequestsQueryOptions } from '@/features/owner/api/get-my-job-money';
+import { myJobInvoiceQueryOptions } from '@/features/owner/api/get-my-invoice';
 import { MyAircraftLetter, type JobMoney } from '@/features/owner/components/my-aircraft-letter';
 import { OWNER_WORDS } from '@/features/owner/words';
 import { OwnerDeposits } from '@/features/payments/components/owner-deposits';
 import { queryClient } from '@/lib/query-client';
 import { requireSession } from '../guards';
 import { useCurrentSession } from '../use-current-session';
+
+const INVOICED: readonly JobState[] = ['invoiced', 'paid', 'closed'];
 
 export async function loader({ request }: LoaderFunctionArgs) {
   await requireSession(request, ['owner']);
@@ -31,10 +34,16 @@ export function Component() {
   const findings = useQueries({ queries: open.map((j) => myJobFindingsQueryOptions(j.id)) });
   // Documents matter for every job, a closed one's invoice included.
   const documents = useQueries({ queries: jobs.items.map((j) => jobDocumentsQueryOptions(j.id)) });
+  // Invoices: jobs invoiced, paid or closed (a closed job's invoice and credit notes stay to download).
+  const invoiced = jobs.items.filter((j) => INVOICED.includes(j.state));
+  const invoices = useQueries({ queries: invoiced.map((j) => myJobInvoiceQueryOptions(j.id)) });
   const money: Record<string, JobMoney> = Object.fromEntries(
     jobs.items.map((j, i) => [j.id, { documents: documents[i]?.data }]),
   );
   open.forEach((j, i) => Object.assign(money[j.id]!, { estimate: estimates[i]?.data, requests: requests[i]?.data, findings: findings[i]?.data }));
+  invoiced.forEach((j, i) => {
+    money[j.id] = { ...money[j.id], invoice: invoices[i]?.data };
+  });
   return (
     <>
       <MyAircraftLetter firstName={firstName} workshopName={session.workshop.name} contact={session.workshop.contact} aircraft={aircraft.items} jobs={jobs.items} money={money} jobExtra={(jobId) => <OwnerDeposits jobId={jobId} />} />

@@ -27,6 +27,7 @@ import { workshopQueryOptions } from '@/features/workshop/api/get-workshop';
 import { jobQueryOptions } from '@/features/jobs/api/get-job';
 import { jobHistoryQueryOptions } from '@/features/jobs/api/get-job-history';
 import { JobActions } from '@/features/jobs/components/job-actions';
+import { InvoiceSection } from '@/features/invoices/components/invoice-section';
 import { DecisionsToSeePanel } from '@/features/jobs/components/decisions-to-see';
 import { JobEditForm } from '@/features/jobs/components/job-edit-form';
 import { JobHistory } from '@/features/jobs/components/job-history';
@@ -90,6 +91,7 @@ export function Component() {
               </div>
             </Card>
           ) : null}
+          <InvoiceSection job={job} role={role} />
           <Card
             title="Details"
             actions={

@@ -8,7 +8,7 @@ import { PartForm } from './part-form';
 const pricing = workshopPricingFrom({
   currency: 'GBP',
   vatRates: { standard: '20', reduced: '5', zero: '0' },
-  settings: { vatRounding: 'invoice-nearest', partsMarkupPercent: '20', subcontractMarkupPercent: '10', approvalLinkDays: 14, chaseAfterHours: 48, contactPhone: '', contactEmail: '', depositPolicy: { kind: 'none' } },
+  settings: { vatRounding: 'invoice-nearest', partsMarkupPercent: '20', subcontractMarkupPercent: '10', approvalLinkDays: 14, chaseAfterHours: 48, contactPhone: '', contactEmail: '', depositPolicy: { kind: 'none' }, paymentTermsDays: 30 },
 });
 
 const supplier = (n: number, name: string, active = true): SupplierDto => ({

@@ -26,7 +26,7 @@ const workshop: WorkshopDto = {
     { code: 'standard', name: 'Workshop labour', ratePerHour: '62.00' },
     { code: 'sailcloth', name: 'Sail and fabric work', ratePerHour: '70.00' },
   ],
-  settings: { vatRounding: 'invoice-nearest', partsMarkupPercent: '20', subcontractMarkupPercent: '10', approvalLinkDays: 14, chaseAfterHours: 48, contactPhone: '', contactEmail: '', depositPolicy: { kind: 'none' } },
+  settings: { vatRounding: 'invoice-nearest', partsMarkupPercent: '20', subcontractMarkupPercent: '10', approvalLinkDays: 14, chaseAfterHours: 48, contactPhone: '', contactEmail: '', depositPolicy: { kind: 'none' }, paymentTermsDays: 30 },
   version: 1,
 };
 const pricing = workshopPricingFrom(workshop);

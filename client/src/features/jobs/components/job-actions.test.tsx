@@ -76,27 +76,15 @@ describe('JobActions', () => {
     expect(JSON.parse(String(init?.body))).toEqual({ to: 'cancelled', version: 3, reason: 'Owner sold the aircraft' });
   });
 
-  it('when "Mark invoiced" is pressed, then nothing is sent until the person confirms, and "Not now" sends nothing', async () => {
-    const ready = aJob({ state: 'ready_for_release' });
-    fetchMock.mockResolvedValue(new Response(JSON.stringify({ ...ready, state: 'invoiced', version: 4 }), { status: 200, headers: { 'Content-Type': 'application/json' } }));
-    renderWithApp(<JobActions job={ready} role="manager" />);
-    fireEvent.click(screen.getByRole('button', { name: 'Mark invoiced' }));
-    expect(screen.getByText(/it does not issue one/)).toBeTruthy();
-    expect(fetchMock).not.toHaveBeenCalled();
-    fireEvent.click(screen.getByRole('button', { name: 'Not now' }));
-    expect(screen.queryByText(/it does not issue one/)).toBeNull();
-    expect(fetchMock).not.toHaveBeenCalled();
-
-    fireEvent.click(screen.getByRole('button', { name: 'Mark invoiced' }));
-    fireEvent.click(screen.getByRole('button', { name: 'Yes, mark invoiced' }));
-    await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
-    expect(JSON.parse(String(fetchMock.mock.calls[0]![1]?.body))).toEqual({ to: 'invoiced', version: 3 });
+  it('when a job is ready for release, then no button marks it invoiced: issuing the invoice does that', () => {
+    renderWithApp(<JobActions job={aJob({ state: 'ready_for_release' })} role="manager" />);
+    expect(screen.queryByRole('button', { name: /invoiced|Issue invoice/ })).toBeNull();
+    expect(screen.getByRole('button', { name: 'Start work' })).toBeTruthy();
   });
 
-  it('when "Mark paid" is pressed, then it asks first too', () => {
+  it('when a job is invoiced, then no button marks it paid; the page says the money received does', () => {
     renderWithApp(<JobActions job={aJob({ state: 'invoiced' })} role="accounts" />);
-    fireEvent.click(screen.getByRole('button', { name: 'Mark paid' }));
-    expect(screen.getByRole('button', { name: 'Yes, mark paid' })).toBeTruthy();
-    expect(fetchMock).not.toHaveBeenCalled();
+    expect(screen.queryByRole('button')).toBeNull();
+    expect(screen.getByText(/becomes paid when the money received covers the invoice/)).toBeTruthy();
   });
 });

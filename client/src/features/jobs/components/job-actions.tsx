@@ -1,4 +1,4 @@
-import { JOB_STATES, JOB_TRANSITION_ACTIONS, nextJobStates, type JobDto, type JobState, type Role } from '@wingstage/shared';
+import { JOB_STATES, JOB_TRANSITION_ACTIONS, manualJobMoves, type JobDto, type JobState, type Role } from '@wingstage/shared';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { TextAreaField } from '@/components/ui/field';
@@ -7,23 +7,11 @@ import { isApiError } from '@/lib/api-client';
 import { useTransitionJob } from '../api/transition-job';
 
 /**
- * Moves that stand for money are asked twice: they record that an invoice went out or that the
- * money arrived, and cannot be taken back from this page.
+ * Engineers may only start an inspection; the rest of the moves belong to the office. Invoiced and
+ * paid are never offered: issuing the invoice and the money received make those moves.
  */
-const ASK_FIRST: Partial<Record<JobState, { question: string; yes: string }>> = {
-  invoiced: {
-    question: 'Mark this job invoiced? It records that the invoice has gone to the owner; it does not issue one, and the job cannot go back to work afterwards.',
-    yes: 'Yes, mark invoiced',
-  },
-  paid: {
-    question: 'Mark this job paid? It records that the owner has paid in full; only do this once the money has arrived.',
-    yes: 'Yes, mark paid',
-  },
-};
-
-/** Engineers may only start an inspection; the rest of the moves belong to the office. */
 function offered(role: Role, from: JobState): readonly JobState[] {
-  const next = nextJobStates(from);
+  const next = manualJobMoves(from);
   if (role === 'engineer') return next.filter((s) => from === 'booked_in' && s === 'inspecting');
   return next;
 }
@@ -36,10 +24,12 @@ export function JobActions({ job, role }: { job: JobDto; role: Role }) {
   const [cancelling, setCancelling] = useState(false);
   const [reason, setReason] = useState('');
   const [reasonError, setReasonError] = useState<string | undefined>();
-  const [confirming, setConfirming] = useState<JobState | null>(null);
   const states = offered(role, job.state);
 
   if (states.length === 0) {
+    if (job.state === 'invoiced') {
+      return <p className="text-sm text-slate-soft">Waiting for payment: the job becomes paid when the money received covers the invoice.</p>;
+    }
     return <p className="text-sm text-slate-soft">No further steps: this job is finished.</p>;
   }
 
@@ -49,7 +39,6 @@ export function JobActions({ job, role }: { job: JobDto; role: Role }) {
     try {
       await transition.mutateAsync(why ? { to, version: job.version, reason: why } : { to, version: job.version });
       setCancelling(false);
-      setConfirming(null);
       setReason('');
     } catch (e) {
       if (isApiError(e) && e.fields?.reason) {
@@ -76,25 +65,12 @@ export function JobActions({ job, role }: { job: JobDto; role: Role }) {
             variant={s !== 'cancelled' && JOB_STATES.indexOf(s) > JOB_STATES.indexOf(job.state) ? 'primary' : 'secondary'}
             busy={pending === s}
             disabled={pending !== null}
-            onClick={() => (s === 'cancelled' ? setCancelling(true) : ASK_FIRST[s] ? setConfirming(s) : void move(s))}
+            onClick={() => (s === 'cancelled' ? setCancelling(true) : void move(s))}
           >
             {JOB_TRANSITION_ACTIONS[s]}
           </Button>
         ))}
       </div>
-      {confirming && ASK_FIRST[confirming] ? (
-        <div role="group" aria-label={`Confirm: ${JOB_TRANSITION_ACTIONS[confirming]}`} className="flex flex-col gap-3 rounded-card border border-seam-strong bg-cloth-raised p-4">
-          <p>{ASK_FIRST[confirming].question}</p>
-          <div className="flex flex-wrap gap-2">
-            <Button busy={pending === confirming} disabled={pending !== null} onClick={() => void move(confirming)}>
-              {ASK_FIRST[confirming].yes}
-            </Button>
-            <Button variant="quiet" onClick={() => setConfirming(null)}>
-              Not now
-            </Button>
-          </div>
-        </div>
-      ) : null}
       {cancelling ? (
         <form
           className="flex flex-col gap-3 rounded-card border border-seam-strong bg-cloth-raised p-4"

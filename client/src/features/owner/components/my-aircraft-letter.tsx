@@ -8,6 +8,8 @@ import { EnvelopeIcon } from '@/components/ui/icons';
 import { StateBadge } from '@/components/ui/state-badge';
 import { formatDate, formatDateTime, formatHours, formatMoney } from '@/lib/format';
 import { IN_THE_HANGAR, OWNER_JOB_MEANING, OWNER_WORDS as W } from '../words';
+import { MyInvoice } from './my-invoice';
+import type { InvoiceDto } from '@wingstage/shared';
 
 /** What the letter knows about the money on one job; either part may still be loading. */
 export interface JobMoney {
@@ -17,6 +19,8 @@ export interface JobMoney {
   findings?: FindingDto[];
   /** The job's documents to download. */
   documents?: JobDocumentsDto;
+  /** The job's invoice once issued (invoiced, paid and closed jobs). */
+  invoice?: InvoiceDto | null;
 }
 
 const WORDS = ['No', 'One', 'Two', 'Three', 'Four', 'Five', 'Six', 'Seven', 'Eight', 'Nine', 'Ten'];
@@ -140,6 +144,7 @@ function JobEntry({ job, money, extra }: { job: JobDto; money?: JobMoney; extra?
       {extra}
       {money?.findings ? <WhatWeFound findings={money.findings} /> : null}
       <DocumentsSection jobId={job.id} audience="owner" docs={money?.documents} />
+      {money?.invoice ? <MyInvoice jobId={job.id} invoice={money.invoice} /> : null}
     </li>
   );
 }

@@ -13,7 +13,7 @@ const workshop: WorkshopDto = {
   currency: 'GBP',
   vatRates: { standard: '20', reduced: '5', zero: '0' },
   labourRates: [{ code: 'standard', name: 'Workshop labour', ratePerHour: '62.00' }],
-  settings: { vatRounding: 'invoice-nearest', partsMarkupPercent: '20', subcontractMarkupPercent: '10', approvalLinkDays: 14, chaseAfterHours: 48, contactPhone: '', contactEmail: '', depositPolicy: { kind: 'none' } },
+  settings: { vatRounding: 'invoice-nearest', partsMarkupPercent: '20', subcontractMarkupPercent: '10', approvalLinkDays: 14, chaseAfterHours: 48, contactPhone: '', contactEmail: '', depositPolicy: { kind: 'none' }, paymentTermsDays: 30 },
   version: 4,
 };
 const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });

@@ -1,0 +1,76 @@
+import { useState } from 'react';
+import { InvoiceDocumentView } from '@/components/invoice-document';
+import { Button } from '@/components/ui/button';
+import { Notice } from '@/components/ui/notice';
+import { isApiError } from '@/lib/api-client';
+import { formatDate, formatMoney } from '@/lib/format';
+import type { InvoiceDto } from '@wingstage/shared';
+import { openBalanceCheckout } from '../api/get-my-invoice';
+
+/** The owner's invoice for one job: what is left to pay, "Pay balance", the documents to keep, and any credit notes. */
+export function MyInvoice({ jobId, invoice: inv }: { jobId: string; invoice: InvoiceDto }) {
+  const [opening, setOpening] = useState(false);
+  const [problem, setProblem] = useState<string | null>(null);
+  const c = inv.currency;
+  const owed = inv.due !== '0.00';
+  return (
+    <section aria-label="Your invoice" data-testid="my-invoice" className="mt-3 flex flex-col gap-3 border-t border-seam pt-3">
+      <h4 className="font-semibold">Your invoice {inv.number}</h4>
+      <p>
+        {owed
+          ? `Left to pay: ${formatMoney(inv.due, c)}, by ${formatDate(inv.dueOn)}.`
+          : inv.state === 'credited'
+            ? 'This invoice has been cancelled in full by a credit note. You owe nothing on it.'
+            : 'Paid in full. Thank you.'}{' '}
+        {inv.received !== '0.00' ? `You have paid ${formatMoney(inv.received, c)} so far.` : ''}
+      </p>
+      {problem ? <Notice tone="problem" title="The payment page did not open">{problem}</Notice> : null}
+      <div className="flex flex-wrap items-center gap-3">
+        {owed ? (
+          <Button
+            size="lg"
+            busy={opening}
+            onClick={async () => {
+              setProblem(null);
+              setOpening(true);
+              try {
+                const { url } = await openBalanceCheckout(jobId);
+                window.location.assign(url);
+              } catch (e) {
+                setProblem(isApiError(e) ? e.message : 'Please try again in a moment.');
+                setOpening(false);
+              }
+            }}
+          >
+            Pay balance
+          </Button>
+        ) : null}
+        <a href={`/api/invoices/${inv.id}/pdf`} download>
+          Download the VAT invoice (PDF)
+        </a>
+      </div>
+      {inv.creditNotes.length ? (
+        <div className="flex flex-col gap-1">
+          <h5 className="font-semibold">Credit notes</h5>
+          <ul className="flex flex-col gap-1">
+            {inv.creditNotes.map((cn) => (
+              <li key={cn.id} data-owner-credit-note={cn.number}>
+                <span className="tabular-nums">{cn.number}</span> of {formatDate(cn.issuedOn)}: {formatMoney(cn.gross, c)} off the invoice
+                {cn.refunded ? `, ${formatMoney(cn.refunded, c)} refunded to your card` : ''}. {cn.reason}.{' '}
+                <a href={`/api/credit-notes/${cn.id}/pdf`} download>
+                  Download (PDF)
+                </a>
+              </li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
+      <details>
+        <summary className="cursor-pointer">See the invoice here</summary>
+        <div className="mt-3">
+          <InvoiceDocumentView doc={inv.document} audience="owner" />
+        </div>
+      </details>
+    </section>
+  );
+}

@@ -1,0 +1,66 @@
+import { expect, test } from '@playwright/test';
+import { apiCall, shot, signedIn } from './support/journey';
+
+const MANAGER = 'manager@brackenfold.example';
+const ACCOUNTS = 'accounts@brackenfold.example';
+const OWNER = 'tomasz@owners.example';
+
+/**
+ * The invoice after the work: the demo's exhaust spring job on Q-MRLW was invoiced with its deposit
+ * deducted. The owner on a phone sees it and pays the balance by card on the test payment page; the
+ * job shows paid; accounts refunds part of it to the card, and the credit note appears for the owner.
+ */
+test('@invoice the owner pays the invoice balance by card, accounts refunds part, and the owner sees the credit note', async ({ browser, baseURL }, testInfo) => {
+  test.skip(testInfo.project.name !== 'desktop', 'One journey: it opens its own phone and desktop windows.');
+  test.setTimeout(180_000);
+  const manager = await signedIn(browser, baseURL, MANAGER);
+  const jobs = await apiCall<{ items: { id: string; title: string; registration: string; state: string }[] }>(manager.page, 'GET', '/api/jobs?q=Exhaust%20spring&pageSize=50');
+  const job = jobs.items.find((j) => j.registration === 'Q-MRLW' && j.title === 'Exhaust spring replacement')!;
+  expect(job.state).toBe('invoiced');
+  await manager.page.goto(`/jobs/${job.id}`);
+  const card = manager.page.getByRole('heading', { name: /^Invoice INV-\d{5}$/ });
+  await expect(card).toBeVisible();
+  await expect(manager.page.getByRole('button', { name: /Mark (invoiced|paid)/ })).toHaveCount(0);
+  await manager.page.getByText('The invoice as issued').click();
+  await expect(manager.page.getByTestId('invoice-document').getByText(/Deposit received/)).toBeVisible();
+  await shot(manager.page, testInfo, 'staff-invoice-1280');
+  await manager.ctx.close();
+
+  // The owner, on a phone.
+  const owner = await signedIn(browser, baseURL, OWNER, true);
+  await owner.page.goto('/my-aircraft');
+  const mine = owner.page.getByTestId('my-invoice');
+  await expect(mine).toContainText(/Left to pay: £\d/);
+  await expect(mine.getByRole('link', { name: 'Download the VAT invoice (PDF)' })).toHaveAttribute('href', /\/api\/invoices\/.+\/pdf$/);
+  await mine.getByText('See the invoice here').click();
+  await expect(mine.getByText(/Deposit you paid/)).toBeVisible();
+  await shot(owner.page, testInfo, 'owner-invoice-375');
+  await mine.getByRole('button', { name: 'Pay balance' }).click();
+  await expect(owner.page.getByRole('heading', { level: 1, name: 'Pay by card' })).toBeVisible({ timeout: 30_000 });
+  await owner.page.getByLabel('Card number').fill('4242 4242 4242 4242');
+  await owner.page.getByLabel('Expiry (MM/YY)').fill('12/34');
+  await owner.page.getByLabel('Security code').fill('123');
+  await owner.page.getByRole('button', { name: /^Pay £/ }).click();
+  await expect(owner.page).not.toHaveURL(/\/pay\//, { timeout: 30_000 });
+  await expect.poll(async () => (await apiCall<{ state: string }>(owner.page, 'GET', `/api/jobs/${job.id}`)).state, { timeout: 30_000 }).toBe('paid');
+  await owner.page.goto('/my-aircraft');
+  await expect(owner.page.getByTestId('my-invoice')).toContainText('Paid in full');
+
+  // Accounts refunds part of the card payment.
+  const accounts = await signedIn(browser, baseURL, ACCOUNTS);
+  await accounts.page.goto(`/jobs/${job.id}`);
+  await accounts.page.getByRole('button', { name: 'Refund' }).click();
+  const form = accounts.page.getByRole('form', { name: 'Refund' });
+  await form.getByLabel('Amount to refund').fill('5.00');
+  await form.getByLabel(/Reason/).fill('One spring came from stock at a lower price');
+  await form.getByRole('button', { name: 'Refund to the card' }).click();
+  await expect(accounts.page.getByRole('region', { name: 'Credit notes' })).toContainText(/CN-\d{5}/);
+  await shot(accounts.page, testInfo, 'accounts-refund-1280');
+  await accounts.ctx.close();
+
+  await owner.page.reload();
+  const credit = owner.page.locator('[data-owner-credit-note]');
+  await expect(credit).toContainText('£5.00 refunded to your card');
+  await shot(owner.page, testInfo, 'owner-credit-note-375');
+  await owner.ctx.close();
+});

@@ -1,0 +1,85 @@
+import { formatMoney, sumAmounts, type CreditNoteDocument, type InvoiceDocument, type ReceiptDocument } from '@wingstage/shared';
+import { renderCreditNotePdf, renderInvoicePdf, renderReceiptPdf } from '../documents/index.js';
+import type { Deps } from '../services/deps.js';
+import type { MailMessage } from './mail-queue.js';
+
+const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+
+function build(to: string, subject: string, paragraphs: string[], pdf: { filename: string; bytes: Buffer }): MailMessage {
+  return {
+    to,
+    subject,
+    text: `${paragraphs.join('\n\n')}\n`,
+    html: `<!doctype html><html><body style="font-family:sans-serif;font-size:16px;line-height:1.5;color:#1d2430">${paragraphs.map((p) => `<p style="margin:0 0 14px">${esc(p)}</p>`).join('')}</body></html>`,
+    attachments: [{ filename: pdf.filename, contentType: 'application/pdf', contentBase64: pdf.bytes.toString('base64') }],
+  };
+}
+
+const contact = (d: { supplier: { phone: string | null; email: string | null } }) =>
+  [d.supplier.phone, d.supplier.email].filter(Boolean).length ? ` You can reach the workshop on ${[d.supplier.phone, d.supplier.email].filter(Boolean).join(' or ')}.` : '';
+
+/** The deposits shown on the invoice, added up by the engine's money helper. */
+const depositsTotal = (doc: InvoiceDocument) => sumAmounts(doc.deposits.map((d) => d.amount), doc.currency);
+
+export function invoiceMail(doc: InvoiceDocument, pdf: Buffer): MailMessage | null {
+  if (!doc.customer.email) return null;
+  const paid = doc.deposits.length ? ` The deposits you already paid (${formatMoney(depositsTotal(doc), doc.currency)}) are taken off.` : '';
+  return build(
+    doc.customer.email,
+    `${doc.job.registration}: your invoice ${doc.number} from ${doc.supplier.name}`,
+    [
+      `Hello ${doc.customer.name},`,
+      `Your invoice ${doc.number} for ${doc.job.title} on ${doc.job.registration} is attached: ${formatMoney(doc.totals.gross, doc.currency)} including VAT.${paid}`,
+      `Left to pay: ${formatMoney(doc.balanceDue, doc.currency)}, by ${doc.dueOn}. You can pay by card from your job page, or by bank transfer quoting ${doc.number}.${contact(doc)}`,
+    ],
+    { filename: `${doc.number}.pdf`, bytes: pdf },
+  );
+}
+
+export function creditNoteMail(doc: CreditNoteDocument, pdf: Buffer): MailMessage | null {
+  if (!doc.customer.email) return null;
+  return build(
+    doc.customer.email,
+    `${doc.job.registration}: credit note ${doc.number} from ${doc.supplier.name}`,
+    [
+      `Hello ${doc.customer.name},`,
+      `Credit note ${doc.number} is attached. It reduces invoice ${doc.invoice.number} by ${formatMoney(doc.totals.gross, doc.currency)} including VAT. Reason: ${doc.reason}.`,
+      ...(doc.refund ? [`${formatMoney(doc.refund.amount, doc.currency)} is being refunded to the card you paid with. Banks usually take a few working days to show it.`] : []),
+      `${contact(doc).trim()}`,
+    ].filter(Boolean),
+    { filename: `${doc.number}.pdf`, bytes: pdf },
+  );
+}
+
+export function receiptMail(doc: ReceiptDocument, pdf: Buffer): MailMessage | null {
+  if (!doc.customer.email) return null;
+  return build(
+    doc.customer.email,
+    `${doc.job.registration}: receipt for your payment of ${formatMoney(doc.amount, doc.currency)}`,
+    [
+      `Hello ${doc.customer.name},`,
+      `Thank you: ${doc.supplier.name} received ${formatMoney(doc.amount, doc.currency)} (${doc.method.toLowerCase()}) on ${doc.receivedOn}${doc.invoiceNumber ? ` towards invoice ${doc.invoiceNumber}` : ''}. Your receipt is attached.`,
+    ],
+    { filename: `receipt-${doc.paymentId.slice(0, 8)}.pdf`, bytes: pdf },
+  );
+}
+
+/**
+ * Renders the document and queues the e-mail after the document is committed: the document stands
+ * whether or not the e-mail goes; a rendering failure is logged, never turned into a failed request.
+ */
+async function send(deps: Pick<Deps, 'mail' | 'logger'>, what: string, make: () => Promise<MailMessage | null>): Promise<void> {
+  try {
+    const msg = await make();
+    if (msg) await deps.mail.enqueue(msg);
+  } catch (err) {
+    deps.logger.error({ err, what }, 'document e-mail not sent');
+  }
+}
+
+export const sendInvoiceMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: InvoiceDocument) =>
+  send(deps, `invoice ${doc.number}`, async () => invoiceMail(doc, await renderInvoicePdf(doc)));
+export const sendCreditNoteMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: CreditNoteDocument) =>
+  send(deps, `credit note ${doc.number}`, async () => creditNoteMail(doc, await renderCreditNotePdf(doc)));
+export const sendReceiptMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: ReceiptDocument) =>
+  send(deps, `receipt ${doc.paymentId}`, async () => receiptMail(doc, await renderReceiptPdf(doc)));
