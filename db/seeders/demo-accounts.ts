@@ -1,12 +1,11 @@
 import type Stripe from 'stripe';
 import type { Transaction } from 'sequelize';
-import { Dec, type InvoiceDocument } from '../../shared/src/index.js';
-import { Aircraft, AuditEvent, Customer, DepositRequest, Invoice, Payment, type User, type Workshop } from '../../server/src/models/index.js';
+import { Dec } from '../../shared/src/index.js';
+import { AuditEvent, DepositRequest, Payment, type User, type Workshop } from '../../server/src/models/index.js';
 import { createStripeClient } from '../../server/src/payments/stripe-client.js';
 import type { SeededJob } from './demo-estimates.js';
 
 const day = 86_400_000;
-const iso = (d: Date) => d.toISOString().slice(0, 10);
 
 /** The local fake the demo app talks to, when the seed runs beside it (npm start, npm test). */
 function demoStripe(): Stripe | null {
@@ -37,7 +36,8 @@ async function viaFake(stripe: Stripe | null, amount: string): Promise<Partial<P
 
 /**
  * Accounts in the demo, beside the invoices and deposits the other seeders make: a deposit paid by
- * card that came in short of what was asked — the one planted exception. It is real in the local
+ * card that came in short of what was asked — the one planted exception. Like any payment that differs
+ * from what was asked, it is kept and flagged, and the deposit stays waiting until accounts settle it. It is real in the local
  * fake, whose clock is then moved past the card money's two pending days, so a payout run pays out
  * this and the other seeded card payments.
  */
@@ -48,7 +48,7 @@ export async function seedAccounts(w: Workshop, jobs: SeededJob[], staff: Map<st
 
   // The planted exception: £300.00 asked as a deposit, £290.00 received.
   const dr = await DepositRequest.create(
-    { workshopId: w.id, jobId: depositJob.job.id, origin: 'manual', reason: 'Propeller sent out for overhaul', amount: '300.00', currency: 'GBP', vatMix: [{ rate: '20', gross: '300.00' }], state: 'paid', paidAt: new Date(now.getTime() - 4 * day), createdBy: staff.get('declan')!.id },
+    { workshopId: w.id, jobId: depositJob.job.id, origin: 'manual', reason: 'Propeller sent out for overhaul', amount: '300.00', currency: 'GBP', vatMix: [{ rate: '20', gross: '300.00' }], createdBy: staff.get('declan')!.id },
     { transaction: t },
   );
   const p3 = await viaFake(stripe, '290.00');

@@ -120,7 +120,8 @@ test('a new owner accepts an invitation and sees only their own job', async ({ p
     await expect(phone.getByRole('heading', { level: 1, name: 'My aircraft' })).toBeVisible({ timeout: 30_000 });
     // One aircraft, one job: the one the manager booked in, and nothing of anyone else's.
     await expect(phone.getByRole('heading', { level: 2 })).toHaveText([u.registration]);
-    const jobs = phone.getByRole('list', { name: `Jobs for ${u.registration}` }).getByRole('listitem');
+    // The job entries themselves (each holds lists of its own, such as its documents).
+    const jobs = phone.getByRole('list', { name: `Jobs for ${u.registration}` }).locator(':scope > li');
     await expect(jobs).toHaveCount(1);
     await expect(jobs.first().getByRole('heading', { level: 3 })).toHaveText(u.jobTitle);
     await expect(jobs.first().getByText('Booked in', { exact: true })).toBeVisible();

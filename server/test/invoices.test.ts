@@ -7,7 +7,6 @@ import { AuditEvent, CreditNote, DepositRequest, EstimateLine, Invoice, Job, Pay
 import { stripeClient } from '../src/payments/stripe-client.js';
 import { recordStripeEvent } from '../src/services/payment-events.service.js';
 import { issueInvoiceIn } from '../src/services/invoices.service.js';
-import { findDemoWorkshop, seedDemo } from '../../db/seeders/demo.js';
 import { makeFinding, makeJob, makeWorkshop, signIn, startTestServer, TEST_STRIPE_KEY, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 let server: TestServer;
@@ -278,23 +277,5 @@ describe('who sees which invoice', () => {
     expect(list.body.items.map((i: { id: string }) => i.id)).toEqual([inv.id]);
     expect((await manager.get(`/api/invoices?state=nonsense`)).status).toBe(400);
     expect((await otherManager.get(`/api/invoices?jobId=${job.id}`)).body.items).toEqual([]);
-  });
-});
-
-describe('the demo', () => {
-  it('when seeded, then one invoice is issued with a deposit deducted and owed, one is paid after a credit note, each numbered in its own sequence', async () => {
-    await seedDemo(boundSequelize(), new Date(), server.parts.photos);
-    const demo = await findDemoWorkshop();
-    const invoices = await Invoice.findAll({ where: { workshopId: demo!.id }, order: [['seq', 'ASC']] });
-    expect(invoices.map((i) => i.number)).toEqual(['INV-00001', 'INV-00002']);
-    const [owed, paid] = invoices as [Invoice, Invoice];
-    expect(owed.state).toBe('issued');
-    expect(owed.document.deposits).toHaveLength(1);
-    expect(new Date(owed.document.deposits[0]!.receivedOn) < new Date(owed.document.issuedOn)).toBe(true);
-    expect(paid.state).toBe('paid');
-    expect((await Job.findByPk(paid.jobId))!.state).toBe('paid');
-    expect((await Job.findByPk(owed.jobId))!.state).toBe('invoiced');
-    const notes = await CreditNote.findAll({ where: { workshopId: demo!.id } });
-    expect(notes.map((c) => [c.number, c.invoiceId])).toEqual([['CN-00001', paid.id]]);
   });
 });

@@ -3,7 +3,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { JOB_STATES } from '@wingstage/shared';
 import sharp from 'sharp';
-import { Aircraft, ApprovalRequest, DepositRequest, Payment, Finding, FindingPhoto, Job, JobTemplate, Part, User, boundSequelize } from '../src/models/index.js';
+import { Aircraft, ApprovalRequest, CreditNote, DepositRequest, Invoice, Payment, Finding, FindingPhoto, Job, JobTemplate, Part, User, boundSequelize } from '../src/models/index.js';
 import { DEMO_PASSWORD, demoSignIns } from '../../db/seeders/demo-data.js';
 import { findDemoWorkshop, removeDemo, seedDemo } from '../../db/seeders/demo.js';
 import { startStripeFake, type RunningFake } from '@wingstage/stripe-fake';
@@ -157,15 +157,34 @@ describe('demo seed', () => {
 
   it('when seeded, then one deposit is paid by card (in the processor too, with its fee and net) and one is waiting', async () => {
     const w = (await findDemoWorkshop())!;
-    const deposits = await DepositRequest.findAll({ where: { workshopId: w.id }, order: [['amount', 'ASC']] });
-    expect(deposits.map((d) => [d.amount, d.state])).toEqual([
-      ['85.00', 'waiting'],
-      ['300.00', 'paid'],
+    const deposits = await DepositRequest.findAll({ where: { workshopId: w.id }, order: [['amount', 'ASC'], ['reason', 'ASC']] });
+    // The deposits seeder's two (paid by card, waiting), the invoices seeder's deposit paid by bank
+    // transfer before its invoice, and accounts' planted short payment (kept, flagged, still waiting).
+    expect(deposits.map((d) => [d.amount, d.state, d.reason])).toEqual([
+      ['20.00', 'paid', 'Exhaust springs ordered (not stocked)'],
+      ['85.00', 'waiting', 'Spark plugs, oil filter and a carburettor kit ordered'],
+      ['300.00', 'paid', 'Fabric, tapes and dope ordered for the re-cover'],
+      ['300.00', 'waiting', 'Propeller sent out for overhaul'],
     ]);
-    const paid = await Payment.findOne({ where: { depositRequestId: deposits[1]!.id } });
+    const paid = await Payment.findOne({ where: { depositRequestId: deposits[2]!.id } });
     // UK standard card fee 1.5 % + £0.20 (sources.md, "Card payments"): £300.00 → £4.70, net £295.30.
     expect(paid).toMatchObject({ state: 'succeeded', amount: '300.00', fee: '4.70', net: '295.30', method: 'card' });
     const pi = await stripeClient(testConfig({ STRIPE_API_URL: fake.url })).paymentIntents.retrieve(paid!.stripePaymentIntentId!);
     expect(pi).toMatchObject({ status: 'succeeded', amount_received: 30000, metadata: { payment_id: paid!.id } });
+  });
+
+  it('when seeded, then one invoice is issued with a deposit deducted and owed, one is paid after a credit note, each numbered in its own sequence', async () => {
+    const demo = await findDemoWorkshop();
+    const invoices = await Invoice.findAll({ where: { workshopId: demo!.id }, order: [['seq', 'ASC']] });
+    expect(invoices.map((i) => i.number)).toEqual(['INV-00001', 'INV-00002']);
+    const [owed, paid] = invoices as [Invoice, Invoice];
+    expect(owed.state).toBe('issued');
+    expect(owed.document.deposits).toHaveLength(1);
+    expect(new Date(owed.document.deposits[0]!.receivedOn) < new Date(owed.document.issuedOn)).toBe(true);
+    expect(paid.state).toBe('paid');
+    expect((await Job.findByPk(paid.jobId))!.state).toBe('paid');
+    expect((await Job.findByPk(owed.jobId))!.state).toBe('invoiced');
+    const notes = await CreditNote.findAll({ where: { workshopId: demo!.id } });
+    expect(notes.map((c) => [c.number, c.invoiceId])).toEqual([['CN-00001', paid.id]]);
   });
 });

@@ -2,9 +2,13 @@
 // document, so they never run on the thread that answers requests. The renderers are TypeScript
 // (JSX), so this thread registers tsx's loader for itself before importing them, whether the app
 // runs under tsx or under the test runner.
+import { fileURLToPath } from 'node:url';
 import { tsImport } from 'tsx/esm/api';
 
-const { renderNow } = await tsImport('./render.ts', import.meta.url);
+// The server's own tsconfig (automatic JSX runtime), whatever folder the process started in: the
+// test runner starts at the repository root, whose settings are not the server's.
+const tsconfig = fileURLToPath(new URL('../../tsconfig.json', import.meta.url));
+const { renderNow } = await tsImport('./render.ts', { parentURL: import.meta.url, tsconfig });
 
 /** @param {import('./render.ts').AnyDocument} document */
 export default async function renderTask(document) {

@@ -3,6 +3,7 @@ import type { Logger } from 'pino';
 import type { Config } from '../config/config.js';
 import { chaseUndecided } from './approval-reminders.js';
 import type { Deps } from '../services/deps.js';
+import { bossSetUp } from '../lib/boss-setup.js';
 
 export const CHASE_QUEUE = 'approval-chase';
 
@@ -26,8 +27,8 @@ export class ApprovalChaser {
   async start(): Promise<void> {
     if (this.started) return;
     await this.boss.start();
-    await this.boss.createQueue(CHASE_QUEUE, { name: CHASE_QUEUE, policy: 'singleton', retryLimit: 1, expireInMinutes: 10 });
-    await this.boss.schedule(CHASE_QUEUE, '*/15 * * * *', {}, { tz: 'UTC' });
+    await bossSetUp(() => this.boss.createQueue(CHASE_QUEUE, { name: CHASE_QUEUE, policy: 'singleton', retryLimit: 1, expireInMinutes: 10 }));
+    await bossSetUp(() => this.boss.schedule(CHASE_QUEUE, '*/15 * * * *', {}, { tz: 'UTC' }));
     await this.boss.work(CHASE_QUEUE, { pollingIntervalSeconds: 30 }, async () => {
       const done = await chaseUndecided(this.deps, new Date());
       this.logger.info(done, 'approval requests chased');

@@ -5,6 +5,7 @@ import { syncPayouts } from '../accounts/payouts.js';
 import { scanExceptions } from '../accounts/exceptions.js';
 import { Workshop } from '../models/index.js';
 import { stripeClient } from '../payments/stripe-client.js';
+import { bossSetUp } from '../lib/boss-setup.js';
 
 export const PAYOUT_QUEUE = 'payout-fetch';
 
@@ -28,8 +29,8 @@ export class PayoutFetcher {
   async start(): Promise<void> {
     if (this.started) return;
     await this.boss.start();
-    await this.boss.createQueue(PAYOUT_QUEUE, { name: PAYOUT_QUEUE, policy: 'singleton', retryLimit: 2, expireInMinutes: 15 });
-    await this.boss.schedule(PAYOUT_QUEUE, '7 * * * *', {}, { tz: 'UTC' });
+    await bossSetUp(() => this.boss.createQueue(PAYOUT_QUEUE, { name: PAYOUT_QUEUE, policy: 'singleton', retryLimit: 2, expireInMinutes: 15 }));
+    await bossSetUp(() => this.boss.schedule(PAYOUT_QUEUE, '7 * * * *', {}, { tz: 'UTC' }));
     await this.boss.work(PAYOUT_QUEUE, { pollingIntervalSeconds: 30 }, async () => {
       const done = await syncPayouts(stripeClient(this.config));
       let raised = 0;

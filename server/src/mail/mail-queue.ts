@@ -3,6 +3,7 @@ import PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
 import type { Sequelize, Transaction } from 'sequelize';
 import type { Config } from '../config/config.js';
+import { bossSetUp } from '../lib/boss-setup.js';
 
 export interface MailMessage {
   to: string;
@@ -65,7 +66,7 @@ export class MailQueue {
   async start(): Promise<void> {
     if (this.started) return;
     await this.boss.start();
-    await this.boss.createQueue(this.queue, { name: this.queue, ...this.retry, expireInMinutes: 5 });
+    await bossSetUp(() => this.boss.createQueue(this.queue, { name: this.queue, ...this.retry, expireInMinutes: 5 }));
     if (this.config.MAIL_WORKER) {
       // One message per fetch: a failure retries only that message, never re-sends others.
       await this.boss.work<MailMessage>(this.queue, { pollingIntervalSeconds: 1, batchSize: 1 }, async (jobs) => {
