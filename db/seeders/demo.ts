@@ -108,7 +108,7 @@ export async function seedDemo(sequelize: Sequelize, now = new Date(), store?: P
       await seedDeposits(w, seeded, staff, now, t, stripe);
       await seedInvoices(w, seeded, staff, now, t);
     }
-    await seedAccounts(w, seeded, staff, now, t);
+    await seedAccounts(w, seeded, staff, now, t, stripe);
     await sequelize.query('INSERT INTO job_counters (workshop_id, last_number) VALUES ($1, $2)', { bind: [w.id, n], transaction: t });
     return true;
   });

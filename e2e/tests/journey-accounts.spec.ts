@@ -15,6 +15,9 @@ test.describe('@accounts closing the week', () => {
     const { ctx, page } = await signedIn(browser, baseURL, 'accounts@brackenfold.example');
 
     // The processor pays out what is available (the demo's card payments are past their two days).
+    // The processor holds card money for two days before it may be paid out: move the fake's clock on.
+    const clock = await fetch(`${API}/control/clock`, { method: 'POST', headers: { Authorization: `Bearer ${KEY}`, 'Content-Type': 'application/x-www-form-urlencoded' }, body: 'advance_seconds=172860' });
+    expect(clock.status).toBe(200);
     const run = await fetch(`${API}/control/payouts/run`, { method: 'POST', headers: { Authorization: `Bearer ${KEY}` } });
     expect(run.status).toBe(200);
     const made = ((await run.json()) as { data: { id: string }[] }).data;

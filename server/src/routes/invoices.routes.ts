@@ -32,13 +32,15 @@ export function invoicesRoutes(deps: Deps): Router {
   });
   router.post('/:id/credit-notes', authorize(config, ...MONEY_ROLES), validate({ params: idParamsSchema, body: creditNoteSchema }), async (req, res) => {
     const cn = await credits.issueGoodwillCreditNote(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, creditNoteSchema));
-    await sendCreditNoteMail(deps, cn.document);
     res.status(201).json(cn);
+    // The PDF takes a moment to render: the answer does not wait for the e-mail (failures are logged).
+    void sendCreditNoteMail(deps, cn.document);
   });
   router.post('/:id/refunds', authorize(config, ...MONEY_ROLES), validate({ params: idParamsSchema, body: refundSchema }), async (req, res) => {
     const cn = await credits.refundPayment(scopeOf(req), deps, validParams(req, idParamsSchema).id, validBody(req, refundSchema));
-    await sendCreditNoteMail(deps, cn.document);
     res.status(201).json(cn);
+    // The PDF takes a moment to render: the answer does not wait for the e-mail (failures are logged).
+    void sendCreditNoteMail(deps, cn.document);
   });
   return router;
 }
@@ -67,14 +69,15 @@ export function jobInvoiceRoutes(deps: Deps): Router {
   });
   router.post('/:id/invoice', authorize(config, 'admin', 'manager'), validate({ params: idParamsSchema, body: invoiceIssueSchema }), async (req, res) => {
     const inv = await invoices.issueInvoice(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, invoiceIssueSchema));
-    await sendInvoiceMail(deps, inv.document);
     res.status(201).json(inv);
+    void sendInvoiceMail(deps, inv.document);
   });
   router.post('/:id/payments/offline', authorize(config, ...MONEY_ROLES), validate({ params: idParamsSchema, body: offlinePaymentSchema }), async (req, res) => {
     const scope = scopeOf(req);
     const out = await invoices.recordOfflinePayment(scope, validParams(req, idParamsSchema).id, validBody(req, offlinePaymentSchema));
-    await sendReceiptMail(deps, await invoices.receiptFor(scope, out.paymentId));
+    const receipt = await invoices.receiptFor(scope, out.paymentId);
     res.status(201).json(out);
+    void sendReceiptMail(deps, receipt);
   });
   return router;
 }
