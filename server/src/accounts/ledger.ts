@@ -14,7 +14,11 @@ import { checkPeriod } from './period.js';
  */
 const BASE = `
   SELECT p.id, CASE WHEN p.method <> 'card' THEN 'offline' ELSE p.kind END AS kind, p.received_at AS at, p.job_id, p.currency,
-         p.amount AS gross, p.fee, p.net, p.state AS status, NULL::uuid AS payment_id
+         -- Money taken offline reaches the bank whole: no processor fee, net = gross.
+         p.amount AS gross,
+         CASE WHEN p.method <> 'card' THEN COALESCE(p.fee, 0) ELSE p.fee END AS fee,
+         CASE WHEN p.method <> 'card' THEN COALESCE(p.net, p.amount) ELSE p.net END AS net,
+         p.state AS status, NULL::uuid AS payment_id
     FROM payments p
    WHERE p.workshop_id = $1 AND p.amount IS NOT NULL AND p.received_at IS NOT NULL
   UNION ALL

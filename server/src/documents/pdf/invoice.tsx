@@ -114,7 +114,7 @@ export function InvoicePdf({ doc }: { doc: InvoiceDocument }) {
         ]}
       />
       <Text style={s.note}>
-        Amounts in {c === 'GBP' ? 'pounds sterling' : c}. VAT worked out as: {doc.roundingLabel}.
+        Amounts in {c === 'GBP' ? 'pounds sterling' : c}. {doc.roundingLabel}.
         {zeroRated ? ' Lines at 0% are a zero-rated supply.' : ''}
       </Text>
 
@@ -143,7 +143,7 @@ export function InvoicePdf({ doc }: { doc: InvoiceDocument }) {
         </>
       )}
 
-      <H2>The balance</H2>
+      <H2 minPresenceAhead={130}>The balance</H2>
       <Sums
         width={300}
         rows={[

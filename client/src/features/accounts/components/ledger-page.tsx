@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { LEDGER_KINDS, LEDGER_KIND_LABELS, EXCEPTION_KIND_LABELS, type LedgerRowDto } from '@wingstage/shared';
+import { PAYMENT_STATE_LABELS, LEDGER_KINDS, LEDGER_KIND_LABELS, EXCEPTION_KIND_LABELS, type LedgerRowDto } from '@wingstage/shared';
 import { useSearchParams } from 'react-router-dom';
 import { Card, PageHeader } from '@/components/ui/page';
 import { Loading, Notice } from '@/components/ui/notice';
@@ -10,6 +10,14 @@ import { csvUrl, ledgerQuery, type LedgerParams } from '../api';
 import { ACCOUNTS_WORDS as W } from '../words';
 import { AccountsNav } from './accounts-nav';
 import { Money, td, tdNum, th, thNum } from './money-cell';
+
+const REFUND_STATE_WORDS: Record<string, string> = { pending: 'Being refunded', succeeded: 'Refunded', failed: 'Refund failed' };
+
+/** A row's state in words: the payment states' own labels, or a refund's. */
+function statusWords(kind: string, status: string): string {
+  if (kind === 'refund') return REFUND_STATE_WORDS[status] ?? status;
+  return (PAYMENT_STATE_LABELS as Record<string, string>)[status] ?? status;
+}
 
 const SORTABLE: { key: string; label: string; num?: boolean }[] = [
   { key: 'date', label: 'Date' },
@@ -103,13 +111,13 @@ export function LedgerPage() {
                   data.items.map((r) => (
                     <tr key={r.id} className="border-b border-seam">
                       <td className={td}>{formatDate(r.date)}</td>
-                      <td className={td}>{r.jobNumber}</td>
+                      <td className={`${td} whitespace-nowrap`}>{r.jobNumber}</td>
                       <td className={td}>{r.ownerName}</td>
                       <td className={td}>{LEDGER_KIND_LABELS[r.kind]}</td>
                       <td className={tdNum}><Money amount={r.gross} currency={r.currency} /></td>
                       <td className={tdNum}><Money amount={r.fee} currency={r.currency} /></td>
                       <td className={tdNum}><Money amount={r.net} currency={r.currency} /></td>
-                      <td className={td}>{r.status.replace('_', ' ')}</td>
+                      <td className={td}>{statusWords(r.kind, r.status)}</td>
                       <td className={`${td} break-all`}>{r.payout ?? '—'}</td>
                       <td className={td}>
                         {r.settles ?? '—'}
