@@ -1,12 +1,11 @@
 import type Stripe from 'stripe';
 import type { Transaction } from 'sequelize';
-import { Dec, type InvoiceDocument } from '../../shared/src/index.js';
-import { Aircraft, AuditEvent, Customer, DepositRequest, Invoice, Payment, type User, type Workshop } from '../../server/src/models/index.js';
+import { Dec } from '../../shared/src/index.js';
+import { AuditEvent, DepositRequest, Payment, type User, type Workshop } from '../../server/src/models/index.js';
 import { createStripeClient } from '../../server/src/payments/stripe-client.js';
 import type { SeededJob } from './demo-estimates.js';
 
 const day = 86_400_000;
-const iso = (d: Date) => d.toISOString().slice(0, 10);
 
 /** The local fake the demo app talks to, when the seed runs beside it (npm start, npm test). */
 function demoStripe(): Stripe | null {

@@ -105,10 +105,38 @@ export class MailQueue {
 
   async enqueue(msg: MailMessage, transaction?: Transaction): Promise<string | null> {
     if (!this.started) throw new Error('The mail queue is not started.');
-    // pg-boss runs its insert on the transaction's own connection, so the job commits with it.
-    const conn = transaction ? (transaction as unknown as { connection?: PgConnection }).connection : undefined;
-    if (transaction && !conn) throw new Error('The transaction has no connection yet.');
-    const db = conn ? { executeSql: (text: string, values: unknown[]) => conn.query(text, values) } : undefined;
-    return this.boss.send(this.queue, msg, { ...this.retry, db });
+    return this.boss.send(this.queue, msg, { ...this.retry, db: onConnection(transaction) });
   }
+
+  /**
+   * Work that ends in an e-mail but is too slow for the transaction that causes it (rendering a
+   * PDF): a task queued in that transaction, on a queue named after the mail queue, so it commits
+   * with the rows and each test server's worker sees only its own tasks.
+   */
+  taskQueue(task: string): string {
+    return `${this.queue}-${task}`;
+  }
+
+  async enqueueTask(task: string, data: object, transaction?: Transaction): Promise<string | null> {
+    if (!this.started) throw new Error('The mail queue is not started.');
+    return this.boss.send(this.taskQueue(task), data, { ...this.retry, db: onConnection(transaction) });
+  }
+
+  /** Runs a task's worker in this process (when it runs the mail worker); the handler must be idempotent. */
+  async workTask<T extends object>(task: string, handler: (data: T) => Promise<void>): Promise<void> {
+    if (!this.started) throw new Error('The mail queue is not started.');
+    const name = this.taskQueue(task);
+    await this.boss.createQueue(name, { name, ...this.retry, expireInMinutes: 5 });
+    if (!this.config.MAIL_WORKER) return;
+    await this.boss.work<T>(name, { pollingIntervalSeconds: 1, batchSize: 1 }, async (jobs) => {
+      for (const job of jobs) await handler(job.data);
+    });
+  }
+}
+
+/** pg-boss runs its insert on the transaction's own connection, so the job commits with it. */
+function onConnection(transaction?: Transaction) {
+  const conn = transaction ? (transaction as unknown as { connection?: PgConnection }).connection : undefined;
+  if (transaction && !conn) throw new Error('The transaction has no connection yet.');
+  return conn ? { executeSql: (text: string, values: unknown[]) => conn.query(text, values) } : undefined;
 }

@@ -13,7 +13,7 @@ import type { AccessTaskDto, EstimateLineDto } from '../schemas/estimates.js';
 import { settleDeposits, type DepositPayment, type DepositRefund } from './deposits.js';
 import type { PricedEstimate, RateTotal, Totals } from './types.js';
 import { VAT_ROUNDING_LABELS } from '../vat-rounding-words.js';
-import { exactVat, parseVatRate, roundLineVat, vatFractionExact, type VatRounding } from './vat.js';
+import { exactVat, parseVatRate, roundLineVat, vatFractionExact } from './vat.js';
 
 
 /** A deposit received before the invoice, as the invoice shows it. */
