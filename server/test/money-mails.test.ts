@@ -5,7 +5,7 @@ import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startStripeFake, type RunningFake } from '@wingstage/stripe-fake';
 import { AuditEvent, DepositRequest, EstimateLine, Invoice, Job, Payment } from '../src/models/index.js';
-import { sendCardReceipt } from '../src/jobs/card-receipts.js';
+import { sendPaymentReceipt } from '../src/jobs/payment-receipts.js';
 import { MAILDEV_API, makeJob, makeWorkshop, mailsTo, signIn, startTestServer, TEST_STRIPE_KEY, TEST_WEBHOOK_SECRET, waitForMail, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
 /*
@@ -115,7 +115,7 @@ describe('receipts for card payments', () => {
     const payment = await Payment.findOne({ where: { depositRequestId: asked.body.id, state: 'succeeded' } });
     expect(payment!.receiptMailedAt).toBeInstanceOf(Date);
     // The task run again (a retry after a crash) finds the receipt already queued.
-    expect(await sendCardReceipt(server.parts, payment!.id)).toBe('already');
+    expect(await sendPaymentReceipt(server.parts, payment!.id)).toBe('already');
     await new Promise((r) => setTimeout(r, 1500));
     const toOwner = await mailsTo(s.email);
     // One e-mail per payment: the deposit request and the receipt, no separate "received" message.

@@ -1,5 +1,5 @@
 import { formatCalendarDate, formatMoney, sumAmounts, type CreditNoteDocument, type InvoiceDocument, type ReceiptDocument } from '@wingstage/shared';
-import { renderCreditNotePdf, renderInvoicePdf, renderReceiptPdf } from '../documents/index.js';
+import { renderCreditNotePdf, renderInvoicePdf } from '../documents/index.js';
 import type { Deps } from '../services/deps.js';
 import type { MailMessage } from './mail-queue.js';
 
@@ -68,7 +68,7 @@ export function receiptMail(doc: ReceiptDocument, pdf: Buffer): MailMessage | nu
 }
 
 /**
- * Renders the document and queues the e-mail after the document is committed: the document stands
+ * Renders the document and queues the e-mail (run by the document-mail task, after the document is committed): the document stands
  * whether or not the e-mail goes; a rendering failure is logged, never turned into a failed request.
  */
 async function send(deps: Pick<Deps, 'mail' | 'logger'>, what: string, make: () => Promise<MailMessage | null>): Promise<void> {
@@ -84,5 +84,3 @@ export const sendInvoiceMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: Invoic
   send(deps, `invoice ${doc.number}`, async () => invoiceMail(doc, await renderInvoicePdf(doc)));
 export const sendCreditNoteMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: CreditNoteDocument) =>
   send(deps, `credit note ${doc.number}`, async () => creditNoteMail(doc, await renderCreditNotePdf(doc)));
-export const sendReceiptMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: ReceiptDocument) =>
-  send(deps, `receipt ${doc.paymentId}`, async () => receiptMail(doc, await renderReceiptPdf(doc)));

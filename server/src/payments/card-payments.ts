@@ -12,7 +12,7 @@ import {
 import { AppError } from '../errors/app-error.js';
 import { AuditEvent, DepositRequest, Payment, Refund } from '../models/index.js';
 import type { Deps } from '../services/deps.js';
-import { queueCardReceipt } from '../jobs/card-receipts.js';
+import { queuePaymentReceipt } from '../jobs/payment-receipts.js';
 import { settleJobIfCovered } from './job-balance.js';
 import { stripeClient } from './stripe-client.js';
 
@@ -164,7 +164,7 @@ export async function recordSucceeded(deps: Deps, payment: Payment, pi: Stripe.P
 
   if (payment.kind === 'balance') {
     await settleJobIfCovered(null, payment.jobId, t);
-    await queueCardReceipt(deps, payment.id, t);
+    await queuePaymentReceipt(deps, payment.id, t);
     return;
   }
 
@@ -176,7 +176,7 @@ export async function recordSucceeded(deps: Deps, payment: Payment, pi: Stripe.P
   }
   if (mismatch) {
     // Kept and flagged; the deposit stays waiting until accounts sort it out. The money was received: the owner gets a receipt.
-    await queueCardReceipt(deps, payment.id, t);
+    await queuePaymentReceipt(deps, payment.id, t);
     return;
   }
   assertDepositRequestMove(deposit.state, 'paid');
@@ -184,7 +184,7 @@ export async function recordSucceeded(deps: Deps, payment: Payment, pi: Stripe.P
   await recordAppAudit(t, { ...base, action: 'deposit.paid', summary: `Deposit paid: ${deposit.reason} (${money(deposit.amount, deposit.currency)})`, detail: { depositRequestId: deposit.id, paymentId: payment.id } });
   await closeOtherPages(deps, deposit, payment, t);
   // One e-mail per payment: the receipt, with its PDF, rendered by a task after this commits.
-  await queueCardReceipt(deps, payment.id, t);
+  await queuePaymentReceipt(deps, payment.id, t);
 }
 
 /**

@@ -15,7 +15,7 @@ import { validBody, validParams, validQuery, validate } from '../middleware/vali
 import type { Deps } from '../services/deps.js';
 import * as invoices from '../services/invoices.service.js';
 import * as credits from '../services/credit-notes.service.js';
-import { sendCreditNoteMail, sendInvoiceMail, sendReceiptMail } from '../mail/invoice-mails.js';
+import { queueDocumentMail, queuePaymentReceipt } from '../jobs/payment-receipts.js';
 
 /** Who handles money after the invoice: accounts, and the admin. */
 const MONEY_ROLES = ['admin', 'accounts'] as const;
@@ -32,12 +32,12 @@ export function invoicesRoutes(deps: Deps): Router {
   });
   router.post('/:id/credit-notes', authorize(config, ...MONEY_ROLES), validate({ params: idParamsSchema, body: creditNoteSchema }), async (req, res) => {
     const cn = await credits.issueGoodwillCreditNote(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, creditNoteSchema));
-    await sendCreditNoteMail(deps, cn.document);
+    await queueDocumentMail(deps, { kind: 'credit_note', id: cn.id });
     res.status(201).json(cn);
   });
   router.post('/:id/refunds', authorize(config, ...MONEY_ROLES), validate({ params: idParamsSchema, body: refundSchema }), async (req, res) => {
     const cn = await credits.refundPayment(scopeOf(req), deps, validParams(req, idParamsSchema).id, validBody(req, refundSchema));
-    await sendCreditNoteMail(deps, cn.document);
+    await queueDocumentMail(deps, { kind: 'credit_note', id: cn.id });
     res.status(201).json(cn);
   });
   return router;
@@ -67,13 +67,13 @@ export function jobInvoiceRoutes(deps: Deps): Router {
   });
   router.post('/:id/invoice', authorize(config, 'admin', 'manager'), validate({ params: idParamsSchema, body: invoiceIssueSchema }), async (req, res) => {
     const inv = await invoices.issueInvoice(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, invoiceIssueSchema));
-    await sendInvoiceMail(deps, inv.document);
+    await queueDocumentMail(deps, { kind: 'invoice', id: inv.id });
     res.status(201).json(inv);
   });
   router.post('/:id/payments/offline', authorize(config, ...MONEY_ROLES), validate({ params: idParamsSchema, body: offlinePaymentSchema }), async (req, res) => {
     const scope = scopeOf(req);
     const out = await invoices.recordOfflinePayment(scope, validParams(req, idParamsSchema).id, validBody(req, offlinePaymentSchema));
-    await sendReceiptMail(deps, await invoices.receiptFor(scope, out.paymentId));
+    await queuePaymentReceipt(deps, out.paymentId);
     res.status(201).json(out);
   });
   return router;

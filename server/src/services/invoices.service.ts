@@ -419,14 +419,6 @@ export async function creditInvoiceIfCleared(invoiceId: string, t: Transaction):
   }
 }
 
-/** The receipt for one payment received on a job (the frozen shape the receipt PDF renders). */
-export async function receiptFor(scope: Scope, paymentId: string): Promise<ReceiptDocument> {
-  requireStaff(scope);
-  const p = await Payment.findOne({ where: { id: paymentId, workshopId: scope.workshopId } });
-  if (!p || p.amount === null) throw notFound('That payment');
-  return receiptDocument(p, await findJob(scope, p.jobId));
-}
-
 /**
  * The receipt of a received payment. A deposit states the VAT it carries at its own tax point, the
  * date received [VAT Act 1994 s6(4)], from the job's VAT mix when it was asked, through the engine.
