@@ -169,6 +169,23 @@ describe('receipts for card payments', () => {
   }, 60_000);
 });
 
+describe('receipts for offline payments', () => {
+  it('when accounts records a bank transfer, then the answer does not wait for the PDF and the owner gets one receipt e-mail with it', async () => {
+    const s = await setup('Offline receipts');
+    const job = await readyJob(s);
+    const inv = (await s.manager.post(`/api/jobs/${job.id}/invoice`, {})).body;
+    const paid = await s.accounts.post(`/api/jobs/${job.id}/payments/offline`, { amount: '50.00', method: 'bank_transfer', receivedOn: '2026-12-01', reference: 'WREN 0412' });
+    expect(paid.status).toBe(201);
+    const mail = await waitForMail(s.email, (m) => m.subject.includes('receipt for your payment of £50.00'));
+    expect(mail.text).toContain(`on 1 Dec 2026 for ${s.w.owners[0].aircraft.registration} towards invoice ${inv.number}`);
+    const pdf = await pdfOf(mail);
+    expect(pdf.text).toContain('This is not a VAT invoice');
+    expect(pdf.text).toContain('£50.00');
+    expect(pdf.text).toContain('WREN 0412');
+    expect(await Payment.findByPk(paid.body.paymentId)).toMatchObject({ receiptMailedAt: expect.any(Date) });
+  }, 60_000);
+});
+
 describe('cancelling a job', () => {
   it('when a job with waiting deposits is cancelled, then each is cancelled with a history line and its open payment page is expired through the processor; a paid one stays paid', async () => {
     const s = await setup('Cancel deposits');

@@ -65,7 +65,7 @@ export class MailQueue {
   async start(): Promise<void> {
     if (this.started) return;
     await this.boss.start();
-    await this.boss.createQueue(this.queue, { name: this.queue, ...this.retry, expireInMinutes: 5 });
+    await this.createQueue(this.queue);
     if (this.config.MAIL_WORKER) {
       // One message per fetch: a failure retries only that message, never re-sends others.
       await this.boss.work<MailMessage>(this.queue, { pollingIntervalSeconds: 1, batchSize: 1 }, async (jobs) => {
@@ -76,6 +76,23 @@ export class MailQueue {
       });
     }
     this.started = true;
+  }
+
+  /**
+   * pg-boss makes each queue its own table partition; processes creating queues at the same moment
+   * (several test servers, or app processes starting together) can deadlock on that DDL, and one of
+   * them is chosen to fail. It is safe to try again: creating a queue that exists changes nothing.
+   */
+  private async createQueue(name: string): Promise<void> {
+    for (let attempt = 1; ; attempt++) {
+      try {
+        await this.boss.createQueue(name, { name, ...this.retry, expireInMinutes: 5 });
+        return;
+      } catch (err) {
+        if ((err as { code?: string }).code !== '40P01' || attempt >= 5) throw err;
+        await new Promise((r) => setTimeout(r, 100 * attempt + Math.floor(Math.random() * 100)));
+      }
+    }
   }
 
   /** The queue's view of one message: created, retry, active, completed or failed. */
@@ -126,7 +143,7 @@ export class MailQueue {
   async workTask<T extends object>(task: string, handler: (data: T) => Promise<void>): Promise<void> {
     if (!this.started) throw new Error('The mail queue is not started.');
     const name = this.taskQueue(task);
-    await this.boss.createQueue(name, { name, ...this.retry, expireInMinutes: 5 });
+    await this.createQueue(name);
     if (!this.config.MAIL_WORKER) return;
     await this.boss.work<T>(name, { pollingIntervalSeconds: 1, batchSize: 1 }, async (jobs) => {
       for (const job of jobs) await handler(job.data);
