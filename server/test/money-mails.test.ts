@@ -212,8 +212,25 @@ describe('cancelling a job', () => {
     expect((await live.state.session(sessionOf(openUrl)))?.status).toBe('expired');
     const lines = await AuditEvent.findAll({ where: { jobId, action: 'deposit.cancelled' } });
     expect(lines.map((l) => l.summary).sort()).toEqual(['Deposit of £40.00 cancelled: the job was cancelled', 'Deposit of £80.00 cancelled: the job was cancelled']);
+    // Another workshop's manager cannot cancel this job or reach its deposits.
+    const other = await setup('Cancel elsewhere');
+    expect((await other.manager.post(`/api/jobs/${jobId}/transition`, { to: 'cancelled', version: job.version, reason: 'Not ours' })).status).toBe(404);
     // The closed page can no longer take money, and the owner is not offered it.
     const retry = await s.owner.post(`/api/jobs/${jobId}/payments/checkout`, { for: 'deposit', depositRequestId: first });
     expect(retry.status).toBe(409);
+  }, 60_000);
+
+  it('when 20 cancels of a job with a waiting deposit arrive at once, then one wins and the deposit is cancelled once', async () => {
+    const s = await setup('Cancel race');
+    const jobId = s.w.owners[0].job.id;
+    const depositId = (await s.manager.post(`/api/jobs/${jobId}/deposits`, { amount: '60.00', reason: 'Prop bolts ordered' })).body.id as string;
+    await s.owner.post(`/api/jobs/${jobId}/payments/checkout`, { for: 'deposit', depositRequestId: depositId });
+    const version = (await s.manager.get(`/api/jobs/${jobId}`)).body.version as number;
+    const res = await Promise.all(Array.from({ length: 20 }, () => s.manager.post(`/api/jobs/${jobId}/transition`, { to: 'cancelled', version, reason: 'Owner withdrew' })));
+    expect(res.filter((r) => r.status === 200)).toHaveLength(1);
+    expect(res.every((r) => r.status === 200 || r.status === 409)).toBe(true);
+    expect(await DepositRequest.findByPk(depositId)).toMatchObject({ state: 'cancelled' });
+    expect(await AuditEvent.count({ where: { jobId, action: 'deposit.cancelled' } })).toBe(1);
+    expect(await Payment.count({ where: { depositRequestId: depositId, state: 'cancelled' } })).toBe(1);
   }, 60_000);
 });
