@@ -6,7 +6,7 @@ const ACCOUNTS = 'accounts@brackenfold.example';
 const OWNER = 'tomasz@owners.example';
 
 /**
- * The invoice after the work: the demo's exhaust spring job on Q-MRLW was invoiced with its deposit
+ * The invoice after the work: the manager issues the yearly look-over's invoice from its preview. The demo's exhaust spring job on Q-MRLW was invoiced with its deposit
  * deducted. The owner on a phone sees it and pays the balance by card on the test payment page; the
  * job shows paid; accounts refunds part of it to the card, and the credit note appears for the owner.
  */
@@ -14,12 +14,25 @@ test('@invoice the owner pays the invoice balance by card, accounts refunds part
   test.skip(testInfo.project.name !== 'desktop', 'One journey: it opens its own phone and desktop windows.');
   test.setTimeout(180_000);
   const manager = await signedIn(browser, baseURL, MANAGER);
+
+  // The manager issues the invoice of the demo's yearly look-over on Q-MRLW, ready for release, from its preview.
+  const ready = await apiCall<{ items: { id: string; title: string; registration: string; state: string }[] }>(manager.page, 'GET', '/api/jobs?q=Yearly%20look-over&pageSize=50');
+  const lookOver = ready.items.find((j) => j.registration === 'Q-MRLW' && j.title === 'Yearly look-over')!;
+  expect(lookOver.state).toBe('ready_for_release');
+  await manager.page.goto(`/jobs/${lookOver.id}`);
+  await manager.page.getByRole('button', { name: 'Issue invoice', exact: true }).click();
+  await expect(manager.page.getByTestId('invoice-document')).toBeVisible({ timeout: 15_000 });
+  await manager.page.getByRole('button', { name: /^Issue invoice for £\d/ }).click();
+  await expect(manager.page.getByRole('heading', { name: /^Invoice INV-\d{5}$/ })).toBeVisible({ timeout: 15_000 });
+  expect((await apiCall<{ state: string }>(manager.page, 'GET', `/api/jobs/${lookOver.id}`)).state).toBe('invoiced');
+
   const jobs = await apiCall<{ items: { id: string; title: string; registration: string; state: string }[] }>(manager.page, 'GET', '/api/jobs?q=Exhaust%20spring&pageSize=50');
   const job = jobs.items.find((j) => j.registration === 'Q-MRLW' && j.title === 'Exhaust spring replacement')!;
   expect(job.state).toBe('invoiced');
   await manager.page.goto(`/jobs/${job.id}`);
   const card = manager.page.getByRole('heading', { name: /^Invoice INV-\d{5}$/ });
   await expect(card).toBeVisible();
+  const number = (await card.textContent())!.replace(/^Invoice /, '');
   await expect(manager.page.getByRole('button', { name: /Mark (invoiced|paid)/ })).toHaveCount(0);
   await manager.page.getByText('The invoice as issued').click();
   await expect(manager.page.getByTestId('invoice-document').getByText(/Deposit received/)).toBeVisible();
@@ -29,7 +42,8 @@ test('@invoice the owner pays the invoice balance by card, accounts refunds part
   // The owner, on a phone.
   const owner = await signedIn(browser, baseURL, OWNER, true);
   await owner.page.goto('/my-aircraft');
-  const mine = owner.page.getByTestId('my-invoice');
+  // The owner now has two invoices (the look-over's is new): this journey follows the exhaust spring's.
+  const mine = owner.page.getByTestId('my-invoice').filter({ hasText: number });
   await expect(mine).toContainText(/Left to pay: £\d/);
   await expect(mine.getByRole('link', { name: 'Download the VAT invoice (PDF)' })).toHaveAttribute('href', /\/api\/invoices\/.+\/pdf$/);
   await mine.getByText('See the invoice here').click();
@@ -44,7 +58,7 @@ test('@invoice the owner pays the invoice balance by card, accounts refunds part
   await expect(owner.page).not.toHaveURL(/\/pay\//, { timeout: 30_000 });
   await expect.poll(async () => (await apiCall<{ state: string }>(owner.page, 'GET', `/api/jobs/${job.id}`)).state, { timeout: 30_000 }).toBe('paid');
   await owner.page.goto('/my-aircraft');
-  await expect(owner.page.getByTestId('my-invoice')).toContainText('Paid in full');
+  await expect(owner.page.getByTestId('my-invoice').filter({ hasText: number })).toContainText('Paid in full');
 
   // Accounts refunds part of the card payment.
   const accounts = await signedIn(browser, baseURL, ACCOUNTS);

@@ -8,6 +8,7 @@ import { closeDocumentRenderer } from './documents/renderer.js';
 import type { AppParts } from './app.js';
 import { ApprovalChaser } from './jobs/approval-chaser.js';
 import { PayoutFetcher } from './jobs/payout-fetch.js';
+import { startReceiptTasks } from './jobs/payment-receipts.js';
 import { createPhotoStore } from './storage/index.js';
 
 /** Connects the database, binds the models and starts the mail queue and its worker. */
@@ -19,6 +20,7 @@ export async function startParts(config: Config): Promise<AppParts> {
   const photos = createPhotoStore(config);
   const mail = new MailQueue(config, sequelize, logger.child({ part: 'mail' }), { queue: config.MAIL_QUEUE });
   await mail.start();
+  await startReceiptTasks({ mail, logger: logger.child({ part: 'receipts' }) });
   const passwords = new PasswordHasher({ threads: config.PASSWORD_THREADS ?? defaultPasswordThreads(), queue: config.PASSWORD_QUEUE });
   let chaser: ApprovalChaser | undefined;
   if (config.APPROVAL_CHASER) {

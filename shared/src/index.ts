@@ -27,3 +27,4 @@ export * from './documents.js';
 export * from './vat-rounding-words.js';
 export * from './schemas/accounts.js';
 export * from './schemas/invoices.js';
+export * from './dates.js';

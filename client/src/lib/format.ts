@@ -3,6 +3,8 @@
  * currency's minor unit), the same one the e-mails and history use; re-exported so pages keep one
  * import for display helpers.
  */
+import { formatCalendarDate } from '@wingstage/shared';
+
 export { formatMoney, type MoneyFormatOptions } from '@wingstage/shared';
 
 const dateFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
@@ -11,8 +13,7 @@ const dateTimeFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 's
 /** `2026-12-01` (a calendar date) → "1 Dec 2026", read as a local date so it never shifts a day. */
 export function formatDate(iso: string | null | undefined): string {
   if (!iso) return '—';
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(iso);
-  if (m) return dateFmt.format(new Date(Number(m[1]), Number(m[2]) - 1, Number(m[3])));
+  if (/^\d{4}-\d{2}-\d{2}$/.test(iso)) return formatCalendarDate(iso);
   const d = new Date(iso);
   return Number.isNaN(d.getTime()) ? iso : dateFmt.format(d);
 }

@@ -13,7 +13,7 @@ const mixLabel = (mix: Mix) => {
 };
 
 /** VAT in a deposit received, on the job's VAT mix when it was asked, through the pricing engine. */
-function depositVat(paymentId: string, amount: string, receivedOn: string, mix: Mix, currency: string): string {
+export function depositVat(paymentId: string, amount: string, receivedOn: string, mix: Mix, currency: string): string {
   if (!mix.some((m) => new Dec(m.gross).greaterThan(0))) return formatAmount(new Dec(0), minorUnits(currency));
   const s = settleDeposits({ net: '0.00', vat: '0.00', gross: '0.00', byRate: [] }, [{ id: paymentId, amount, receivedOn, kind: 'advance', vatMix: mix }], [], currency);
   return s.payments[0]!.vat;

@@ -42,19 +42,3 @@ export function depositRequestedMail(p: DepositMailFacts): MailMessage {
     { href: p.link, label: 'Pay deposit' },
   );
 }
-
-/** The deposit was received: the owner's confirmation. */
-export function depositReceivedMail(p: DepositMailFacts & { receivedAt: Date }): MailMessage {
-  const on = p.receivedAt.toLocaleString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', hour: '2-digit', minute: '2-digit', timeZone: 'Europe/London' });
-  return build(
-    p.to,
-    `${p.registration}: deposit of ${formatMoney(p.amount, p.currency)} received`,
-    [
-      `Hello ${p.ownerName},`,
-      `${p.workshopName} received your deposit of ${formatMoney(p.amount, p.currency, { vat: 'incl' })} on ${on} for ${p.registration} (job ${p.jobNumber}).`,
-      `What it is for: ${p.reason}`,
-      'It will be taken off the final invoice. Keep this e-mail as your receipt.',
-    ],
-    { href: p.link, label: 'See your job' },
-  );
-}

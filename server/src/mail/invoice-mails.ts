@@ -1,5 +1,5 @@
-import { formatMoney, sumAmounts, type CreditNoteDocument, type InvoiceDocument, type ReceiptDocument } from '@wingstage/shared';
-import { renderCreditNotePdf, renderInvoicePdf, renderReceiptPdf } from '../documents/index.js';
+import { formatCalendarDate, formatMoney, sumAmounts, type CreditNoteDocument, type InvoiceDocument, type ReceiptDocument } from '@wingstage/shared';
+import { renderCreditNotePdf, renderInvoicePdf } from '../documents/index.js';
 import type { Deps } from '../services/deps.js';
 import type { MailMessage } from './mail-queue.js';
 
@@ -30,7 +30,7 @@ export function invoiceMail(doc: InvoiceDocument, pdf: Buffer): MailMessage | nu
     [
       `Hello ${doc.customer.name},`,
       `Your invoice ${doc.number} for ${doc.job.title} on ${doc.job.registration} is attached: ${formatMoney(doc.totals.gross, doc.currency)} including VAT.${paid}`,
-      `Left to pay: ${formatMoney(doc.balanceDue, doc.currency)}, by ${doc.dueOn}. You can pay by card from your job page, or by bank transfer quoting ${doc.number}.${contact(doc)}`,
+      `Left to pay: ${formatMoney(doc.balanceDue, doc.currency)}, by ${formatCalendarDate(doc.dueOn)}. You can pay by card from your job page, or by bank transfer quoting ${doc.number}.${contact(doc)}`,
     ],
     { filename: `${doc.number}.pdf`, bytes: pdf },
   );
@@ -58,14 +58,17 @@ export function receiptMail(doc: ReceiptDocument, pdf: Buffer): MailMessage | nu
     `${doc.job.registration}: receipt for your payment of ${formatMoney(doc.amount, doc.currency)}`,
     [
       `Hello ${doc.customer.name},`,
-      `Thank you: ${doc.supplier.name} received ${formatMoney(doc.amount, doc.currency)} (${doc.method.toLowerCase()}) on ${doc.receivedOn}${doc.invoiceNumber ? ` towards invoice ${doc.invoiceNumber}` : ''}. Your receipt is attached.`,
-    ],
+      `Thank you: ${doc.supplier.name} received ${formatMoney(doc.amount, doc.currency)} (${doc.method.toLowerCase()}) on ${formatCalendarDate(doc.receivedOn)} for ${doc.job.registration}${doc.invoiceNumber ? ` towards invoice ${doc.invoiceNumber}` : ''}. Your receipt is attached.`,
+      ...(doc.invoiceNumber ? [] : [`What it is for: ${doc.description}.`]),
+      ...doc.notes.filter((n) => !n.startsWith('Your reference')),
+      `${contact(doc).trim()}`,
+    ].filter(Boolean),
     { filename: `receipt-${doc.paymentId.slice(0, 8)}.pdf`, bytes: pdf },
   );
 }
 
 /**
- * Renders the document and queues the e-mail after the document is committed: the document stands
+ * Renders the document and queues the e-mail (run by the document-mail task, after the document is committed): the document stands
  * whether or not the e-mail goes; a rendering failure is logged, never turned into a failed request.
  */
 async function send(deps: Pick<Deps, 'mail' | 'logger'>, what: string, make: () => Promise<MailMessage | null>): Promise<void> {
@@ -81,5 +84,3 @@ export const sendInvoiceMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: Invoic
   send(deps, `invoice ${doc.number}`, async () => invoiceMail(doc, await renderInvoicePdf(doc)));
 export const sendCreditNoteMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: CreditNoteDocument) =>
   send(deps, `credit note ${doc.number}`, async () => creditNoteMail(doc, await renderCreditNotePdf(doc)));
-export const sendReceiptMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: ReceiptDocument) =>
-  send(deps, `receipt ${doc.paymentId}`, async () => receiptMail(doc, await renderReceiptPdf(doc)));

@@ -66,7 +66,7 @@ export class MailQueue {
   async start(): Promise<void> {
     if (this.started) return;
     await this.boss.start();
-    await bossSetUp(() => this.boss.createQueue(this.queue, { name: this.queue, ...this.retry, expireInMinutes: 5 }));
+    await this.createQueue(this.queue);
     if (this.config.MAIL_WORKER) {
       // One message per fetch: a failure retries only that message, never re-sends others.
       await this.boss.work<MailMessage>(this.queue, { pollingIntervalSeconds: 1, batchSize: 1 }, async (jobs) => {
@@ -77,6 +77,11 @@ export class MailQueue {
       });
     }
     this.started = true;
+  }
+
+  /** Creating a queue is DDL in pg-boss: retried when processes starting together deadlock on it (lib/boss-setup.ts). */
+  private async createQueue(name: string): Promise<void> {
+    await bossSetUp(() => this.boss.createQueue(name, { name, ...this.retry, expireInMinutes: 5 }));
   }
 
   /** The queue's view of one message: created, retry, active, completed or failed. */
@@ -106,10 +111,38 @@ export class MailQueue {
 
   async enqueue(msg: MailMessage, transaction?: Transaction): Promise<string | null> {
     if (!this.started) throw new Error('The mail queue is not started.');
-    // pg-boss runs its insert on the transaction's own connection, so the job commits with it.
-    const conn = transaction ? (transaction as unknown as { connection?: PgConnection }).connection : undefined;
-    if (transaction && !conn) throw new Error('The transaction has no connection yet.');
-    const db = conn ? { executeSql: (text: string, values: unknown[]) => conn.query(text, values) } : undefined;
-    return this.boss.send(this.queue, msg, { ...this.retry, db });
+    return this.boss.send(this.queue, msg, { ...this.retry, db: onConnection(transaction) });
   }
+
+  /**
+   * Work that ends in an e-mail but is too slow for the transaction that causes it (rendering a
+   * PDF): a task queued in that transaction, on a queue named after the mail queue, so it commits
+   * with the rows and each test server's worker sees only its own tasks.
+   */
+  taskQueue(task: string): string {
+    return `${this.queue}-${task}`;
+  }
+
+  async enqueueTask(task: string, data: object, transaction?: Transaction): Promise<string | null> {
+    if (!this.started) throw new Error('The mail queue is not started.');
+    return this.boss.send(this.taskQueue(task), data, { ...this.retry, db: onConnection(transaction) });
+  }
+
+  /** Runs a task's worker in this process (when it runs the mail worker); the handler must be idempotent. */
+  async workTask<T extends object>(task: string, handler: (data: T) => Promise<void>): Promise<void> {
+    if (!this.started) throw new Error('The mail queue is not started.');
+    const name = this.taskQueue(task);
+    await this.createQueue(name);
+    if (!this.config.MAIL_WORKER) return;
+    await this.boss.work<T>(name, { pollingIntervalSeconds: 1, batchSize: 1 }, async (jobs) => {
+      for (const job of jobs) await handler(job.data);
+    });
+  }
+}
+
+/** pg-boss runs its insert on the transaction's own connection, so the job commits with it. */
+function onConnection(transaction?: Transaction) {
+  const conn = transaction ? (transaction as unknown as { connection?: PgConnection }).connection : undefined;
+  if (transaction && !conn) throw new Error('The transaction has no connection yet.');
+  return conn ? { executeSql: (text: string, values: unknown[]) => conn.query(text, values) } : undefined;
 }

@@ -29,6 +29,8 @@ export class Payment extends Model<InferAttributes<Payment>, InferCreationAttrib
   declare receivedAt: CreationOptional<Date | null>;
   declare reference: CreationOptional<string | null>;
   declare recordedBy: CreationOptional<string | null>;
+  /** When the card payment's receipt e-mail was queued (db/migrations/0160-payment-receipt-mailed.ts). */
+  declare receiptMailedAt: CreationOptional<Date | null>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -62,6 +64,7 @@ export class Payment extends Model<InferAttributes<Payment>, InferCreationAttrib
         receivedAt: { type: DataTypes.DATE, allowNull: true },
         reference: { type: DataTypes.TEXT, allowNull: true },
         recordedBy: { type: DataTypes.UUID, allowNull: true },
+        receiptMailedAt: { type: DataTypes.DATE, allowNull: true },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

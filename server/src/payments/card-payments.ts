@@ -12,8 +12,7 @@ import {
 import { AppError } from '../errors/app-error.js';
 import { AuditEvent, DepositRequest, Payment, Refund } from '../models/index.js';
 import type { Deps } from '../services/deps.js';
-import { depositReceivedMail } from '../mail/deposit-mails.js';
-import { depositMailFacts } from './deposit-facts.js';
+import { queuePaymentReceipt } from '../jobs/payment-receipts.js';
 import { settleJobIfCovered } from './job-balance.js';
 import { stripeClient } from './stripe-client.js';
 
@@ -165,6 +164,7 @@ export async function recordSucceeded(deps: Deps, payment: Payment, pi: Stripe.P
 
   if (payment.kind === 'balance') {
     await settleJobIfCovered(null, payment.jobId, t);
+    await queuePaymentReceipt(deps, payment.id, t);
     return;
   }
 
@@ -174,13 +174,17 @@ export async function recordSucceeded(deps: Deps, payment: Payment, pi: Stripe.P
     await refundSecondPayment(deps, payment, deposit, pi, t);
     return;
   }
-  if (mismatch) return; // Kept and flagged; the deposit stays waiting until accounts sort it out.
+  if (mismatch) {
+    // Kept and flagged; the deposit stays waiting until accounts sort it out. The money was received: the owner gets a receipt.
+    await queuePaymentReceipt(deps, payment.id, t);
+    return;
+  }
   assertDepositRequestMove(deposit.state, 'paid');
   await deposit.update({ state: 'paid', paidAt: payment.receivedAt }, { transaction: t });
   await recordAppAudit(t, { ...base, action: 'deposit.paid', summary: `Deposit paid: ${deposit.reason} (${money(deposit.amount, deposit.currency)})`, detail: { depositRequestId: deposit.id, paymentId: payment.id } });
   await closeOtherPages(deps, deposit, payment, t);
-  const facts = await depositMailFacts(deps, deposit, t);
-  if (facts) await deps.mail.enqueue(depositReceivedMail({ ...facts, receivedAt: payment.receivedAt! }), t);
+  // One e-mail per payment: the receipt, with its PDF, rendered by a task after this commits.
+  await queuePaymentReceipt(deps, payment.id, t);
 }
 
 /**

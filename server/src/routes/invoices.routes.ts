@@ -15,7 +15,7 @@ import { validBody, validParams, validQuery, validate } from '../middleware/vali
 import type { Deps } from '../services/deps.js';
 import * as invoices from '../services/invoices.service.js';
 import * as credits from '../services/credit-notes.service.js';
-import { sendCreditNoteMail, sendInvoiceMail, sendReceiptMail } from '../mail/invoice-mails.js';
+import { queueDocumentMail, queuePaymentReceipt } from '../jobs/payment-receipts.js';
 
 /** Who handles money after the invoice: accounts, and the admin. */
 const MONEY_ROLES = ['admin', 'accounts'] as const;
@@ -32,15 +32,13 @@ export function invoicesRoutes(deps: Deps): Router {
   });
   router.post('/:id/credit-notes', authorize(config, ...MONEY_ROLES), validate({ params: idParamsSchema, body: creditNoteSchema }), async (req, res) => {
     const cn = await credits.issueGoodwillCreditNote(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, creditNoteSchema));
+    await queueDocumentMail(deps, { kind: 'credit_note', id: cn.id });
     res.status(201).json(cn);
-    // The PDF takes a moment to render: the answer does not wait for the e-mail (failures are logged).
-    void sendCreditNoteMail(deps, cn.document);
   });
   router.post('/:id/refunds', authorize(config, ...MONEY_ROLES), validate({ params: idParamsSchema, body: refundSchema }), async (req, res) => {
     const cn = await credits.refundPayment(scopeOf(req), deps, validParams(req, idParamsSchema).id, validBody(req, refundSchema));
+    await queueDocumentMail(deps, { kind: 'credit_note', id: cn.id });
     res.status(201).json(cn);
-    // The PDF takes a moment to render: the answer does not wait for the e-mail (failures are logged).
-    void sendCreditNoteMail(deps, cn.document);
   });
   return router;
 }
@@ -69,15 +67,14 @@ export function jobInvoiceRoutes(deps: Deps): Router {
   });
   router.post('/:id/invoice', authorize(config, 'admin', 'manager'), validate({ params: idParamsSchema, body: invoiceIssueSchema }), async (req, res) => {
     const inv = await invoices.issueInvoice(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, invoiceIssueSchema));
+    await queueDocumentMail(deps, { kind: 'invoice', id: inv.id });
     res.status(201).json(inv);
-    void sendInvoiceMail(deps, inv.document);
   });
   router.post('/:id/payments/offline', authorize(config, ...MONEY_ROLES), validate({ params: idParamsSchema, body: offlinePaymentSchema }), async (req, res) => {
     const scope = scopeOf(req);
     const out = await invoices.recordOfflinePayment(scope, validParams(req, idParamsSchema).id, validBody(req, offlinePaymentSchema));
-    const receipt = await invoices.receiptFor(scope, out.paymentId);
+    await queuePaymentReceipt(deps, out.paymentId);
     res.status(201).json(out);
-    void sendReceiptMail(deps, receipt);
   });
   return router;
 }

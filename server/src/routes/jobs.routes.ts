@@ -5,7 +5,8 @@ import { validBody, validParams, validQuery, validate } from '../middleware/vali
 import type { Deps } from '../services/deps.js';
 import * as jobs from '../services/jobs.service.js';
 
-export function jobsRoutes({ config }: Deps): Router {
+export function jobsRoutes(deps: Deps): Router {
+  const { config } = deps;
   const router = Router();
   router.get('/', authorize(config, ...ROLES), validate({ query: jobListQuerySchema }), async (req, res) => {
     res.json(await jobs.listJobs(scopeOf(req), validQuery(req, jobListQuerySchema)));
@@ -21,7 +22,7 @@ export function jobsRoutes({ config }: Deps): Router {
   });
   // Engineers pass this gate; the service allows them booked in → inspecting only.
   router.post('/:id/transition', authorize(config, 'admin', 'manager', 'engineer'), validate({ params: idParamsSchema, body: jobTransitionSchema }), async (req, res) => {
-    res.json(await jobs.transitionJob(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, jobTransitionSchema)));
+    res.json(await jobs.transitionJob(deps, scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, jobTransitionSchema)));
   });
   router.get('/:id/history', authorize(config, ...STAFF_ROLES), validate({ params: idParamsSchema }), async (req, res) => {
     res.json(await jobs.jobHistory(scopeOf(req), validParams(req, idParamsSchema).id));

@@ -167,28 +167,46 @@ export async function cancelDeposit(deps: Deps, scope: Scope, jobId: string, dep
     const job = await lockJob(scope, jobId, t);
     const deposit = await DepositRequest.findOne({ where: { id: depositId, jobId: job.id, workshopId: scope.workshopId }, transaction: t, lock: t.LOCK.UPDATE });
     if (!deposit) throw notFound('That deposit');
-    assertDepositRequestMove(deposit.state, 'cancelled');
-    const open = await Payment.findAll({ where: { depositRequestId: deposit.id, state: ['pending', 'failed'] }, transaction: t, lock: t.LOCK.UPDATE });
-    for (const p of open) {
-      let closed: boolean;
-      try {
-        closed = await expireSession(deps, p.stripeCheckoutSessionId);
-      } catch (err) {
-        throw processorTrouble(err);
-      }
-      if (!closed) throw conflict('The owner has just paid this deposit, so it cannot be cancelled. Reload to see the payment; refund it if it is not wanted.');
-      assertPaymentMove(p.state, 'cancelled');
-      await p.update({ state: 'cancelled', outcomeNote: 'Payment page closed unpaid: the workshop cancelled the deposit.' }, { transaction: t });
-    }
-    await deposit.update({ state: 'cancelled', cancelledAt: new Date(), cancelledBy: scope.userId, cancelReason: input.reason || null }, { transaction: t });
-    await recordAudit(scope, t, {
-      jobId: job.id,
-      action: 'deposit.cancelled',
-      summary: `Deposit of ${formatMoney(deposit.amount, deposit.currency)} cancelled${input.reason ? `: ${input.reason}` : ''}`,
-      detail: { depositRequestId: deposit.id, pagesClosed: open.length },
-    });
+    await cancelDepositIn(deps, scope, deposit, input.reason || null, 'Payment page closed unpaid: the workshop cancelled the deposit.', t);
     return (await dtosFor(scope, [deposit], t))[0]!;
   });
+}
+
+/**
+ * Cancels one deposit request, locked by the caller after its job: its open payment pages are
+ * expired through the processor, then the request moves to cancelled with a history line.
+ */
+async function cancelDepositIn(deps: Deps, scope: Scope, deposit: DepositRequest, reason: string | null, pageNote: string, t: Transaction): Promise<void> {
+  assertDepositRequestMove(deposit.state, 'cancelled');
+  const open = await Payment.findAll({ where: { depositRequestId: deposit.id, state: ['pending', 'failed'] }, order: [['createdAt', 'ASC']], transaction: t, lock: t.LOCK.UPDATE });
+  for (const p of open) {
+    let closed: boolean;
+    try {
+      closed = await expireSession(deps, p.stripeCheckoutSessionId);
+    } catch (err) {
+      throw processorTrouble(err);
+    }
+    if (!closed) throw conflict('The owner has just paid this deposit, so it cannot be cancelled. Reload to see the payment; refund it if it is not wanted.');
+    assertPaymentMove(p.state, 'cancelled');
+    await p.update({ state: 'cancelled', outcomeNote: pageNote }, { transaction: t });
+  }
+  await deposit.update({ state: 'cancelled', cancelledAt: new Date(), cancelledBy: scope.userId, cancelReason: reason }, { transaction: t });
+  await recordAudit(scope, t, {
+    jobId: deposit.jobId,
+    action: 'deposit.cancelled',
+    summary: `Deposit of ${formatMoney(deposit.amount, deposit.currency)} cancelled${reason ? `: ${reason}` : ''}`,
+    detail: { depositRequestId: deposit.id, pagesClosed: open.length },
+  });
+}
+
+/**
+ * A cancelled job asks for no more money: each of its deposits still waiting is cancelled, and its
+ * open payment pages closed, in the job's cancelling transaction (the job row is already locked).
+ */
+export async function cancelWaitingDepositsOfJob(deps: Deps, scope: Scope, jobId: string, t: Transaction): Promise<number> {
+  const waiting = await DepositRequest.findAll({ where: { jobId, workshopId: scope.workshopId, state: 'waiting' }, order: [['createdAt', 'ASC'], ['id', 'ASC']], transaction: t, lock: t.LOCK.UPDATE });
+  for (const d of waiting) await cancelDepositIn(deps, scope, d, 'the job was cancelled', 'Payment page closed unpaid: the job was cancelled.', t);
+  return waiting.length;
 }
 
 const WAITING_SQL = `

@@ -1,6 +1,7 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { z } from 'zod';
 import {
+  formatCalendarDate,
   Dec,
   JOB_STATE_LABELS,
   assertInvoiceMove,
@@ -29,7 +30,8 @@ import {
   type offlinePaymentSchema,
 } from '@wingstage/shared';
 import { AppError, conflict, notFound } from '../errors/app-error.js';
-import { Aircraft, Customer, Finding, Invoice, Payment, Workshop, boundSequelize } from '../models/index.js';
+import { Aircraft, Customer, DepositRequest, Finding, Invoice, Payment, Workshop, boundSequelize } from '../models/index.js';
+import { depositVat } from '../accounts/vat-summary.js';
 import { inTransaction } from '../db/transaction.js';
 import { jobMoney, settleJobIfCovered } from '../payments/job-balance.js';
 import { recordAudit } from './audit.js';
@@ -214,7 +216,7 @@ export async function issueInvoiceIn(scope: Scope, jobId: string, input: IssueIn
   await recordAudit(scope, t, {
     jobId: job.id,
     action: 'invoice.issued',
-    summary: `Invoice ${number} issued: ${formatMoney(document.totals.gross, document.currency)} incl. VAT, deposits ${formatMoney(invoice.depositsGross, document.currency)}, balance due ${formatMoney(document.balanceDue, document.currency)} by ${document.dueOn}`,
+    summary: `Invoice ${number} issued: ${formatMoney(document.totals.gross, document.currency)} incl. VAT, deposits ${formatMoney(invoice.depositsGross, document.currency)}, balance due ${formatMoney(document.balanceDue, document.currency)} by ${formatCalendarDate(document.dueOn)}`,
     detail: { invoiceId: invoice.id, number, gross: document.totals.gross, balanceDue: document.balanceDue },
   });
   // Deposits may already cover everything.
@@ -417,30 +419,36 @@ export async function creditInvoiceIfCleared(invoiceId: string, t: Transaction):
   }
 }
 
-/** The receipt for one payment received on a job (the frozen shape the receipt PDF renders). */
-export async function receiptFor(scope: Scope, paymentId: string): Promise<ReceiptDocument> {
-  requireStaff(scope);
-  const p = await Payment.findOne({ where: { id: paymentId, workshopId: scope.workshopId } });
-  if (!p || p.amount === null) throw notFound('That payment');
-  const job = await findJob(scope, p.jobId);
-  const w = await Workshop.findByPk(scope.workshopId);
+/**
+ * The receipt of a received payment. A deposit states the VAT it carries at its own tax point, the
+ * date received [VAT Act 1994 s6(4)], from the job's VAT mix when it was asked, through the engine.
+ */
+export async function receiptDocument(p: Payment, job: Pick<JobRow, 'id' | 'aircraftId' | 'number' | 'title'>, t?: Transaction): Promise<ReceiptDocument> {
+  if (p.amount === null) throw new Error(`payment ${p.id} has no amount received`);
+  const w = await Workshop.findByPk(p.workshopId, { transaction: t });
   if (!w) throw notFound('The workshop');
-  const parties = await partiesOf(job);
-  const invoice = await Invoice.findOne({ where: { jobId: job.id }, attributes: ['number'] });
+  const parties = await partiesOf(job as JobRow, t);
+  const invoice = await Invoice.findOne({ where: { jobId: job.id }, attributes: ['number'], transaction: t });
+  const receivedOn = ukDate(p.receivedAt ?? new Date());
+  const deposit = p.kind === 'deposit' && p.depositRequestId ? await DepositRequest.findByPk(p.depositRequestId, { transaction: t }) : null;
+  const hasMix = !!deposit?.vatMix.some((m) => new Dec(m.gross).greaterThan(0));
   return {
     version: 1,
     kind: 'receipt',
     paymentId: p.id,
-    receivedOn: ukDate(p.receivedAt ?? new Date()),
+    receivedOn,
     supplier: supplierOf(w),
     customer: parties.customer,
     job: parties.job,
     currency: p.currency,
-    description: p.kind === 'balance' ? `Payment towards invoice ${invoice?.number ?? ''}`.trim() : 'Deposit',
+    description: p.kind === 'balance' ? `Payment towards invoice ${invoice?.number ?? ''}`.trim() : deposit ? `Deposit: ${deposit.reason}` : 'Deposit',
     amount: p.amount,
-    vat: null,
+    vat: deposit && hasMix ? depositVat(p.id, p.amount, receivedOn, deposit.vatMix, p.currency) : null,
     method: PAYMENT_METHOD_LABELS[p.method],
-    invoiceNumber: invoice?.number ?? null,
-    notes: p.reference ? [`Your reference: ${p.reference}`] : [],
+    invoiceNumber: p.kind === 'balance' ? (invoice?.number ?? null) : null,
+    notes: [
+      ...(p.reference ? [`Your reference: ${p.reference}`] : []),
+      ...(p.kind === 'deposit' ? ['This deposit will be taken off the final invoice.'] : []),
+    ],
   };
 }

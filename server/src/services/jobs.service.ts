@@ -24,6 +24,8 @@ import { applyTemplate, ensureEstimate, unagreedQuoteLines } from './estimates.s
 import { decisionsToSee } from './approvals/repository.js';
 import { moveJob } from './job-state.js';
 import { releaseBlockers } from './findings.service.js';
+import { cancelWaitingDepositsOfJob } from './deposits.service.js';
+import type { Deps } from './deps.js';
 
 type JobListQuery = z.output<typeof jobListQuerySchema>;
 type JobUpdate = z.output<typeof jobUpdateSchema>;
@@ -178,7 +180,7 @@ function mayMove(scope: Scope, from: JobState, to: JobState): boolean {
   return scope.role === 'engineer' && from === 'booked_in' && to === 'inspecting';
 }
 
-export async function transitionJob(scope: Scope, id: string, input: JobTransition): Promise<JobDto> {
+export async function transitionJob(deps: Deps, scope: Scope, id: string, input: JobTransition): Promise<JobDto> {
   requireStaff(scope);
   await inTransaction(async (t) => {
     const job = await findJob(scope, id, t, true);
@@ -198,6 +200,7 @@ export async function transitionJob(scope: Scope, id: string, input: JobTransiti
       if (!check.ok) throw new AppError('invalid_transition', 409, check.reason);
     }
     await moveJob(scope, job, input.to, input.reason ?? '', t);
+    if (input.to === 'cancelled') await cancelWaitingDepositsOfJob(deps, scope, job.id, t);
   });
   return getJob(scope, id);
 }
