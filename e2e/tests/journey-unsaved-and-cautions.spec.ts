@@ -71,7 +71,8 @@ test('at 375 px: the engineer starts in the Hangar with the cautions, the owner 
     const page = await ctx.newPage();
     await signIn(page, 'priya@brackenfold.example');
     await expect(page).toHaveURL(/\/hangar$/);
-    await page.getByRole('link', { name: /Q-BRKA.*Annual permit inspection/ }).click();
+    // The seeded permit inspection (the payment journey books another on the same aircraft).
+    await page.getByRole('link', { name: /Q-BRKA.*Annual permit inspection/ }).filter({ hasNotText: 'payment journey' }).click();
     const cautions = page.getByTestId('job-cautions');
     await expect(cautions.getByRole('heading', { name: 'Cautions for this job' })).toBeVisible();
     await expect(cautions).toContainText('Treat the propeller as live');
