@@ -27,6 +27,7 @@ import type { Deps } from './deps.js';
 import { creditInvoiceIfCleared, partiesOf, supplierOf, takeNumber, ukDate } from './invoices.service.js';
 import { lockJob } from './job-access.js';
 import { requireStaff, type Scope } from './scope.js';
+import { scopedMoneyFilter } from './list-helpers.js';
 
 /** A bind parameter's placeholder in SQL text: $1, $2, … */
 const arg = (n: number) => '$' + String(n);
@@ -54,12 +55,7 @@ interface CreditRow {
 }
 
 async function creditRows(scope: Scope, where: string[], bind: unknown[], page?: { limit: number; offset: number }): Promise<CreditRow[]> {
-  const conds = ['cn.workshop_id = $1', ...where];
-  const params: unknown[] = [scope.workshopId, ...bind];
-  if (scope.role === 'owner') {
-    params.push(scope.customerId);
-    conds.push(`a.customer_id = ${arg(params.length)}`);
-  }
+  const { conds, params } = scopedMoneyFilter(scope, 'cn.workshop_id', where, bind);
   const paging = page ? ` LIMIT ${page.limit} OFFSET ${page.offset}` : '';
   return boundSequelize().query<CreditRow>(
     `SELECT cn.id, cn.number, cn.invoice_id, i.number AS invoice_number, cn.job_id, j.number AS job_number, c.name AS customer_name,

@@ -41,6 +41,7 @@ import { moveJob } from './job-state.js';
 import { pricingOf } from './pricing.js';
 import { requireStaff, type Scope } from './scope.js';
 import { creditNoteSummaries } from './credit-notes.service.js';
+import { scopedMoneyFilter } from './list-helpers.js';
 
 type IssueInput = z.output<typeof invoiceIssueSchema>;
 /** A bind parameter's placeholder in SQL text: $1, $2, … */
@@ -249,12 +250,7 @@ interface InvoiceRow {
 
 /** Invoices the scope may see: staff their workshop's, an owner only those of their own aircraft. */
 async function invoiceRows(scope: Scope, where: string[], bind: unknown[], page?: { limit: number; offset: number }): Promise<InvoiceRow[]> {
-  const conds = ['i.workshop_id = $1', ...where];
-  const params: unknown[] = [scope.workshopId, ...bind];
-  if (scope.role === 'owner') {
-    params.push(scope.customerId);
-    conds.push(`a.customer_id = ${arg(params.length)}`);
-  }
+  const { conds, params } = scopedMoneyFilter(scope, 'i.workshop_id', where, bind);
   const paging = page ? ` LIMIT ${page.limit} OFFSET ${page.offset}` : '';
   return boundSequelize().query<InvoiceRow>(
     `SELECT i.id, i.number, i.job_id, j.number AS job_number, a.registration, a.customer_id, c.name AS customer_name, i.state, i.issued_at,
