@@ -1,3 +1,14 @@
+/**
+ * Dates as people read them in Wingstage, written by one set of functions on the server (first
+ * views, e-mails, documents) and in the browser alike, so a page never reads differently on a
+ * phone set to another time zone than on the server that drew it.
+ *
+ * A moment (a timestamp) is shown on the workshop's clock. Every workshop Wingstage serves today
+ * keeps UK time (VAT invoices, GBP), so the workshop's clock is Europe/London, Greenwich Mean Time
+ * in winter and British Summer Time in summer; a workshop elsewhere would need a setting of its own.
+ */
+export const WORKSHOP_TIME_ZONE = 'Europe/London';
+
 const CALENDAR_DAY = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
 
 /**
@@ -8,4 +19,56 @@ export function formatCalendarDate(iso: string): string {
   const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(iso);
   if (!m) return iso;
   return CALENDAR_DAY.format(new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]))));
+}
+
+/**
+ * How much of a moment to write:
+ * - `date`: "2 Dec 2026" (the day it fell on, on the workshop's clock);
+ * - `day-month`: "2 Dec" (for a sentence where the year goes without saying);
+ * - `date-time`: "2 Dec 2026, 14:03" (pages);
+ * - `long`: "2 December 2026, 14:03" (e-mails);
+ * - `long-zone`: "2 December 2026, 14:03 GMT" (documents, which are kept and read later).
+ */
+export type MomentStyle = 'date' | 'day-month' | 'date-time' | 'long' | 'long-zone';
+
+const STYLES: Record<MomentStyle, Intl.DateTimeFormatOptions> = {
+  date: { day: 'numeric', month: 'short', year: 'numeric' },
+  'day-month': { day: 'numeric', month: 'short' },
+  'date-time': { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' },
+  long: { day: 'numeric', month: 'long', year: 'numeric', hour: '2-digit', minute: '2-digit' },
+  'long-zone': { day: 'numeric', month: 'long', year: 'numeric', hour: '2-digit', minute: '2-digit', timeZoneName: 'short' },
+};
+
+// Building a formatter is the slow part of Intl: one per style and zone, made on first use.
+const formatters = new Map<string, Intl.DateTimeFormat>();
+function formatterFor(style: MomentStyle, timeZone: string): Intl.DateTimeFormat {
+  const key = `${style}|${timeZone}`;
+  let f = formatters.get(key);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-GB', { ...STYLES[style], timeZone });
+    formatters.set(key, f);
+  }
+  return f;
+}
+
+/**
+ * A moment on the workshop's clock, whatever the clock of the machine that writes it:
+ * `2026-07-01T13:03:00Z` → "1 Jul 2026, 14:03" (British Summer Time). An ISO string that is not a
+ * moment comes back as given.
+ */
+export function formatMoment(at: Date | string, style: MomentStyle = 'date-time', timeZone: string = WORKSHOP_TIME_ZONE): string {
+  const d = typeof at === 'string' ? new Date(at) : at;
+  if (Number.isNaN(d.getTime())) return typeof at === 'string' ? at : '';
+  return formatterFor(style, timeZone).format(d);
+}
+
+const ISO_DAY = new Map<string, Intl.DateTimeFormat>();
+/** The calendar date a moment falls on, on the workshop's clock, as `YYYY-MM-DD`. */
+export function calendarDateOf(at: Date, timeZone: string = WORKSHOP_TIME_ZONE): string {
+  let f = ISO_DAY.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' });
+    ISO_DAY.set(timeZone, f);
+  }
+  return f.format(at);
 }

@@ -3,24 +3,23 @@
  * currency's minor unit), the same one the e-mails and history use; re-exported so pages keep one
  * import for display helpers.
  */
-import { formatCalendarDate } from '@wingstage/shared';
+import { formatCalendarDate, formatMoment } from '@wingstage/shared';
 
 export { formatMoney, type MoneyFormatOptions } from '@wingstage/shared';
 
-const dateFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
-const dateTimeFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
-
-/** `2026-12-01` (a calendar date) → "1 Dec 2026", read as a local date so it never shifts a day. */
+/**
+ * `2026-12-01` (a calendar date) → "1 Dec 2026", never shifted a day; a moment → the day it fell
+ * on, on the workshop's clock (shared's `formatMoment`, the same on the server's first view).
+ */
 export function formatDate(iso: string | null | undefined): string {
   if (!iso) return '—';
   if (/^\d{4}-\d{2}-\d{2}$/.test(iso)) return formatCalendarDate(iso);
-  const d = new Date(iso);
-  return Number.isNaN(d.getTime()) ? iso : dateFmt.format(d);
+  return formatMoment(iso, 'date');
 }
 
+/** A moment on the workshop's clock, whatever the device's: "2 Dec 2026, 14:03". */
 export function formatDateTime(iso: string): string {
-  const d = new Date(iso);
-  return Number.isNaN(d.getTime()) ? iso : dateTimeFmt.format(d);
+  return formatMoment(iso, 'date-time');
 }
 
 export function todayIso(now = new Date()): string {

@@ -25,9 +25,14 @@ export async function expectLoaded(img: Locator): Promise<void> {
   await expect.poll(() => img.evaluate((el) => (el as HTMLImageElement).complete && (el as HTMLImageElement).naturalWidth)).toBeGreaterThan(0);
 }
 
-export async function context(browser: Browser, baseURL: string | undefined, phone: boolean, opts: { deviceScaleFactor?: number } = {}): Promise<BrowserContext> {
+export async function context(
+  browser: Browser,
+  baseURL: string | undefined,
+  phone: boolean,
+  opts: { deviceScaleFactor?: number; timezoneId?: string } = {},
+): Promise<BrowserContext> {
   const size = phone ? PHONE : DESKTOP;
-  return browser.newContext({ baseURL, viewport: size, isMobile: phone, hasTouch: phone, deviceScaleFactor: opts.deviceScaleFactor, locale: 'en-GB', timezoneId: 'Europe/London' });
+  return browser.newContext({ baseURL, viewport: size, isMobile: phone, hasTouch: phone, deviceScaleFactor: opts.deviceScaleFactor, locale: 'en-GB', timezoneId: opts.timezoneId ?? 'Europe/London' });
 }
 
 export async function signIn(page: Page, email: string, password = PASSWORD): Promise<void> {

@@ -1,8 +1,8 @@
-import { formatMoney, FINDING_CATEGORY_LABELS, QUOTE_ITEM_ID, priceChoice, TOTAL_NAMES, workshopContactWords, type ApprovalSnapshot, type Decision, type PricedChoice } from '@wingstage/shared';
+import { formatMoment, formatMoney, FINDING_CATEGORY_LABELS, QUOTE_ITEM_ID, priceChoice, TOTAL_NAMES, workshopContactWords, type ApprovalSnapshot, type Decision, type PricedChoice } from '@wingstage/shared';
 import type { MailMessage } from './mail-queue.js';
 
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
-const when = (d: Date) => d.toLocaleString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', hour: '2-digit', minute: '2-digit', timeZone: 'Europe/London' });
+const when = (d: Date) => formatMoment(d, 'long');
 
 function build(to: string, subject: string, paragraphs: string[], link: { href: string; label: string } | null): MailMessage {
   const body = paragraphs.map((p) => `<p style="margin:0 0 14px">${esc(p)}</p>`).join('');

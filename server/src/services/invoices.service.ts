@@ -28,6 +28,7 @@ import {
   type invoiceIssueSchema,
   type invoiceListQuerySchema,
   type offlinePaymentSchema,
+  calendarDateOf,
 } from '@wingstage/shared';
 import { AppError, conflict, notFound } from '../errors/app-error.js';
 import { Aircraft, Customer, DepositRequest, Finding, Invoice, Payment, Workshop, boundSequelize } from '../models/index.js';
@@ -50,11 +51,9 @@ const arg = (n: number) => '$' + String(n);
 type ListQuery = z.output<typeof invoiceListQuerySchema>;
 type OfflineInput = z.output<typeof offlinePaymentSchema>;
 
-const LONDON = new Intl.DateTimeFormat('en-CA', { timeZone: 'Europe/London', year: 'numeric', month: '2-digit', day: '2-digit' });
-
 /** The calendar date in the UK (VAT dates are UK dates), as YYYY-MM-DD. */
 export function ukDate(d: Date): string {
-  return LONDON.format(d);
+  return calendarDateOf(d, 'Europe/London');
 }
 
 export function addDays(iso: string, days: number): string {

@@ -2,7 +2,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { ComponentProps, ReactNode } from 'react';
 import { Document, Font, Page, StyleSheet, Text, View } from '@react-pdf/renderer';
-import { formatMoney } from '@wingstage/shared';
+import { formatMoment, formatMoney } from '@wingstage/shared';
 
 /*
  * The pieces every Wingstage document is made of: the shipped font, an A4 page with the workshop at
@@ -76,15 +76,6 @@ export const s = StyleSheet.create({
 // ---- words for dates and money ----
 
 const DAY = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
-const MOMENT = new Intl.DateTimeFormat('en-GB', {
-  day: 'numeric',
-  month: 'long',
-  year: 'numeric',
-  hour: '2-digit',
-  minute: '2-digit',
-  timeZone: 'Europe/London',
-  timeZoneName: 'short',
-});
 
 /** "2026-12-02" → "2 December 2026" (a calendar date: no time zone moves it). */
 export function day(iso: string): string {
@@ -95,8 +86,7 @@ export function day(iso: string): string {
 
 /** A moment as the workshop's clock shows it: "2 December 2026 at 14:03 GMT". */
 export function moment(at: Date | string): string {
-  const d = typeof at === 'string' ? new Date(at) : at;
-  return MOMENT.format(d).replace(', ', ' at ');
+  return formatMoment(at, 'long-zone').replace(', ', ' at ');
 }
 
 export const money = (amount: string, currency: string) => formatMoney(amount, currency);

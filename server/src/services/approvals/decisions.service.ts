@@ -10,6 +10,7 @@ import {
   type DecisionPageDto,
   type JobDto,
   type decisionSubmitSchema,
+  formatMoment,
 } from '@wingstage/shared';
 import { AppError, conflict } from '../../errors/app-error.js';
 import { approvalReceiptMail, decisionToStaffMail } from '../../mail/approval-mails.js';
@@ -30,7 +31,7 @@ import { inTransaction } from '../../db/transaction.js';
 
 type DecisionInput = z.output<typeof decisionSubmitSchema>;
 
-const day = (d: Date) => d.toLocaleDateString('en-GB', { day: 'numeric', month: 'short', timeZone: 'UTC' });
+const day = (d: Date) => formatMoment(d, 'day-month');
 
 function closedReason(r: ApprovalRequest): string | null {
   const contact = workshopContactWords(r.snapshot);
