@@ -49,7 +49,9 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
   const since = Date.now();
 
   const manager = await signedIn(browser, baseURL, 'manager@brackenfold.example');
-  const owner = await context(browser, baseURL, true, { deviceScaleFactor: 2 });
+  // The owner's phone keeps another clock than the server (UTC) and the workshop (UK time): the
+  // page's dates still read on the workshop's clock, the same in the server's HTML and once hydrated.
+  const owner = await context(browser, baseURL, true, { deviceScaleFactor: 2, timezoneId: 'America/New_York' });
   const phone = await owner.newPage();
   const bar = phone.getByTestId('running-total');
   const total = (which: string) => bar.locator(`[data-total="${which}"]`);
@@ -117,11 +119,14 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
       if (r.request().resourceType() === 'script') scripts.add(new URL(r.url()).pathname);
       if (/^\/api\/decide\/[\w-]+$/.test(new URL(r.url()).pathname)) asked.push(r.url());
     });
-    phone.on('console', (m) => void (m.type() === 'error' && problems.push(m.text())));
+    phone.on('console', (m) => void ((m.type() === 'error' || /hydrat/i.test(m.text())) && problems.push(m.text())));
+    phone.on('pageerror', (e) => void problems.push(e.message));
     // The first view comes in the HTML, rendered on the server: the letter and the first finding
     // are there before any script runs.
-    const html = await (await phone.request.get(first)).text();
-    expect(html.replace(/<!-- -->/g, '')).toContain('Finding 1 of 2');
+    const html = (await (await phone.request.get(first)).text()).replace(/<!-- -->/g, '');
+    expect(html).toContain('Finding 1 of 2');
+    const servedUntil = /This link works until ([^<]+)\./.exec(html)?.[1];
+    expect(servedUntil).toMatch(/^\d{1,2} [A-Z][a-z]{2} \d{4}, \d{2}:\d{2}$/);
     const answer = await phone.goto(first);
     expect(answer?.status()).toBe(200);
     await expect(phone.getByText('Finding 1 of 2')).toBeVisible();
@@ -129,6 +134,9 @@ test('the owner’s link follows what the manager does: revoked, re-sent, decide
     // the data again, and without a mismatch to complain of.
     await expect.poll(() => phone.locator('main h1').evaluate((h) => Object.keys(h).some((k) => k.startsWith('__react')))).toBe(true);
     expect(asked, 'the page asked the API for data it already had').toEqual([]);
+    // The hydrated page shows the date the server wrote, though the phone's clock is five hours behind.
+    await expect(phone.getByText(/^This link works until /)).toHaveText(`This link works until ${servedUntil}.`);
+    expect(await phone.evaluate(() => Intl.DateTimeFormat().resolvedOptions().timeZone)).toBe('America/New_York');
     expect(problems, problems.join('\n')).toEqual([]);
     // The page's own entry: not the app with its router and shell.
     expect([...scripts].some((s) => /\/assets\/main-/.test(s)), [...scripts].join(' ')).toBe(false);

@@ -1,5 +1,7 @@
 import { priceChoice, QUOTE_ITEM_ID, STAFF_ONLY_WORDS, type ApprovalSnapshot, type ChoiceBasis, type ChoiceLine, type DecisionPageDto, type VatRounding } from '@wingstage/shared';
 import { act, fireEvent, render, screen, within } from '@testing-library/react';
+import { hydrateRoot } from 'react-dom/client';
+import { renderToString } from 'react-dom/server';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { ApiError } from '@/lib/api-client';
 import { DecisionPage, UnknownLink } from './decision-page';
@@ -154,6 +156,9 @@ describe('DecisionPage', () => {
     expect(total('approving-now')).toBe('£0.00');
     // Everything if approved: 60 + 30 + 12 + 18.
     expect(total('undecided')).toBe('£120.00');
+    // Nothing chosen yet: no new total to show.
+    expect(total('new-total')).toBe('Shown once you choose');
+    choose('Decline');
     expect(total('new-total')).toBe('£600.00');
   });
 
@@ -323,6 +328,9 @@ describe('DecisionPage with the quote in the request', () => {
     // £372.00 net + 20% = £446.40.
     expect(within(screen.getByTestId('decide-price')).getByText('£446.40 incl. VAT')).toBeTruthy();
     expect(total('agreed-so-far')).toBe('£0.00');
+    // Before the owner has chosen anything there is no new total: never "£0.00" beside a quote of £446.40.
+    expect(total('new-total')).toBe('Shown once you choose');
+    expect(screen.getByTestId('running-total').textContent).not.toContain('New total, incl. VAT £0.00');
     choose('Accept');
     expect(total('approving-now')).toBe('£446.40');
     expect(total('new-total')).toBe('£446.40');
@@ -454,6 +462,31 @@ describe('DecisionPage opened with an older link of a re-sent request', () => {
     expect(screen.queryByRole('radio')).toBeNull();
     expect(screen.queryByRole('img')).toBeNull();
     expect(screen.queryByTestId('running-total')).toBeNull();
+  });
+});
+
+describe('DecisionPage sent as the server’s first view', () => {
+  it('when the markup arrives before React owns it, then its choices cannot be ticked; once hydrated they can, and a choice counts and is kept', async () => {
+    const tree = <DecisionPage token={TOKEN} page={page()} onSubmit={vi.fn()} />;
+    const html = renderToString(tree);
+    const host = document.createElement('div');
+    host.innerHTML = html;
+    document.body.append(host);
+    const approve = host.querySelector<HTMLInputElement>('input[type="radio"][value="approve"]')!;
+    // A tick on the server's markup would show on screen but never reach the page: it is held off.
+    expect(approve.matches(':disabled')).toBe(true);
+    const problems: unknown[] = [];
+    await act(async () => {
+      hydrateRoot(host, tree, { onRecoverableError: (e) => problems.push(e) });
+    });
+    expect(problems).toEqual([]);
+    // React kept the server's elements (no fresh render) and let them go.
+    expect(host.querySelector('input[type="radio"][value="approve"]')).toBe(approve);
+    expect(approve.matches(':disabled')).toBe(false);
+    fireEvent.click(approve);
+    expect(within(host).getByText(/./, { selector: '[data-total="approving-now"]' }).textContent).toBe('£78.00');
+    expect(localStorage.getItem(`wingstage.decision-draft.${snapshot().requestId}`)).toContain('"approve"');
+    host.remove();
   });
 });
 

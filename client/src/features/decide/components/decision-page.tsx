@@ -12,7 +12,7 @@ import {
   type DecisionPageDto,
   type PricedChoice,
 } from '@wingstage/shared';
-import { useEffect, useId, useMemo, useRef, useState, type ComponentProps, type ReactNode } from 'react';
+import { useEffect, useId, useMemo, useRef, useState, useSyncExternalStore, type ComponentProps, type ReactNode } from 'react';
 import { ApprovalRequestBadge } from '@/components/ui/approval-badges';
 import { Button as BaseButton } from '@/components/ui/button';
 import { CategoryBadge } from '@/components/ui/finding-badges';
@@ -24,6 +24,21 @@ import { clearDraft, deviceStorage, DRAFT_DISCARD_WORDS, readDraft, saveDraft, t
 import { choiceOf, declinedAirworthinessWords, declinedQuoteWords, itemsOf, openingUpWords, type Choices, type PageItem, type SnapshotFinding, type SnapshotQuote } from '../items';
 import { FindingPhotos } from './finding-photos';
 import { DecisionDepositsNote } from './decision-deposits';
+
+const noSubscription = () => () => {};
+/**
+ * False while the page is the server's first view (its HTML, and React taking it over); true once
+ * React draws it in the browser. A choice made on the server's markup before React owns it would
+ * tick the box on screen and never reach the page's state, so it would be neither counted nor kept
+ * on the device: until then the choices are shown but cannot be changed (a moment on a slow phone).
+ */
+function useLive(): boolean {
+  return useSyncExternalStore(
+    noSubscription,
+    () => true,
+    () => false,
+  );
+}
 
 /** The owner's pages use the 44 px size throughout. */
 const Button = (props: ComponentProps<typeof BaseButton>) => <BaseButton size="lg" {...props} />;
@@ -178,6 +193,7 @@ function Deciding({
   const [nameError, setNameError] = useState<string | null>(null);
   const [problem, setProblem] = useState<{ message: string; reload: boolean } | null>(null);
   const topRef = useRef<HTMLDivElement>(null);
+  const live = useLive();
   const reviewing = step >= items.length;
   const priced = priceChoice(s.basis, choiceOf(items, choices));
 
@@ -231,6 +247,8 @@ function Deciding({
         </p>
       ) : null}
 
+      {/* The owner's controls, held until React owns them (see useLive); `contents`: no box of its own. */}
+      <fieldset disabled={!live} aria-busy={!live} className="contents">
       {reviewing || !item ? (
         <Review
           s={s}
@@ -265,6 +283,7 @@ function Deciding({
           returnToReview={returnToReview}
         />
       )}
+      </fieldset>
 
       <RunningTotalBar currency={s.currency} priced={priced} />
     </div>
@@ -741,7 +760,15 @@ function RunningTotalBar({ currency, priced: p }: { currency: string; priced: Pr
           <span className="text-slate-soft">{TOTAL_NAMES.undecidedOwner}, if approved</span> <span data-total="undecided">{m(p.undecidedGross)}</span>
         </p>
         <p className="col-span-2 flex justify-between gap-2 border-t border-seam pt-1 text-base font-bold">
-          <span>New total, incl. VAT</span> <span data-total="new-total">{m(p.newTotal.gross)}</span>
+          <span>New total, incl. VAT</span>{' '}
+          {/* Before any choice there is no new total to show: "£0.00" would read as a price. */}
+          {p.chosen === 0 ? (
+            <span data-total="new-total" data-total-pending="true" className="font-normal text-slate-soft">
+              Shown once you choose
+            </span>
+          ) : (
+            <span data-total="new-total">{m(p.newTotal.gross)}</span>
+          )}
         </p>
       </div>
       <p className="mx-auto max-w-xl text-xs text-slate-soft">All figures include VAT.</p>
