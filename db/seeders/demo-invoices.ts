@@ -1,5 +1,5 @@
 import type { Transaction } from 'sequelize';
-import { AuditEvent, DepositRequest, Payment, type User, type Workshop } from '../../server/src/models/index.js';
+import { AuditEvent, CreditNote, DepositRequest, Invoice, Payment, type User, type Workshop } from '../../server/src/models/index.js';
 import { jobMoney } from '../../server/src/payments/job-balance.js';
 import { issueGoodwillCreditNoteIn } from '../../server/src/services/credit-notes.service.js';
 import { issueInvoiceIn, recordOfflinePaymentIn } from '../../server/src/services/invoices.service.js';
@@ -56,4 +56,8 @@ export async function seedInvoices(w: Workshop, jobs: SeededJob[], staff: Map<st
       await recordOfflinePaymentIn(accounts, hoses.job.id, { amount: money.due, method: 'bank_transfer', receivedOn: iso(now), reference: 'BRKE HOSES' }, t);
     }
   }
+  // The demo's documents count as mailed when they were issued (the demo sends no e-mail for its
+  // history); otherwise the app's sweep of unmailed documents would mail them at its first start.
+  await Invoice.update({ mailedAt: now }, { where: { workshopId: w.id, mailedAt: null }, transaction: t });
+  await CreditNote.update({ mailedAt: now }, { where: { workshopId: w.id, mailedAt: null }, transaction: t });
 }

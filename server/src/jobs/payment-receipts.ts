@@ -1,12 +1,12 @@
-import { renderReceiptPdf } from '../documents/index.js';
-import { receiptMail, sendCreditNoteMail, sendInvoiceMail } from '../mail/invoice-mails.js';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { renderCreditNotePdf, renderInvoicePdf, renderReceiptPdf } from '../documents/index.js';
+import { creditNoteMail, invoiceMail, receiptMail } from '../mail/invoice-mails.js';
 import type { MailQueue } from '../mail/mail-queue.js';
-import { CreditNote, Invoice, Job, Payment } from '../models/index.js';
+import { CreditNote, Invoice, Job, Payment, boundSequelize } from '../models/index.js';
 import { inTransaction } from '../db/transaction.js';
 import { lockJobById } from '../services/job-access.js';
 import { receiptDocument } from '../services/invoices.service.js';
 import type { Deps } from '../services/deps.js';
-import type { Transaction } from 'sequelize';
 
 export const RECEIPT_TASK = 'receipt';
 
@@ -44,21 +44,76 @@ export async function sendPaymentReceipt(deps: Pick<Deps, 'mail' | 'logger'>, pa
 }
 
 export const DOCUMENT_MAIL_TASK = 'document-mail';
-type DocumentMailTask = { kind: 'invoice' | 'credit_note'; id: string };
+export const DOCUMENT_SWEEP_TASK = 'document-mail-sweep';
+export type DocumentMailTask = { kind: 'invoice' | 'credit_note'; id: string };
 
-/** Queued once an invoice or credit note is committed: the worker renders its PDF and queues the owner's e-mail. */
+/**
+ * Queued once an invoice or credit note is committed: the worker renders its PDF and queues the
+ * owner's e-mail. Should the process stop between the commit and this call, the sweep
+ * (`sweepUnmailedDocuments`) finds the document by its empty `mailed_at` and queues it then.
+ */
 export async function queueDocumentMail(deps: Pick<Deps, 'mail'>, task: DocumentMailTask): Promise<void> {
   await deps.mail.enqueueTask(DOCUMENT_MAIL_TASK, task);
 }
 
-async function sendDocumentMail(deps: Pick<Deps, 'mail' | 'logger'>, task: DocumentMailTask): Promise<void> {
-  if (task.kind === 'invoice') {
-    const inv = await Invoice.findByPk(task.id, { attributes: ['id', 'document'] });
-    if (inv) await sendInvoiceMail(deps, inv.document);
-  } else {
-    const cn = await CreditNote.findByPk(task.id, { attributes: ['id', 'document'] });
-    if (cn) await sendCreditNoteMail(deps, cn.document);
-  }
+const DOCUMENT_TABLE = { invoice: 'invoices', credit_note: 'credit_notes' } as const;
+
+/**
+ * The owner's e-mail for an issued invoice or credit note, with its PDF. Idempotent, as receipts are:
+ * the row's `mailed_at` is set in the same transaction that queues the e-mail, and only when it was
+ * still empty, so a task that runs twice (a retry, the sweep beside the first task) sends one e-mail.
+ * A rendering failure throws: the queue tries again later, and the sweep after that.
+ */
+export async function sendDocumentMail(deps: Pick<Deps, 'mail' | 'logger'>, task: DocumentMailTask): Promise<'sent' | 'already' | 'no-email' | 'gone'> {
+  const row =
+    task.kind === 'invoice'
+      ? await Invoice.findByPk(task.id, { attributes: ['id', 'jobId', 'document', 'mailedAt'] })
+      : await CreditNote.findByPk(task.id, { attributes: ['id', 'jobId', 'document', 'mailedAt'] });
+  if (!row) return 'gone';
+  if (row.mailedAt) return 'already';
+  // Rendered outside any transaction: a PDF takes far longer than a row lock should be held.
+  const msg =
+    row instanceof Invoice
+      ? row.document.customer.email
+        ? invoiceMail(row.document, await renderInvoicePdf(row.document))
+        : null
+      : row.document.customer.email
+        ? creditNoteMail(row.document, await renderCreditNotePdf(row.document))
+        : null;
+  return inTransaction(async (t) => {
+    await lockJobById(row.jobId, t);
+    // Claims the e-mail: a second task waits on the row, then finds it already set.
+    const [claimed] = (await boundSequelize().query(`UPDATE ${DOCUMENT_TABLE[task.kind]} SET mailed_at = now() WHERE id = $1 AND mailed_at IS NULL RETURNING id`, {
+      bind: [task.id],
+      transaction: t,
+      type: QueryTypes.SELECT,
+    })) as unknown[];
+    if (!claimed) return 'already';
+    if (msg) await deps.mail.enqueue(msg, t);
+    else deps.logger.info({ ...task }, 'document not e-mailed: the owner has no e-mail address');
+    return msg ? 'sent' : 'no-email';
+  });
+}
+
+/**
+ * Queues the e-mail of every invoice and credit note issued at least `olderThanMs` ago and not yet
+ * mailed (at most `limit` a run; one workshop's when `workshopId` is given). Run on a schedule; the tasks it queues are the usual idempotent ones.
+ */
+export async function sweepUnmailedDocuments(
+  deps: Pick<Deps, 'mail'>,
+  { olderThanMs = 5 * 60_000, limit = 200, workshopId = null }: { olderThanMs?: number; limit?: number; workshopId?: string | null } = {},
+): Promise<number> {
+  const rows = await boundSequelize().query<{ kind: DocumentMailTask['kind']; id: string }>(
+    `(SELECT 'invoice' AS kind, id, issued_at FROM invoices
+       WHERE mailed_at IS NULL AND issued_at <= now() - make_interval(secs => $1) AND ($3::uuid IS NULL OR workshop_id = $3))
+     UNION ALL
+     (SELECT 'credit_note' AS kind, id, issued_at FROM credit_notes
+       WHERE mailed_at IS NULL AND issued_at <= now() - make_interval(secs => $1) AND ($3::uuid IS NULL OR workshop_id = $3))
+     ORDER BY issued_at LIMIT $2`,
+    { bind: [olderThanMs / 1000, limit, workshopId], type: QueryTypes.SELECT },
+  );
+  for (const r of rows) await queueDocumentMail(deps, { kind: r.kind, id: r.id });
+  return rows.length;
 }
 
 /** Starts the receipt and document workers on the mail queue's connection (their queues exist even where no worker runs). */
@@ -67,5 +122,14 @@ export async function startReceiptTasks(deps: Pick<Deps, 'mail' | 'logger'> & { 
     const outcome = await sendPaymentReceipt(deps, paymentId);
     deps.logger.info({ paymentId, outcome }, 'payment receipt');
   });
-  await deps.mail.workTask<DocumentMailTask>(DOCUMENT_MAIL_TASK, (task) => sendDocumentMail(deps, task));
+  await deps.mail.workTask<DocumentMailTask>(DOCUMENT_MAIL_TASK, async (task) => {
+    const outcome = await sendDocumentMail(deps, task);
+    deps.logger.info({ ...task, outcome }, 'document e-mail');
+  });
+  // Every ten minutes, one process at a time: documents whose task was lost with a stopped process.
+  await deps.mail.scheduleTask(DOCUMENT_SWEEP_TASK, '*/10 * * * *');
+  await deps.mail.workTask<object>(DOCUMENT_SWEEP_TASK, async () => {
+    const queued = await sweepUnmailedDocuments(deps);
+    if (queued) deps.logger.warn({ queued }, 'documents issued but not yet mailed: queued again');
+  });
 }

@@ -1,6 +1,4 @@
 import { formatCalendarDate, formatMoney, sumAmounts, type CreditNoteDocument, type InvoiceDocument, type ReceiptDocument } from '@wingstage/shared';
-import { renderCreditNotePdf, renderInvoicePdf } from '../documents/index.js';
-import type { Deps } from '../services/deps.js';
 import type { MailMessage } from './mail-queue.js';
 
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
@@ -66,21 +64,3 @@ export function receiptMail(doc: ReceiptDocument, pdf: Buffer): MailMessage | nu
     { filename: `receipt-${doc.paymentId.slice(0, 8)}.pdf`, bytes: pdf },
   );
 }
-
-/**
- * Renders the document and queues the e-mail (run by the document-mail task, after the document is committed): the document stands
- * whether or not the e-mail goes; a rendering failure is logged, never turned into a failed request.
- */
-async function send(deps: Pick<Deps, 'mail' | 'logger'>, what: string, make: () => Promise<MailMessage | null>): Promise<void> {
-  try {
-    const msg = await make();
-    if (msg) await deps.mail.enqueue(msg);
-  } catch (err) {
-    deps.logger.error({ err, what }, 'document e-mail not sent');
-  }
-}
-
-export const sendInvoiceMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: InvoiceDocument) =>
-  send(deps, `invoice ${doc.number}`, async () => invoiceMail(doc, await renderInvoicePdf(doc)));
-export const sendCreditNoteMail = (deps: Pick<Deps, 'mail' | 'logger'>, doc: CreditNoteDocument) =>
-  send(deps, `credit note ${doc.number}`, async () => creditNoteMail(doc, await renderCreditNotePdf(doc)));

@@ -128,6 +128,17 @@ export class MailQueue {
     return this.boss.send(this.taskQueue(task), data, { ...this.retry, db: onConnection(transaction) });
   }
 
+  /**
+   * A task run on a schedule (cron, UTC): pg-boss queues one job per tick whatever the number of
+   * processes, and the queue holds at most one waiting, so a slow run never piles up behind itself.
+   */
+  async scheduleTask(task: string, cron: string): Promise<void> {
+    if (!this.started) throw new Error('The mail queue is not started.');
+    const name = this.taskQueue(task);
+    await bossSetUp(() => this.boss.createQueue(name, { name, policy: 'singleton', retryLimit: 1, expireInMinutes: 10 }));
+    await bossSetUp(() => this.boss.schedule(name, cron, {}, { tz: 'UTC' }));
+  }
+
   /** Runs a task's worker in this process (when it runs the mail worker); the handler must be idempotent. */
   async workTask<T extends object>(task: string, handler: (data: T) => Promise<void>): Promise<void> {
     if (!this.started) throw new Error('The mail queue is not started.');

@@ -17,6 +17,8 @@ export class CreditNote extends Model<InferAttributes<CreditNote>, InferCreation
   declare gross: string;
   declare document: CreditNoteDocument;
   declare issuedBy: CreationOptional<string | null>;
+  /** When the owner's e-mail with the credit note was queued (set by the document-mail task only). */
+  declare mailedAt: CreationOptional<Date | null>;
 
   static initModel(sequelize: Sequelize) {
     CreditNote.init(
@@ -35,6 +37,7 @@ export class CreditNote extends Model<InferAttributes<CreditNote>, InferCreation
         gross: { type: DataTypes.DECIMAL(14, 2), allowNull: false },
         document: { type: DataTypes.JSONB, allowNull: false },
         issuedBy: { type: DataTypes.UUID, allowNull: true },
+        mailedAt: { type: DataTypes.DATE, allowNull: true },
       },
       { sequelize, tableName: 'credit_notes', timestamps: false },
     );

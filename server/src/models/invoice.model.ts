@@ -22,6 +22,8 @@ export class Invoice extends Model<InferAttributes<Invoice>, InferCreationAttrib
   declare document: InvoiceDocument;
   declare issuedBy: CreationOptional<string | null>;
   declare paidAt: CreationOptional<Date | null>;
+  /** When the owner's e-mail with the invoice was queued (set by the document-mail task only). */
+  declare mailedAt: CreationOptional<Date | null>;
   declare version: CreationOptional<number>;
 
   static initModel(sequelize: Sequelize) {
@@ -46,6 +48,7 @@ export class Invoice extends Model<InferAttributes<Invoice>, InferCreationAttrib
         document: { type: DataTypes.JSONB, allowNull: false },
         issuedBy: { type: DataTypes.UUID, allowNull: true },
         paidAt: { type: DataTypes.DATE, allowNull: true },
+        mailedAt: { type: DataTypes.DATE, allowNull: true },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       },
       { sequelize, tableName: 'invoices', timestamps: false, version: true },
