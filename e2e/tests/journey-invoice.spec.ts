@@ -70,11 +70,15 @@ test('@invoice the owner pays the invoice balance by card, accounts refunds part
   await form.getByRole('button', { name: 'Refund to the card' }).click();
   await expect(accounts.page.getByRole('region', { name: 'Credit notes' })).toContainText(/CN-\d{5}/);
   await shot(accounts.page, testInfo, 'accounts-refund-1280');
+  await accounts.page.setViewportSize({ width: 375, height: 812 });
+  await shot(accounts.page, testInfo, 'accounts-refund-375');
   await accounts.ctx.close();
 
   await owner.page.reload();
   const credit = owner.page.locator('[data-owner-credit-note]');
   await expect(credit).toContainText('£5.00 refunded to your card');
   await shot(owner.page, testInfo, 'owner-credit-note-375');
+  await owner.page.setViewportSize({ width: 1280, height: 800 });
+  await shot(owner.page, testInfo, 'owner-credit-note-1280');
   await owner.ctx.close();
 });

@@ -1,4 +1,4 @@
-import type { InvoiceDocument } from '@wingstage/shared';
+import type { InvoiceDocument, InvoiceDto } from '@wingstage/shared';
 import { formatDate, formatMoney } from '@/lib/format';
 
 const RATE_WORDS: Record<string, string> = { standard: 'Standard', reduced: 'Reduced', zero: 'Zero-rated', exempt: 'Exempt', outside: 'Outside the scope' };
@@ -97,5 +97,56 @@ export function InvoiceDocumentView({ doc, audience }: { doc: InvoiceDocument; a
         <li>{doc.roundingLabel}.</li>
       </ul>
     </div>
+  );
+}
+
+type InvoiceCreditNote = InvoiceDto['creditNotes'][number];
+
+/** One credit note in a line, with its PDF: the owner reads what it took off and why; staff the figures. */
+function CreditNoteLine({ cn, currency: c, audience }: { cn: InvoiceCreditNote; currency: string; audience: 'staff' | 'owner' }) {
+  if (audience === 'owner') {
+    return (
+      <li data-owner-credit-note={cn.number}>
+        <span className="tabular-nums">{cn.number}</span> of {formatDate(cn.issuedOn)}: {formatMoney(cn.gross, c)} off the invoice
+        {cn.refunded ? `, ${formatMoney(cn.refunded, c)} refunded to your card` : ''}. {cn.reason}.{' '}
+        <a href={`/api/credit-notes/${cn.id}/pdf`} download>
+          Download (PDF)
+        </a>
+      </li>
+    );
+  }
+  return (
+    <li>
+      <span className="tabular-nums">{cn.number}</span> · {formatDate(cn.issuedOn)} · {formatMoney(cn.gross, c)} incl. VAT {formatMoney(cn.vat, c)} ·{' '}
+      {cn.refunded ? `refunded ${formatMoney(cn.refunded, c)} to the card` : 'no refund'} · {cn.reason} · <a href={`/api/credit-notes/${cn.id}/pdf`}>PDF</a>
+    </li>
+  );
+}
+
+/**
+ * The credit notes against an issued invoice (nothing when there are none), and below them the
+ * invoice itself as issued, folded away: the foot of the invoice on the job page and the owner's.
+ */
+export function InvoiceCreditNotesAndDocument({ invoice, audience, headingLevel }: { invoice: InvoiceDto; audience: 'staff' | 'owner'; headingLevel: 'h3' | 'h5' }) {
+  const Heading = headingLevel;
+  return (
+    <>
+      {invoice.creditNotes.length ? (
+        <section aria-label="Credit notes" className="flex flex-col gap-1">
+          <Heading className="font-semibold">Credit notes</Heading>
+          <ul className={`flex flex-col gap-1${audience === 'staff' ? ' text-sm' : ''}`}>
+            {invoice.creditNotes.map((cn) => (
+              <CreditNoteLine key={cn.id} cn={cn} currency={invoice.currency} audience={audience} />
+            ))}
+          </ul>
+        </section>
+      ) : null}
+      <details>
+        <summary className={`cursor-pointer${audience === 'staff' ? ' font-semibold' : ''}`}>{audience === 'staff' ? 'The invoice as issued' : 'See the invoice here'}</summary>
+        <div className="mt-3">
+          <InvoiceDocumentView doc={invoice.document} audience={audience} />
+        </div>
+      </details>
+    </>
   );
 }

@@ -1,21 +1,10 @@
 import { formatMoment, formatMoney, FINDING_CATEGORY_LABELS, QUOTE_ITEM_ID, priceChoice, TOTAL_NAMES, workshopContactWords, type ApprovalSnapshot, type Decision, type PricedChoice } from '@wingstage/shared';
+import { framedMail } from './frame.js';
 import type { MailMessage } from './mail-queue.js';
 
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 const when = (d: Date) => formatMoment(d, 'long');
 
-function build(to: string, subject: string, paragraphs: string[], link: { href: string; label: string } | null): MailMessage {
-  const body = paragraphs.map((p) => `<p style="margin:0 0 14px">${esc(p)}</p>`).join('');
-  const linkHtml = link
-    ? `<p style="margin:0 0 14px"><a href="${esc(link.href)}" style="color:#1b4d8f">${esc(link.label)}</a></p><p style="margin:0;color:#4a5565;font-size:14px">If the link does not open, copy this address into your browser:</p><p style="margin:0;color:#4a5565;font-size:14px"><span style="word-break:break-all;overflow-wrap:anywhere">${esc(link.href)}</span></p>`
-    : '';
-  return {
-    to,
-    subject,
-    text: `${paragraphs.join('\n\n')}${link ? `\n\n${link.label}: ${link.href}` : ''}\n`,
-    html: `<!doctype html><html><body style="font-family:sans-serif;font-size:16px;line-height:1.5;color:#1d2430">${body}${linkHtml}</body></html>`,
-  };
-}
+const build = (to: string, subject: string, paragraphs: string[], link: { href: string; label: string } | null): MailMessage => framedMail(to, subject, paragraphs, { link });
 
 const aircraftLine = (s: ApprovalSnapshot) => `${s.registration} (${s.jobTitle}, job ${s.jobNumber})`;
 const contactOf = (s: ApprovalSnapshot) => workshopContactWords(s);

@@ -1,17 +1,9 @@
 import { formatCalendarDate, formatMoney, sumAmounts, type CreditNoteDocument, type InvoiceDocument, type ReceiptDocument } from '@wingstage/shared';
+import { framedMail } from './frame.js';
 import type { MailMessage } from './mail-queue.js';
 
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
-
-function build(to: string, subject: string, paragraphs: string[], pdf: { filename: string; bytes: Buffer }): MailMessage {
-  return {
-    to,
-    subject,
-    text: `${paragraphs.join('\n\n')}\n`,
-    html: `<!doctype html><html><body style="font-family:sans-serif;font-size:16px;line-height:1.5;color:#1d2430">${paragraphs.map((p) => `<p style="margin:0 0 14px">${esc(p)}</p>`).join('')}</body></html>`,
-    attachments: [{ filename: pdf.filename, contentType: 'application/pdf', contentBase64: pdf.bytes.toString('base64') }],
-  };
-}
+const build = (to: string, subject: string, paragraphs: string[], pdf: { filename: string; bytes: Buffer }): MailMessage =>
+  framedMail(to, subject, paragraphs, { attachments: [{ filename: pdf.filename, contentType: 'application/pdf', contentBase64: pdf.bytes.toString('base64') }] });
 
 const contact = (d: { supplier: { phone: string | null; email: string | null } }) =>
   [d.supplier.phone, d.supplier.email].filter(Boolean).length ? ` You can reach the workshop on ${[d.supplier.phone, d.supplier.email].filter(Boolean).join(' or ')}.` : '';

@@ -1,10 +1,11 @@
+import { escapeHtml, mailPage, mailParagraphs } from './frame.js';
 import type { MailMessage } from './mail-queue.js';
 
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
-
 function page(paragraphs: string[], link: { href: string; label: string }): string {
-  const body = paragraphs.map((p) => `<p style="margin:0 0 14px">${esc(p)}</p>`).join('');
-  return `<!doctype html><html><body style="font-family:sans-serif;font-size:16px;line-height:1.5;color:#1d2430">${body}<p style="margin:0 0 14px"><a href="${esc(link.href)}" style="color:#1b4d8f">${esc(link.label)}</a></p><p style="margin:0;color:#4a5565;font-size:14px">If the link does not open, copy this address into your browser:<br>${esc(link.href)}</p></body></html>`;
+  const esc = escapeHtml;
+  return mailPage(
+    `${mailParagraphs(paragraphs)}<p style="margin:0 0 14px"><a href="${esc(link.href)}" style="color:#1b4d8f">${esc(link.label)}</a></p><p style="margin:0;color:#4a5565;font-size:14px">If the link does not open, copy this address into your browser:<br>${esc(link.href)}</p>`,
+  );
 }
 
 export function invitationMail(p: { to: string; name: string; workshopName: string; inviterName: string; link: string; days: number }): MailMessage {

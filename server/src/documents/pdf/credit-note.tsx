@@ -1,6 +1,6 @@
-import { Text, View } from '@react-pdf/renderer';
+import { Text } from '@react-pdf/renderer';
 import type { CreditNoteDocument } from '@wingstage/shared';
-import { DocumentFrame, Facts, H2, Notice, P, Party, Sums, Table, day, money, s, type Row } from './kit.js';
+import { CustomerAndFacts, DocumentFrame, H2, Notice, P, Sums, Table, day, money, s, type Row } from './kit.js';
 import { methodWords, percent } from './invoice.js';
 
 /**
@@ -17,26 +17,17 @@ export function CreditNotePdf({ doc }: { doc: CreditNoteDocument }) {
       subject={`Credit note ${doc.number} against VAT invoice ${doc.invoice.number}`}
       letterhead={{ ...doc.supplier }}
     >
-      <View style={s.columns}>
-        <Party
-          heading="Credit to"
-          name={doc.customer.name}
-          lines={[...doc.customer.addressLines, doc.customer.postcode]}
-          extra={doc.customer.email ? [doc.customer.email] : []}
-        />
-        <View style={s.column}>
-          <Facts
-            rows={[
-              ['Credit note number', doc.number],
-              ['Date of issue', day(doc.issuedOn)],
-              ['Tax point', day(doc.taxPoint)],
-              ['Against VAT invoice', `${doc.invoice.number}, issued ${day(doc.invoice.issuedOn)}`],
-              ['Job', `${doc.job.number} · ${doc.job.title}`],
-              ['Aircraft', `${doc.job.registration} · ${doc.job.aircraft}`],
-            ]}
-          />
-        </View>
-      </View>
+      <CustomerAndFacts
+        heading="Credit to"
+        customer={doc.customer}
+        job={doc.job}
+        facts={[
+          ['Credit note number', doc.number],
+          ['Date of issue', day(doc.issuedOn)],
+          ['Tax point', day(doc.taxPoint)],
+          ['Against VAT invoice', `${doc.invoice.number}, issued ${day(doc.invoice.issuedOn)}`],
+        ]}
+      />
 
       <H2>Why this credit is given</H2>
       <P>{doc.reason}</P>

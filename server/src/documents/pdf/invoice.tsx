@@ -1,7 +1,7 @@
 import Decimal from 'decimal.js';
-import { Text, View } from '@react-pdf/renderer';
+import { Text } from '@react-pdf/renderer';
 import { PAYMENT_METHOD_LABELS, type InvoiceDocument, type InvoiceDocumentLine } from '@wingstage/shared';
-import { DocumentFrame, Facts, H2, Notice, P, Party, Sums, Table, day, money, quantity, s, type Column, type Row } from './kit.js';
+import { CustomerAndFacts, DocumentFrame, H2, Notice, P, Sums, Table, day, money, quantity, s, type Column, type Row } from './kit.js';
 
 /** A payment method in words (the shared labels; a method stored before a label existed prints as stored). */
 export const methodWords = (m: string) => (PAYMENT_METHOD_LABELS as Record<string, string>)[m] ?? m;
@@ -67,26 +67,17 @@ export function InvoicePdf({ doc }: { doc: InvoiceDocument }) {
       subject={`VAT invoice ${doc.number} for job ${doc.job.number}, ${doc.job.registration}`}
       letterhead={{ ...doc.supplier }}
     >
-      <View style={s.columns}>
-        <Party
-          heading="Invoice to"
-          name={doc.customer.name}
-          lines={[...doc.customer.addressLines, doc.customer.postcode]}
-          extra={doc.customer.email ? [doc.customer.email] : []}
-        />
-        <View style={s.column}>
-          <Facts
-            rows={[
-              ['Invoice number', doc.number],
-              ['Date of issue', day(doc.issuedOn)],
-              ['Tax point (time of supply)', day(doc.taxPoint)],
-              ['Payment due by', day(doc.dueOn)],
-              ['Job', `${doc.job.number} · ${doc.job.title}`],
-              ['Aircraft', `${doc.job.registration} · ${doc.job.aircraft}`],
-            ]}
-          />
-        </View>
-      </View>
+      <CustomerAndFacts
+        heading="Invoice to"
+        customer={doc.customer}
+        job={doc.job}
+        facts={[
+          ['Invoice number', doc.number],
+          ['Date of issue', day(doc.issuedOn)],
+          ['Tax point (time of supply)', day(doc.taxPoint)],
+          ['Payment due by', day(doc.dueOn)],
+        ]}
+      />
 
       <H2>What this invoice is for</H2>
       <Table columns={columns} rows={rows} empty="No lines." />

@@ -2,7 +2,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { ComponentProps, ReactNode } from 'react';
 import { Document, Font, Page, StyleSheet, Text, View } from '@react-pdf/renderer';
-import { formatMoment, formatMoney } from '@wingstage/shared';
+import { formatMoment, formatMoney, type DocumentJob, type DocumentParty } from '@wingstage/shared';
 
 /*
  * The pieces every Wingstage document is made of: the shipped font, an A4 page with the workshop at
@@ -197,6 +197,35 @@ export function Party({ heading, name, lines, extra = [] }: { heading: string; n
           {l}
         </Text>
       ))}
+    </View>
+  );
+}
+
+/**
+ * The head of a money document: the customer's address on the left; on the right the document's
+ * own facts, then the job and the aircraft (and any facts that follow them).
+ */
+export function CustomerAndFacts({
+  heading,
+  customer,
+  job,
+  facts,
+  after = [],
+  marginTop,
+}: {
+  heading: string;
+  customer: DocumentParty & { email: string | null };
+  job: DocumentJob;
+  facts: [string, ReactNode][];
+  after?: [string, ReactNode][];
+  marginTop?: number;
+}) {
+  return (
+    <View style={marginTop === undefined ? s.columns : [s.columns, { marginTop }]}>
+      <Party heading={heading} name={customer.name} lines={[...customer.addressLines, customer.postcode]} extra={customer.email ? [customer.email] : []} />
+      <View style={s.column}>
+        <Facts rows={[...facts, ['Job', `${job.number} · ${job.title}`], ['Aircraft', `${job.registration} · ${job.aircraft}`], ...after]} />
+      </View>
     </View>
   );
 }

@@ -1,6 +1,6 @@
 import { Text, View } from '@react-pdf/renderer';
 import type { ReceiptDocument } from '@wingstage/shared';
-import { DocumentFrame, Facts, H2, Notice, P, Party, Sums, day, money, s } from './kit.js';
+import { CustomerAndFacts, DocumentFrame, H2, Notice, P, Sums, day, money, s } from './kit.js';
 import { methodWords } from './invoice.js';
 
 /**
@@ -16,21 +16,18 @@ export function ReceiptPdf({ doc }: { doc: ReceiptDocument }) {
         <Text style={[s.strong, { fontSize: 11 }]}>This is not a VAT invoice.</Text>
         <Text>It confirms a payment received. The VAT invoice for the job shows this payment and its VAT.</Text>
       </Notice>
-      <View style={[s.columns, { marginTop: 12 }]}>
-        <Party heading="Received from" name={doc.customer.name} lines={[...doc.customer.addressLines, doc.customer.postcode]} extra={doc.customer.email ? [doc.customer.email] : []} />
-        <View style={s.column}>
-          <Facts
-            rows={[
-              ['Receipt reference', doc.paymentId],
-              ['Received on', day(doc.receivedOn)],
-              ['Paid by', methodWords(doc.method)],
-              ['Job', `${doc.job.number} · ${doc.job.title}`],
-              ['Aircraft', `${doc.job.registration} · ${doc.job.aircraft}`],
-              ...(doc.invoiceNumber ? ([['Towards VAT invoice', doc.invoiceNumber]] as [string, string][]) : []),
-            ]}
-          />
-        </View>
-      </View>
+      <CustomerAndFacts
+        heading="Received from"
+        customer={doc.customer}
+        job={doc.job}
+        marginTop={12}
+        facts={[
+          ['Receipt reference', doc.paymentId],
+          ['Received on', day(doc.receivedOn)],
+          ['Paid by', methodWords(doc.method)],
+        ]}
+        after={doc.invoiceNumber ? [['Towards VAT invoice', doc.invoiceNumber]] : []}
+      />
 
       <H2>Payment received</H2>
       <P>{doc.description}</P>

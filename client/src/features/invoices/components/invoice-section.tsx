@@ -15,7 +15,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { InvoiceDocumentView } from '@/components/invoice-document';
+import { InvoiceCreditNotesAndDocument, InvoiceDocumentView } from '@/components/invoice-document';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { FormErrorSummary, Loading, Notice } from '@/components/ui/notice';
@@ -147,26 +147,7 @@ function IssuedInvoice({ jobId, invoice, role }: { jobId: string; invoice: Invoi
             </ul>
           </section>
         ) : null}
-        {invoice.creditNotes.length ? (
-          <section aria-label="Credit notes" className="flex flex-col gap-1">
-            <h3 className="font-semibold">Credit notes</h3>
-            <ul className="flex flex-col gap-1 text-sm">
-              {invoice.creditNotes.map((cn) => (
-                <li key={cn.id}>
-                  <span className="tabular-nums">{cn.number}</span> · {formatDate(cn.issuedOn)} · {formatMoney(cn.gross, c)} incl. VAT {formatMoney(cn.vat, c)} ·{' '}
-                  {cn.refunded ? `refunded ${formatMoney(cn.refunded, c)} to the card` : 'no refund'} · {cn.reason} ·{' '}
-                  <a href={`/api/credit-notes/${cn.id}/pdf`}>PDF</a>
-                </li>
-              ))}
-            </ul>
-          </section>
-        ) : null}
-        <details>
-          <summary className="cursor-pointer font-semibold">The invoice as issued</summary>
-          <div className="mt-3">
-            <InvoiceDocumentView doc={invoice.document} audience="staff" />
-          </div>
-        </details>
+        <InvoiceCreditNotesAndDocument invoice={invoice} audience="staff" headingLevel="h3" />
       </div>
     </Card>
   );

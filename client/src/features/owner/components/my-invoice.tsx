@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { InvoiceDocumentView } from '@/components/invoice-document';
+import { InvoiceCreditNotesAndDocument } from '@/components/invoice-document';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
@@ -49,28 +49,7 @@ export function MyInvoice({ jobId, invoice: inv }: { jobId: string; invoice: Inv
           Download the VAT invoice (PDF)
         </a>
       </div>
-      {inv.creditNotes.length ? (
-        <div className="flex flex-col gap-1">
-          <h5 className="font-semibold">Credit notes</h5>
-          <ul className="flex flex-col gap-1">
-            {inv.creditNotes.map((cn) => (
-              <li key={cn.id} data-owner-credit-note={cn.number}>
-                <span className="tabular-nums">{cn.number}</span> of {formatDate(cn.issuedOn)}: {formatMoney(cn.gross, c)} off the invoice
-                {cn.refunded ? `, ${formatMoney(cn.refunded, c)} refunded to your card` : ''}. {cn.reason}.{' '}
-                <a href={`/api/credit-notes/${cn.id}/pdf`} download>
-                  Download (PDF)
-                </a>
-              </li>
-            ))}
-          </ul>
-        </div>
-      ) : null}
-      <details>
-        <summary className="cursor-pointer">See the invoice here</summary>
-        <div className="mt-3">
-          <InvoiceDocumentView doc={inv.document} audience="owner" />
-        </div>
-      </details>
+      <InvoiceCreditNotesAndDocument invoice={inv} audience="owner" headingLevel="h5" />
     </section>
   );
 }
