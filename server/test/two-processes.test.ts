@@ -93,6 +93,7 @@ beforeAll(async () => {
     SIGNIN_ADDRESS_LIMIT: '10000',
     DECIDE_ADDRESS_LIMIT: String(DECIDE_LIMIT),
     APPROVAL_CHASER: 'false',
+    PASSWORD_THREADS: '1',
     CLIENT_DIST: '/nonexistent-client-dist',
     RATE_LIMIT_NAMESPACE: limitNamespace(),
     MAIL_QUEUE: `mail-${uniq()}`,
