@@ -106,4 +106,29 @@ describe('the ledger day totals', () => {
     await expectSame('status=refunded', (b) => b.status === 'refunded');
     await expectSame('kind=refund', (b) => b.kind === 'refund');
   });
+
+  it('when the ledger is paged in each order, then the pages put together are the whole list in that order, refunds and payments merged', async () => {
+    type Item = { id: string; date: string; gross: string; fee: string | null; net: string | null; kind: string };
+    const key: Record<string, (i: Item) => string | null> = { date: (i) => i.date, gross: (i) => i.gross, fee: (i) => i.fee, net: (i) => i.net };
+    for (const sort of ['date', 'gross', 'fee', 'net']) {
+      for (const dir of ['asc', 'desc']) {
+        const whole = (await acc.get(`/api/accounts/ledger?sort=${sort}&dir=${dir}&pageSize=200`)).body as { items: Item[]; total: number };
+        expect(whole.items).toHaveLength(whole.total);
+        expect(whole.items.some((i) => i.kind === 'refund')).toBe(true);
+        const paged: Item[] = [];
+        for (let page = 1; page <= Math.ceil(whole.total / 7); page += 1) paged.push(...((await acc.get(`/api/accounts/ledger?sort=${sort}&dir=${dir}&pageSize=7&page=${page}`)).body.items as Item[]));
+        expect(paged.map((i) => i.id)).toEqual(whole.items.map((i) => i.id));
+        // In order: by the column (nulls last), then by id, in the asked direction.
+        const cmp = (a: Item, b: Item) => {
+          const [x, y] = [key[sort]!(a), key[sort]!(b)];
+          // Nulls last in either direction.
+          if (x === null || y === null) return x === y ? (dir === 'asc' ? (a.id < b.id ? -1 : 1) : a.id > b.id ? -1 : 1) : x === null ? 1 : -1;
+          const by = sort === 'date' ? Date.parse(x) - Date.parse(y) : new Dec(x).comparedTo(y);
+          const d = by !== 0 ? by : a.id < b.id ? -1 : a.id > b.id ? 1 : 0;
+          return dir === 'asc' ? d : -d;
+        };
+        for (let i = 1; i < whole.items.length; i += 1) expect(cmp(whole.items[i - 1]!, whole.items[i]!)).toBeLessThanOrEqual(0);
+      }
+    }
+  });
 });
