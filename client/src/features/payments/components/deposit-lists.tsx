@@ -74,7 +74,7 @@ function Pager({ label, page, pageSize, total, onPage }: { label: string; page: 
         Previous
       </Button>
       <span className="tabular-nums">
-        Page {page} of {pages} ({total} in all)
+        Page {page} of {pages} ({total.toLocaleString('en-GB')} in all)
       </span>
       <Button variant="secondary" disabled={page >= pages} onClick={() => onPage(page + 1)}>
         Next
