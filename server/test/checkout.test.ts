@@ -357,6 +357,35 @@ describe('asking and cancelling deposits', () => {
     const closedJob = await makeJob(s.w.workshop.id, s.w.owners[0].aircraft.id, 'cancelled');
     expect((await s.manager.post(`/api/jobs/${closedJob.id}/deposits`, { amount: '10.00', reason: 'x' })).status).toBe(409);
   });
+
+  it('when there are more deposits than one page, then accounts’ page pages each list on its own and its totals cover them all', async () => {
+    const s = await setup();
+    const job = s.w.owners[0].job;
+    const waiting: string[] = [];
+    for (let i = 0; i < 5; i += 1) {
+      const d = await DepositRequest.create({ workshopId: job.workshopId, jobId: job.id, origin: 'manual', reason: `Waiting ${i}`, amount: `1${i}.05`, currency: 'GBP', createdAt: new Date(Date.UTC(2026, 9, 1 + i)) } as never);
+      waiting.push(d.id);
+    }
+    const received: string[] = [];
+    for (let i = 0; i < 3; i += 1) {
+      const d = await DepositRequest.create({ workshopId: job.workshopId, jobId: job.id, origin: 'manual', reason: `Paid ${i}`, amount: '100.10', currency: 'GBP', state: 'paid', paidAt: new Date() } as never);
+      const p = await Payment.create({ workshopId: job.workshopId, jobId: job.id, kind: 'deposit', method: 'card', depositRequestId: d.id, state: 'succeeded', currency: 'GBP', expectedAmount: '100.10', amount: '100.10', fee: '1.70', net: '98.40', receivedAt: new Date(Date.UTC(2026, 9, 10 + i)) } as never);
+      received.unshift(p.id);
+    }
+    const accounts = await signIn(server.app, s.w.users.accounts.email);
+    const first = (await accounts.get('/api/deposits/accounts?pageSize=2')).body;
+    expect(first).toMatchObject({ receivedTotal: 3, waitingTotal: 5, receivedPage: 1, waitingPage: 1, pageSize: 2 });
+    expect(first.received.map((r: { paymentId: string }) => r.paymentId)).toEqual(received.slice(0, 2));
+    expect(first.waiting.map((r: { id: string }) => r.id)).toEqual(waiting.slice(0, 2));
+    // Totals of every deposit, not of the page (exact decimal strings).
+    expect(first.totals).toEqual({ received: '300.30', fees: '5.10', net: '295.20', waiting: '60.25' });
+    const later = (await accounts.get('/api/deposits/accounts?pageSize=2&receivedPage=2&waitingPage=3')).body;
+    expect(later.received.map((r: { paymentId: string }) => r.paymentId)).toEqual(received.slice(2));
+    expect(later.waiting.map((r: { id: string }) => r.id)).toEqual(waiting.slice(4));
+    expect(later.totals).toEqual(first.totals);
+    const bad = await accounts.get('/api/deposits/accounts?receivedPage=0');
+    expect([400, 422]).toContain(bad.status);
+  });
 });
 
 describe('webhook processing time', () => {

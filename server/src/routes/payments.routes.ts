@@ -4,7 +4,7 @@ import {
   STAFF_ROLES,
   checkoutCreateSchema,
   checkoutSyncSchema,
-  depositListQuerySchema,
+  depositAccountsQuerySchema, depositListQuerySchema,
   depositParamsSchema,
   depositRequestCancelSchema,
   depositRequestCreateSchema,
@@ -58,8 +58,8 @@ export function depositRoutes({ config }: Deps): Router {
   router.get('/waiting', authorize(config, ...STAFF_ROLES), validate({ query: depositListQuerySchema }), async (req, res) => {
     res.json(await deposits.listWaitingDeposits(scopeOf(req), validQuery(req, depositListQuerySchema)));
   });
-  router.get('/accounts', authorize(config, 'admin', 'manager', 'accounts'), async (req, res) => {
-    res.json(await deposits.depositAccounts(scopeOf(req)));
+  router.get('/accounts', authorize(config, 'admin', 'manager', 'accounts'), validate({ query: depositAccountsQuerySchema }), async (req, res) => {
+    res.json(await deposits.depositAccounts(scopeOf(req), validQuery(req, depositAccountsQuerySchema)));
   });
   return router;
 }

@@ -11,6 +11,7 @@ import {
   minorUnits,
   workshopSettingsSchema,
   type DepositAccountsDto,
+  type DepositAccountsQuery,
   type DepositListQuery,
   type DepositReceivedRow,
   type DepositRequestCancelInput,
@@ -246,38 +247,50 @@ export async function listWaitingDeposits(scope: Scope, q: DepositListQuery): Pr
   return { items: rows.map(waitingRow), total: rows[0]?.total ?? 0, page: q.page, pageSize: q.pageSize };
 }
 
-/** Accounts' first page: every deposit received by card or offline (with fee and net), and those still waiting. */
-export async function depositAccounts(scope: Scope): Promise<DepositAccountsDto> {
+/**
+ * Accounts' deposits page: a page of the deposits received by card or offline (with fee and net),
+ * newest first, and a page of those still waiting, oldest first. The totals are summed in
+ * PostgreSQL (NUMERIC) over every deposit in the workshop's currency, not over the page.
+ */
+export async function depositAccounts(scope: Scope, q: DepositAccountsQuery): Promise<DepositAccountsDto> {
   const workshop = await Workshop.findByPk(scope.workshopId, { attributes: ['id', 'currency'] });
   const currency = workshop!.currency;
-  const dp = minorUnits(currency);
   const received = await boundSequelize().query<Omit<DepositReceivedRow, 'receivedAt'> & { receivedAt: Date | null }>(
     `SELECT p.id AS "paymentId", p.deposit_request_id AS "depositRequestId", p.job_id AS "jobId", j.number AS "jobNumber", a.registration,
             c.name AS "ownerName", d.reason, p.currency, p.amount::text AS amount, p.fee::text AS fee, p.net::text AS net,
             p.refunded::text AS refunded, p.state, p.amount_mismatch AS "amountMismatch", p.outcome_note AS "outcomeNote", p.received_at AS "receivedAt"
-       FROM payments p
+       FROM (SELECT p.* FROM payments p
+              WHERE p.workshop_id = $1 AND p.kind = 'deposit' AND p.state IN ('succeeded', 'partially_refunded', 'refunded')
+              ORDER BY p.received_at DESC NULLS LAST, p.id LIMIT $2 OFFSET $3) p
        JOIN deposit_requests d ON d.id = p.deposit_request_id
        JOIN jobs j ON j.id = p.job_id
        JOIN aircraft a ON a.id = j.aircraft_id
        JOIN customers c ON c.id = a.customer_id
-      WHERE p.workshop_id = $1 AND p.kind = 'deposit' AND p.state IN ('succeeded', 'partially_refunded', 'refunded')
-      ORDER BY p.received_at DESC NULLS LAST, p.id
-      LIMIT 500`,
-    { bind: [scope.workshopId], type: QueryTypes.SELECT },
+      ORDER BY p.received_at DESC NULLS LAST, p.id`,
+    { bind: [scope.workshopId, q.pageSize, (q.receivedPage - 1) * q.pageSize], type: QueryTypes.SELECT },
   );
-  const waiting = await listWaitingDeposits(scope, { page: 1, pageSize: 100 });
-  const sum = (xs: (string | null)[]) => formatAmount(xs.reduce((s, x) => s.plus(x ?? '0'), new Dec(0)), dp);
-  const inCurrency = received.filter((r) => r.currency === currency);
+  const [sums] = await boundSequelize().query<{ count: number; received: string; fees: string; net: string; waitingCount: number; waiting: string }>(
+    `SELECT r.count, r.received, r.fees, r.net, w.count AS "waitingCount", w.waiting
+       FROM (SELECT count(*)::int AS count, COALESCE(SUM(amount) FILTER (WHERE currency = $2), 0)::text AS received,
+                    COALESCE(SUM(fee) FILTER (WHERE currency = $2), 0)::text AS fees, COALESCE(SUM(net) FILTER (WHERE currency = $2), 0)::text AS net
+               FROM payments WHERE workshop_id = $1 AND kind = 'deposit' AND state IN ('succeeded', 'partially_refunded', 'refunded')) r,
+            (SELECT count(*)::int AS count, COALESCE(SUM(amount) FILTER (WHERE currency = $2), 0)::text AS waiting
+               FROM deposit_requests WHERE workshop_id = $1 AND state = 'waiting') w`,
+    { bind: [scope.workshopId, currency], type: QueryTypes.SELECT },
+  );
+  const waiting = await listWaitingDeposits(scope, { page: q.waitingPage, pageSize: q.pageSize });
+  const dp = minorUnits(currency);
+  const fmt = (x: string) => formatAmount(new Dec(x), dp);
   return {
     currency,
     received: received.map((r) => ({ ...r, receivedAt: r.receivedAt ? new Date(r.receivedAt).toISOString() : null })),
+    receivedTotal: sums!.count,
+    receivedPage: q.receivedPage,
     waiting: waiting.items,
-    totals: {
-      received: sum(inCurrency.map((r) => r.amount)),
-      fees: sum(inCurrency.map((r) => r.fee)),
-      net: sum(inCurrency.map((r) => r.net)),
-      waiting: sum(waiting.items.filter((w) => w.currency === currency).map((w) => w.amount)),
-    },
+    waitingTotal: sums!.waitingCount,
+    waitingPage: q.waitingPage,
+    pageSize: q.pageSize,
+    totals: { received: fmt(sums!.received), fees: fmt(sums!.fees), net: fmt(sums!.net), waiting: fmt(sums!.waiting) },
   };
 }
 

@@ -46,6 +46,14 @@ export const depositListQuerySchema = z.object({
 });
 export type DepositListQuery = z.output<typeof depositListQuerySchema>;
 
+/** Accounts' deposits page: the received and the waiting lists are paged on their own. */
+export const depositAccountsQuerySchema = z.object({
+  receivedPage: z.coerce.number({ message: 'Page must be a whole number.' }).int().min(1).max(100_000).default(1),
+  waitingPage: z.coerce.number({ message: 'Page must be a whole number.' }).int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number({ message: 'Page size must be a whole number.' }).int().min(1).max(100).default(50),
+});
+export type DepositAccountsQuery = z.output<typeof depositAccountsQuerySchema>;
+
 /** One attempt to take money, as pages show it. Amounts are decimal strings; fee and net only for staff. */
 export interface PaymentDto {
   id: string;
@@ -128,10 +136,18 @@ export interface DepositReceivedRow {
   receivedAt: string | null;
 }
 
-/** Accounts' first page: deposits received (with fee and net) and deposits still waiting. */
+/**
+ * Accounts' deposits page: one page of deposits received (with fee and net) and one of deposits
+ * still waiting, each with how many there are in all; the totals cover every deposit, not the page.
+ */
 export interface DepositAccountsDto {
   currency: string;
   received: DepositReceivedRow[];
+  receivedTotal: number;
+  receivedPage: number;
   waiting: DepositWaitingRow[];
+  waitingTotal: number;
+  waitingPage: number;
+  pageSize: number;
   totals: { received: string; fees: string; net: string; waiting: string };
 }

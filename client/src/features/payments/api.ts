@@ -1,12 +1,12 @@
 import type { CheckoutCreateInput, CheckoutSyncDto, DepositAccountsDto, DepositRequestCancelInput, DepositRequestCreateInput, DepositRequestDto, DepositWaitingRow, Page } from '@wingstage/shared';
-import { queryOptions } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 
 export const paymentKeys = {
   all: ['payments'] as const,
   jobDeposits: (jobId: string) => ['payments', 'job-deposits', jobId] as const,
   waiting: (page: number) => ['payments', 'waiting', page] as const,
-  accounts: () => ['payments', 'accounts'] as const,
+  accounts: (receivedPage = 1, waitingPage = 1) => ['payments', 'accounts', receivedPage, waitingPage] as const,
   sync: (jobId: string, sessionId: string) => ['payments', 'sync', jobId, sessionId] as const,
 };
 
@@ -17,8 +17,13 @@ export const jobDepositsQueryOptions = (jobId: string) =>
 export const waitingDepositsQueryOptions = (page: number) =>
   queryOptions({ queryKey: paymentKeys.waiting(page), queryFn: ({ signal }) => api.get<Page<DepositWaitingRow>>('/deposits/waiting', { page, pageSize: 25 }, signal) });
 
-export const depositAccountsQueryOptions = () =>
-  queryOptions({ queryKey: paymentKeys.accounts(), queryFn: ({ signal }) => api.get<DepositAccountsDto>('/deposits/accounts', undefined, signal) });
+/** Accounts' deposits page: one page of each list (received newest first, waiting oldest first). */
+export const depositAccountsQueryOptions = (receivedPage = 1, waitingPage = 1) =>
+  queryOptions({
+    queryKey: paymentKeys.accounts(receivedPage, waitingPage),
+    queryFn: ({ signal }) => api.get<DepositAccountsDto>('/deposits/accounts', { receivedPage, waitingPage, pageSize: 50 }, signal),
+    placeholderData: keepPreviousData,
+  });
 
 /**
  * Back from the payment page: the server reads the session from the card processor and records it.

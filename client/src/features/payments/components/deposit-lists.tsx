@@ -64,6 +64,25 @@ function WaitingTable({ rows, caption }: { rows: DepositWaitingRow[]; caption: s
   );
 }
 
+/** Previous / next for one list, shown only when the list runs past one page. */
+function Pager({ label, page, pageSize, total, onPage }: { label: string; page: number; pageSize: number; total: number; onPage: (page: number) => void }) {
+  if (total <= pageSize) return null;
+  const pages = Math.ceil(total / pageSize);
+  return (
+    <nav className="flex flex-wrap items-center gap-2" aria-label={label}>
+      <Button variant="secondary" disabled={page <= 1} onClick={() => onPage(page - 1)}>
+        Previous
+      </Button>
+      <span className="tabular-nums">
+        Page {page} of {pages} ({total.toLocaleString('en-GB')} in all)
+      </span>
+      <Button variant="secondary" disabled={page >= pages} onClick={() => onPage(page + 1)}>
+        Next
+      </Button>
+    </nav>
+  );
+}
+
 /** Staff: every deposit still waiting, oldest first. */
 export function WaitingDepositsPage() {
   const [page, setPage] = useState(1);
@@ -103,7 +122,9 @@ export function WaitingDepositsPage() {
 
 /** Accounts' page of deposits: received with fee and net, and waiting. `nav` is the Accounts area's section links. */
 export function DepositAccountsPage({ nav }: { nav?: ReactNode } = {}) {
-  const q = useQuery(depositAccountsQueryOptions());
+  const [receivedPage, setReceivedPage] = useState(1);
+  const [waitingPage, setWaitingPage] = useState(1);
+  const q = useQuery(depositAccountsQueryOptions(receivedPage, waitingPage));
   if (q.isPending) return <Loading />;
   if (q.isError) return <Notice tone="problem">{isApiError(q.error) ? q.error.message : 'The page could not be loaded.'}</Notice>;
   const d = q.data;
@@ -191,10 +212,22 @@ export function DepositAccountsPage({ nav }: { nav?: ReactNode } = {}) {
                   </li>
                 ))}
               </ul>
+              <div className="mt-3">
+                <Pager label={`${W.received}: pages`} page={d.receivedPage} pageSize={d.pageSize} total={d.receivedTotal} onPage={setReceivedPage} />
+              </div>
             </>
           )}
         </Card>
-        <Card title={W.waitingHeading}>{d.waiting.length === 0 ? <p>{W.waitingEmpty}</p> : <WaitingTable rows={d.waiting} caption={W.waitingHeading} />}</Card>
+        <Card title={W.waitingHeading}>
+          {d.waiting.length === 0 ? (
+            <p>{W.waitingEmpty}</p>
+          ) : (
+            <div className="flex flex-col gap-3">
+              <WaitingTable rows={d.waiting} caption={W.waitingHeading} />
+              <Pager label={`${W.waitingHeading}: pages`} page={d.waitingPage} pageSize={d.pageSize} total={d.waitingTotal} onPage={setWaitingPage} />
+            </div>
+          )}
+        </Card>
       </div>
     </>
   );
