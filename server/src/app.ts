@@ -126,8 +126,11 @@ export function createApp(parts: AppParts): Express {
   // eightfold, at a fraction of the default level's CPU); the client's files are content-hashed and
   // cached for a year, so they take the smallest. Bodies under 1 KB are not worth the CPU.
   const isApi = (req: express.Request) => req.path === '/api' || req.path.startsWith('/api/');
-  app.use(compression({ threshold: 1024, level: 1, filter: (req, res) => isApi(req) && compression.filter(req, res) }));
-  app.use(compression({ threshold: 1024, level: 9, filter: (req, res) => !isApi(req) && compression.filter(req, res) }));
+  // One middleware picks the level: each compression() wraps the response's write/end on every
+  // request it sees, so two in a row cost every request twice.
+  const compressApi = compression({ threshold: 1024, level: 1 });
+  const compressFiles = compression({ threshold: 1024, level: 9 });
+  app.use((req, res, next) => (isApi(req) ? compressApi : compressFiles)(req, res, next));
   // An estimate may carry up to 2000 lines (shared schema), about 1 MB of JSON; every other body stays small.
   app.put('/api/jobs/:id/estimate', express.json({ limit: '1mb' }));
   app.use(express.json({ limit: '200kb' }));

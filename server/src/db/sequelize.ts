@@ -23,7 +23,8 @@ const pgWithListeningClient = Object.assign(Object.create(pg) as typeof pg, { Cl
 export function createSequelize(databaseUrl: string, logger?: Logger, poolMax = 10): Sequelize {
   return new Sequelize(databaseUrl, {
     dialect: 'postgres',
-    logging: logger ? (sql) => logger.trace({ sql }, 'sql') : false,
+    // Only when trace is on: Sequelize builds a log line for every statement it is given a logger for.
+    logging: logger?.isLevelEnabled('trace') ? (sql) => logger.trace({ sql }, 'sql') : false,
     pool: { max: poolMax, min: 0, idle: 10_000, acquire: 20_000 },
     define: { underscored: true },
     // NUMERIC comes back as a string and stays one; no float ever touches money or hours.

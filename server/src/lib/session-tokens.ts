@@ -38,7 +38,10 @@ export function issueSession(config: Pick<Config, 'JWT_SECRET'>, user: { id: str
   return { token, sid, csrf: csrfFor(config, sid) };
 }
 
-export function verifySession(config: Pick<Config, 'JWT_SECRET'>, token: string): (SessionClaims & { exp: number }) | null {
+/** A verified session token's claims, with its expiry (seconds since the epoch). */
+export type TokenClaims = SessionClaims & { exp: number };
+
+export function verifySession(config: Pick<Config, 'JWT_SECRET'>, token: string): TokenClaims | null {
   try {
     const decoded = jwt.verify(token, keyOf(config.JWT_SECRET), { algorithms: ['HS256'], issuer: 'wingstage' });
     if (typeof decoded !== 'object' || decoded === null) return null;

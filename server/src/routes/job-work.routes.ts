@@ -14,7 +14,7 @@ import {
   timeLogRemoveSchema,
   timeLogUpdateSchema,
 } from '@wingstage/shared';
-import { authorize, scopeOf } from '../middleware/authorize.js';
+import { authorize, scopeOf, signedInRead } from '../middleware/authorize.js';
 import { validBody, validParams, validate } from '../middleware/validate.js';
 import type { Deps } from '../services/deps.js';
 import * as estimates from '../services/estimates.service.js';
@@ -31,9 +31,17 @@ export function jobWorkRoutes(deps: Deps): Router {
   const router = Router();
   const hands = authorize(config, 'admin', 'manager', 'engineer');
 
-  router.get('/:id/estimate', authorize(config, ...ROLES), validate({ params: idParamsSchema }), async (req, res) => {
-    res.json(await estimates.getEstimate(scopeOf(req), validParams(req, idParamsSchema).id));
-  });
+  // One statement answers it, session check included; a malformed id, or a job whose estimate row
+  // does not exist yet (the read inserts it), takes the ordinary chain after it.
+  router.get(
+    '/:id/estimate',
+    signedInRead(config, ROLES, idParamsSchema, (claims, p) => estimates.readEstimateSignedIn(claims, p.id)),
+    authorize(config, ...ROLES),
+    validate({ params: idParamsSchema }),
+    async (req, res) => {
+      res.json(await estimates.getEstimate(scopeOf(req), validParams(req, idParamsSchema).id));
+    },
+  );
   router.put('/:id/estimate', authorize(config, 'admin', 'manager'), validate({ params: idParamsSchema, body: estimateSaveSchema }), async (req, res) => {
     const scope = scopeOf(req);
     res.json(

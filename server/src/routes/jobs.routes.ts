@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import { ROLES, STAFF_ROLES, idParamsSchema, jobCreateSchema, jobListQuerySchema, jobTransitionSchema, jobUpdateSchema } from '@wingstage/shared';
-import { authorize, scopeOf } from '../middleware/authorize.js';
+import { authorize, scopeOf, signedInRead } from '../middleware/authorize.js';
 import { validBody, validParams, validQuery, validate } from '../middleware/validate.js';
 import type { Deps } from '../services/deps.js';
 import * as jobs from '../services/jobs.service.js';
@@ -14,7 +14,8 @@ export function jobsRoutes(deps: Deps): Router {
   router.post('/', authorize(config, 'admin', 'manager'), validate({ body: jobCreateSchema }), async (req, res) => {
     res.status(201).json(await jobs.createJob(scopeOf(req), validBody(req, jobCreateSchema)));
   });
-  router.get('/:id', authorize(config, ...ROLES), validate({ params: idParamsSchema }), async (req, res) => {
+  // One statement answers it, session check included (signedInRead); a malformed id takes the ordinary chain.
+  router.get('/:id', signedInRead(config, ROLES, idParamsSchema, (claims, p) => jobs.readJobSignedIn(claims, p.id)), authorize(config, ...ROLES), validate({ params: idParamsSchema }), async (req, res) => {
     res.json(await jobs.getJob(scopeOf(req), validParams(req, idParamsSchema).id));
   });
   router.patch('/:id', authorize(config, 'admin', 'manager'), validate({ params: idParamsSchema, body: jobUpdateSchema }), async (req, res) => {

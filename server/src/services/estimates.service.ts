@@ -19,15 +19,21 @@ import {
   type JobState,
   type PricedEstimate,
   type estimateSaveSchema,
+  type WorkshopDto,
+  workshopPricingFrom,
+  workshopSettingsSchema,
 } from '@wingstage/shared';
 import { AppError, conflict } from '../errors/app-error.js';
 import { AccessTask, Estimate, EstimateLine, Finding, Job, JobChecklistItem, JobTemplate, type Workshop, boundSequelize } from '../models/index.js';
 import { recordAudit } from './audit.js';
-import { quoteRequestFacts } from './approvals/repository.js';
+import { quoteFactsSql, quoteRequestFacts } from './approvals/repository.js';
+import { SESSION_SQL, type SessionRow } from './session-row.js';
+import type { TokenClaims } from '../lib/session-tokens.js';
+import { notFound } from '../errors/app-error.js';
 import { findingIdsIn, moveFindings } from './findings.repository.js';
 import { assertSuppliers, loadParts } from './catalogue.service.js';
 import { inTransaction } from '../db/transaction.js';
-import { findJob, lockJob, lockOpenRequests, viewJob, type JobRow } from './job-access.js';
+import { findJob, jobInSessionSql, lockJob, lockOpenRequests, viewJob, type JobRow } from './job-access.js';
 import { labourRate, loadWorkshop, pricingOf } from './pricing.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
 
@@ -103,9 +109,8 @@ function priced(w: Workshop, lines: EstimateLineDto[], tasks: AccessTaskDto[]): 
 }
 
 /** The quote's state, derived from the inspection lines' agreement and the requests that hold it. */
-async function quoteDto(jobId: string, p: PricedEstimate, rows: Agreement[], t: Transaction): Promise<EstimateQuoteDto> {
+function quoteOf(p: PricedEstimate, rows: Agreement[], facts: { openRequestId: string | null; lastDecision: 'approve' | 'decline' | null }): EstimateQuoteDto {
   const agreed = rows.filter((r) => r.agreedAt !== null);
-  const facts = await quoteRequestFacts(jobId, t);
   const last = agreed.reduce<Agreement | null>((a, r) => (a === null || r.agreedAt! > a.agreedAt! ? r : a), null);
   return {
     state: quoteStateOf({ agreedLines: agreed.length, unagreedLines: rows.length - agreed.length, quoteRequestOpen: facts.openRequestId !== null, lastQuoteDecision: facts.lastDecision }),
@@ -115,6 +120,10 @@ async function quoteDto(jobId: string, p: PricedEstimate, rows: Agreement[], t: 
     agreedHow: last?.agreedHow ?? null,
     openRequestId: facts.openRequestId,
   };
+}
+
+async function quoteDto(jobId: string, p: PricedEstimate, rows: Agreement[], t: Transaction): Promise<EstimateQuoteDto> {
+  return quoteOf(p, rows, await quoteRequestFacts(jobId, t));
 }
 
 async function estimateDto(scope: Scope, jobId: string, t?: Transaction): Promise<EstimateDto> {
@@ -129,6 +138,108 @@ async function estimateDto(scope: Scope, jobId: string, t?: Transaction): Promis
   };
   // Repeatable read: the version and the lines come from one snapshot, even while someone saves.
   return t ? run(t) : inTransaction(run, { isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ });
+}
+
+/** An estimate line as the one-statement read's JSON carries it: numbers as decimal strings, times as text. */
+type LineJson = Omit<EstimateLineDto, 'agreedAt'> & { agreedAt: string | null; agreedBy: string | null };
+
+type EstimateReadRow = SessionRow & {
+  j_id: string | null;
+  est_version: number | null;
+  vat_rates: WorkshopDto['vatRates'];
+  settings: Record<string, unknown> | null;
+  lines: LineJson[];
+  tasks: AccessTaskDto[];
+  open_id: string | null;
+  decision: 'approve' | 'decline' | null;
+};
+
+const LINE_JSON = `json_build_object(
+  'id', l.id, 'stage', l.stage, 'kind', l.kind, 'description', l.description, 'quantity', l.quantity::text,
+  'labourRateCode', l.labour_rate_code, 'ratePerHour', l.rate_per_hour::text, 'partId', l.part_id, 'supplierId', l.supplier_id,
+  'unitCost', l.unit_cost::text, 'unitPrice', l.unit_price::text, 'markupPercent', l.markup_percent::text, 'amount', l.amount::text,
+  'vatRate', l.vat_rate, 'findingId', l.finding_id, 'accessTaskId', l.access_task_id, 'discountPercent', l.discount_percent::text,
+  'agreedAt', l.agreed_at, 'agreedHow', l.agreed_how, 'agreedBy', l.agreed_by)`;
+const TASK_JSON = `json_build_object('id', a.id, 'name', a.name, 'hours', a.hours::text, 'labourRateCode', a.labour_rate_code,
+  'ratePerHour', a.rate_per_hour::text, 'vatRate', a.vat_rate)`;
+// loadLines' order: by stage (ESTIMATE_STAGES; an unknown stage first), then sort order and id.
+const STAGE_ORDER = `coalesce(array_position(ARRAY[${ESTIMATE_STAGES.map((x) => `'${x}'`).join(', ')}]::text[], l.stage), 0)`;
+
+/**
+ * GET /api/jobs/:id/estimate in ONE statement: the session check, the job under findJob's access
+ * rule, the estimate's version, the workshop's pricing settings, every line and access task (as
+ * JSON arrays, decimals as strings) and the quote's request facts. One statement reads one
+ * snapshot, so the version and the lines agree without a repeatable-read transaction. Priced by
+ * ./shared's engine exactly as estimateDto does; the same answer, field by field.
+ *
+ * Returns null (the caller takes the ordinary path) for a job whose estimate row does not exist
+ * yet: that read inserts it.
+ */
+export async function readEstimateSignedIn(claims: TokenClaims, jobId: string): Promise<{ session: SessionRow | undefined; answer: () => EstimateDto } | null> {
+  const rows = await boundSequelize().query<EstimateReadRow>(
+    `WITH s AS (${SESSION_SQL})
+     SELECT s.*, jb.id AS j_id, e.version AS est_version, w.vat_rates, w.settings,
+            CASE WHEN jb.id IS NULL THEN '[]'::json ELSE coalesce((SELECT json_agg(${LINE_JSON} ORDER BY ${STAGE_ORDER}, l.sort_order, l.id)
+               FROM estimate_lines l WHERE l.job_id = jb.id AND l.workshop_id = s."workshopId"), '[]'::json) END AS lines,
+            CASE WHEN jb.id IS NULL THEN '[]'::json ELSE coalesce((SELECT json_agg(${TASK_JSON} ORDER BY a.sort_order, a.id)
+               FROM access_tasks a WHERE a.job_id = jb.id AND a.workshop_id = s."workshopId"), '[]'::json) END AS tasks,
+            ${quoteFactsSql('jb.id')}
+       FROM s ${jobInSessionSql('$3')}
+       JOIN workshops w ON w.id = s."workshopId"
+       LEFT JOIN estimates e ON e.job_id = jb.id AND e.workshop_id = s."workshopId"`,
+    { bind: [claims.sub, claims.sid, jobId], type: QueryTypes.SELECT, raw: true },
+  );
+  const r = rows[0];
+  // A job without its estimate row yet: the ordinary read makes it (after its own session check).
+  if (r?.j_id && r.est_version === null) return null;
+  return {
+    session: r,
+    answer: () => {
+      if (!r?.j_id || r.est_version === null) throw notFound('That job');
+      const lines: EstimateLineDto[] = [];
+      const agreements: Agreement[] = [];
+      for (const l of r.lines) {
+        const inspection = l.stage === 'inspection';
+        const agreedAt = inspection && l.agreedAt ? new Date(l.agreedAt) : null;
+        const agreedHow = inspection ? (l.agreedHow ?? null) : null;
+        // Written out as lineDto does (a spread followed by more keys is slow, once per line).
+        lines.push({
+          id: l.id,
+          stage: l.stage,
+          kind: l.kind,
+          description: l.description,
+          quantity: l.quantity,
+          labourRateCode: l.labourRateCode,
+          ratePerHour: l.ratePerHour,
+          partId: l.partId,
+          supplierId: l.supplierId,
+          unitCost: l.unitCost,
+          unitPrice: l.unitPrice,
+          markupPercent: l.markupPercent,
+          amount: l.amount,
+          vatRate: l.vatRate,
+          findingId: l.findingId,
+          accessTaskId: l.accessTaskId,
+          discountPercent: l.discountPercent,
+          agreedAt: agreedAt ? agreedAt.toISOString() : null,
+          agreedHow,
+        });
+        if (inspection) agreements.push({ agreedAt, agreedHow, agreedBy: l.agreedBy });
+      }
+      const pricing = workshopPricingFrom({ currency: r.currency, vatRates: r.vat_rates, settings: workshopSettingsSchema.parse(r.settings ?? {}) });
+      const p = priceEstimate(estimateEngineInput(lines, r.tasks), pricing);
+      const dto: EstimateDto = {
+        jobId: r.j_id,
+        version: r.est_version,
+        currency: r.currency,
+        lines,
+        accessTasks: r.tasks,
+        priced: lineFiguresOf(p),
+        quote: quoteOf(p, agreements, { openRequestId: r.open_id, lastDecision: r.decision }),
+      };
+      return r.role === 'owner' ? forOwner(dto) : dto;
+    },
+  };
 }
 
 /** Inspection lines still awaiting the owner's agreement (work may not start while any does). */

@@ -87,3 +87,23 @@ export async function viewJob(scope: Scope, id: string): Promise<JobView> {
   if (!job) throw notFound('That job');
   return job as unknown as JobView;
 }
+
+/**
+ * findJob's access rule in SQL, for reads that fold the session check into their own statement:
+ * a LATERAL subquery over the session CTE `s` (middleware/authorize.ts SESSION_SQL) giving the job
+ * `jobParam` names with its aircraft and owner, or nothing. The same rule as scopedInclude: the
+ * job and its aircraft in the session's workshop and, for an owner, the aircraft theirs (an owner
+ * without a customer record matches nothing: NULL never equals).
+ */
+export function jobInSessionSql(jobParam: string): string {
+  return `LEFT JOIN LATERAL (
+      SELECT j.id, j.workshop_id, j.number, j.aircraft_id, j.title, j.type, j.state, j.booked_in_on, j.due_on, j.notes,
+             j.scope_cautions, j.version, j.created_at, j.updated_at,
+             a.registration, a.type AS aircraft_type, a.customer_id, c.name AS customer_name
+        FROM jobs j
+        JOIN aircraft a ON a.id = j.aircraft_id AND a.workshop_id = s."workshopId"
+        JOIN customers c ON c.id = a.customer_id
+       WHERE j.id = ${jobParam} AND j.workshop_id = s."workshopId"
+         AND (s.role <> 'owner' OR a.customer_id = s."customerId")
+    ) jb ON true`;
+}

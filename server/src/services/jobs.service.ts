@@ -1,4 +1,4 @@
-import { Op, type Transaction, type WhereOptions } from 'sequelize';
+import { Op, QueryTypes, type Transaction, type WhereOptions } from 'sequelize';
 import {
   JOB_STATE_LABELS,
   assertJobMove,
@@ -13,15 +13,17 @@ import {
 } from '@wingstage/shared';
 import type { z } from 'zod';
 import type { jobListQuerySchema, jobTransitionSchema, jobUpdateSchema } from '@wingstage/shared';
-import { AppError, forbidden, staleVersion } from '../errors/app-error.js';
+import { AppError, forbidden, notFound, staleVersion } from '../errors/app-error.js';
 import { Aircraft, AuditEvent, Job, User, boundSequelize } from '../models/index.js';
 import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
 import { inWorkshop, requireStaff, type Scope } from './scope.js';
-import { findJob, scopedInclude, viewJob, type JobRow, type JobView } from './job-access.js';
+import { findJob, jobInSessionSql, scopedInclude, viewJob, type JobRow, type JobView } from './job-access.js';
+import { SESSION_SQL, type SessionRow } from './session-row.js';
+import type { TokenClaims } from '../lib/session-tokens.js';
 import { applyTemplate, ensureEstimate, unagreedQuoteLines } from './estimates.service.js';
-import { decisionsToSee } from './approvals/repository.js';
+import { decisionsToSee, decisionsToSeeSql, toSeeOf } from './approvals/repository.js';
 import { moveJob } from './job-state.js';
 import { releaseBlockers } from './findings.service.js';
 import { cancelWaitingDepositsOfJob } from './deposits.service.js';
@@ -104,6 +106,56 @@ export async function listJobs(scope: Scope, q: JobListQuery): Promise<Page<JobD
 export async function getJob(scope: Scope, id: string): Promise<JobDto> {
   const job = await viewJob(scope, id);
   return toDto(job, await unseenFor(scope, [job.id]));
+}
+
+type JobReadRow = SessionRow & {
+  j_id: string | null; number: string; aircraft_id: string; title: string; type: JobDto['type']; state: JobState; booked_in_on: string;
+  due_on: string | null; notes: string; scope_cautions: JobDto['scopeCautions'] | null; version: number; created_at: Date; updated_at: Date;
+  registration: string; aircraft_type: string; customer_id: string; customer_name: string;
+  to_see: Parameters<typeof toSeeOf>[0] | null;
+};
+
+/**
+ * GET /api/jobs/:id in one statement: the session check (SESSION_SQL), the job under findJob's
+ * access rule with its aircraft and owner, and for staff the decisions nobody has marked seen.
+ * The same answer as getJob; the answer is made only after the session is accepted.
+ */
+export async function readJobSignedIn(claims: TokenClaims, id: string): Promise<{ session: SessionRow | undefined; answer: () => JobDto }> {
+  const rows = await boundSequelize().query<JobReadRow>(
+    `WITH s AS (${SESSION_SQL})
+     SELECT s.*, jb.id AS j_id, jb.number, jb.aircraft_id, jb.title, jb.type, jb.state, jb.booked_in_on, jb.due_on, jb.notes, jb.scope_cautions,
+            jb.version, jb.created_at, jb.updated_at, jb.registration, jb.aircraft_type, jb.customer_id, jb.customer_name,
+            CASE WHEN s.role <> 'owner' AND jb.id IS NOT NULL THEN ${decisionsToSeeSql('jb.id')} END AS to_see
+       FROM s ${jobInSessionSql('$3')}`,
+    { bind: [claims.sub, claims.sid, id], type: QueryTypes.SELECT, raw: true },
+  );
+  const r = rows[0];
+  return {
+    session: r,
+    answer: () => {
+      if (!r?.j_id) throw notFound('That job');
+      return {
+        id: r.j_id,
+        number: r.number,
+        aircraftId: r.aircraft_id,
+        registration: r.registration,
+        aircraftType: r.aircraft_type,
+        customerId: r.customer_id,
+        customerName: r.customer_name,
+        title: r.title,
+        type: r.type,
+        state: r.state,
+        bookedInOn: r.booked_in_on,
+        dueOn: r.due_on,
+        notes: r.notes,
+        scopeCautions: r.scope_cautions ?? [],
+        version: r.version,
+        createdAt: r.created_at.toISOString(),
+        updatedAt: r.updated_at.toISOString(),
+        decisionsToSee: r.to_see ? toSeeOf(r.to_see) : null,
+      };
+    },
+  };
 }
 
 /** Gap-free per workshop: the counter row is locked by the UPDATE and rolls back with a failed create. */

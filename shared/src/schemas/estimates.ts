@@ -203,26 +203,22 @@ export interface EstimateQuoteDto {
 /** Maps stored lines to the pricing engine's input: the one place this mapping is written. */
 export function estimateEngineInput(lines: EstimateLineDto[], accessTasks: AccessTaskDto[]): EstimateInput {
   return {
+    // Each kind's object written out in full (no `{ ...common, … }`: a spread followed by more keys
+    // builds every object the slow way, and this runs once per line of every estimate read).
     lines: lines.map((l): EstimateLineInput => {
-      const common = {
-        id: l.id,
-        stage: l.stage,
-        vatRate: l.vatRate,
-        findingId: l.findingId,
-        accessTaskId: l.accessTaskId,
-        discount: l.discountPercent !== null ? { percent: l.discountPercent } : null,
-        // Only inspection lines await agreement; the engine ignores the flag elsewhere.
-        agreed: l.stage === 'inspection' ? l.agreedAt !== null : undefined,
-      };
+      const { id, stage, vatRate, findingId, accessTaskId } = l;
+      const discount = l.discountPercent !== null ? { percent: l.discountPercent } : null;
+      // Only inspection lines await agreement; the engine ignores the flag elsewhere.
+      const agreed = stage === 'inspection' ? l.agreedAt !== null : undefined;
       switch (l.kind) {
         case 'labour':
-          return { ...common, kind: 'labour', hours: l.quantity, ratePerHour: l.ratePerHour ?? '0' };
+          return { id, stage, vatRate, findingId, accessTaskId, discount, agreed, kind: 'labour', hours: l.quantity, ratePerHour: l.ratePerHour ?? '0' };
         case 'part':
-          return { ...common, kind: 'part', quantity: l.quantity, unitCost: l.unitCost, unitPrice: l.unitPrice, markupPercent: l.markupPercent };
+          return { id, stage, vatRate, findingId, accessTaskId, discount, agreed, kind: 'part', quantity: l.quantity, unitCost: l.unitCost, unitPrice: l.unitPrice, markupPercent: l.markupPercent };
         case 'subcontract':
-          return { ...common, kind: 'subcontract', cost: l.amount ?? '0', markupPercent: l.markupPercent };
+          return { id, stage, vatRate, findingId, accessTaskId, discount, agreed, kind: 'subcontract', cost: l.amount ?? '0', markupPercent: l.markupPercent };
         case 'fee':
-          return { ...common, kind: 'fee', amount: l.amount ?? '0' };
+          return { id, stage, vatRate, findingId, accessTaskId, discount, agreed, kind: 'fee', amount: l.amount ?? '0' };
       }
     }),
     accessTasks: accessTasks.map((t) => ({ id: t.id, hours: t.hours, ratePerHour: t.ratePerHour, vatRate: t.vatRate })),

@@ -4,7 +4,8 @@ import { ApprovalRequest, boundSequelize } from '../../models/index.js';
 
 /**
  * The approvals tables reached by SQL (approval_request_findings, approval_decisions,
- * approval_superseded_links) and every write of a request's state. Values are always parameters.
+ * approval_superseded_links) and every write of a request's state. Values from a request are always
+ * parameters; only the code's own fixed words (a state, a decision) are written into the SQL.
  */
 
 /** The state of a request still waiting for the owner: the only one reads look for (APPROVAL_REQUEST_STATES[0]). */
@@ -88,16 +89,26 @@ export async function jobOwner(jobId: string, t?: Transaction): Promise<{ name: 
   return c ?? null;
 }
 
+/**
+ * The quote's two facts as scalar subqueries on a job id expression: the newest open request
+ * holding the quote (open_id), and the owner's last word on the quote (decision). Shared by
+ * quoteRequestFacts and the one-statement estimate read.
+ */
+export function quoteFactsSql(jobExpr: string): string {
+  return `(SELECT r.id FROM approval_requests r
+            WHERE r.job_id = ${jobExpr} AND r.includes_quote AND r.state = '${OPEN_REQUEST}' ORDER BY r.sent_at DESC LIMIT 1) AS open_id,
+          (SELECT d.decision FROM approval_decisions d JOIN approval_requests r ON r.id = d.request_id
+            WHERE r.job_id = ${jobExpr} AND d.finding_id IS NULL ORDER BY r.decided_at DESC LIMIT 1) AS decision`;
+}
+
 /** What the quote's state needs from the requests: the open one holding it, and the owner's last decision on it. */
 export async function quoteRequestFacts(jobId: string, t?: Transaction): Promise<{ openRequestId: string | null; lastDecision: Decision | null }> {
   // One round trip: the newest open request holding the quote, and the owner's last word on it.
-  const [row] = await boundSequelize().query<{ open_id: string | null; decision: Decision | null }>(
-    `SELECT (SELECT r.id FROM approval_requests r
-              WHERE r.job_id = $1 AND r.includes_quote AND r.state = $2 ORDER BY r.sent_at DESC LIMIT 1) AS open_id,
-            (SELECT d.decision FROM approval_decisions d JOIN approval_requests r ON r.id = d.request_id
-              WHERE r.job_id = $1 AND d.finding_id IS NULL ORDER BY r.decided_at DESC LIMIT 1) AS decision`,
-    { bind: [jobId, OPEN_REQUEST], type: QueryTypes.SELECT, transaction: t },
-  );
+  const [row] = await boundSequelize().query<{ open_id: string | null; decision: Decision | null }>(`SELECT ${quoteFactsSql('$1')}`, {
+    bind: [jobId],
+    type: QueryTypes.SELECT,
+    transaction: t,
+  });
   return { openRequestId: row?.open_id ?? null, lastDecision: row?.decision ?? null };
 }
 
@@ -125,6 +136,30 @@ export async function decisionsToSee(jobIds: string[]): Promise<Map<string, JobD
     map.set(r.job_id, { requests: Number(r.requests), declinedAirworthiness: !!r.declined_aw, ownerNote: !!r.note, lastDecidedAt: new Date(r.last_at).toISOString() });
   }
   return map;
+}
+
+type ToSeeRow = { requests: string | number; declined_aw: boolean; note: boolean; last_at: Date | string };
+
+export function toSeeOf(r: ToSeeRow): JobDecisionsToSee {
+  return { requests: Number(r.requests), declinedAirworthiness: !!r.declined_aw, ownerNote: !!r.note, lastDecidedAt: new Date(r.last_at).toISOString() };
+}
+
+/**
+ * decisionsToSee for one job, as a JSON subquery on a job id expression for a one-statement read
+ * (NULL when nothing waits; read it with toSeeOf). The same aggregate as decisionsToSee's, kept
+ * beside it; reads-one-statement.test.ts compares the two answers.
+ */
+export function decisionsToSeeSql(jobExpr: string): string {
+  return `(SELECT row_to_json(x) FROM (
+      SELECT count(DISTINCT r.id) AS requests,
+             bool_or(d.decision = 'decline' AND f.category = 'airworthiness') AS declined_aw,
+             bool_or(coalesce(d.note, '') <> '') AS note,
+             max(r.decided_at) AS last_at
+        FROM approval_requests r
+        LEFT JOIN approval_decisions d ON d.request_id = r.id
+        LEFT JOIN findings f ON f.id = d.finding_id
+       WHERE r.job_id = ${jobExpr} AND r.decided_at IS NOT NULL AND r.seen_at IS NULL
+      HAVING count(*) > 0) x)`;
 }
 
 /** Stamps a job's decided, unseen requests as seen by this user. */
