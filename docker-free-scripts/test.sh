@@ -1,8 +1,8 @@
 #!/usr/bin/env bash
 # npm test: the same set-up as npm start on the test profile (own ports, own PostgreSQL data folder,
-# own databases), then every check: tsc in every workspace, vitest (shared, server, client) and the
-# Playwright journeys against the built app in Debian's Chromium. Prints which stage failed and
-# exits non-zero if any did.
+# own databases), then every check: tsc in every workspace and ESLint (beside vitest, in a full
+# run), vitest (shared, server, client, lint, stripe-fake) and the Playwright journeys against the
+# built app in Debian's Chromium. Prints which stage failed and exits non-zero if any did.
 #
 #   npm test                      everything
 #   npm test -- --only types      tsc --noEmit and ESLint only
@@ -33,6 +33,7 @@ cleanup() {
   set +e
   # A run stopped before its browser stage: the background preparation ends with it.
   if [ -n "${prep_pid:-}" ]; then kill "$prep_pid" 2>/dev/null; wait "$prep_pid" 2>/dev/null; fi
+  if [ -n "${types_pid:-}" ]; then kill "$types_pid" 2>/dev/null; wait "$types_pid" 2>/dev/null; fi
   [ "$started_app" = 1 ] && bash "$SCRIPTS/app.sh" stop >/dev/null
   if [ "${WS_KEEP_SERVICES:-0}" != 1 ]; then
     [ "$started_mail" = 1 ] && bash "$SCRIPTS/maildev.sh" stop
@@ -89,6 +90,33 @@ run_types() {
   say "linting the repository (ESLint, import boundaries)"
   if npm run --silent lint; then record "lint" passed $(( $(date +%s) - t ))
   else record "lint" failed $(( $(date +%s) - t )); fi
+}
+
+# A full run type-checks and lints beside vitest: tsc and ESLint want the CPU, while vitest's server
+# files spend most of their time waiting on PostgreSQL, bcrypt and mail. Their output goes to a log,
+# printed once vitest has finished (in full if a check failed), so the two stages' lines do not mix.
+types_pid=""
+start_types_beside() {
+  rm -f "$RUN_DIR"/types-*.result
+  say "type-checking and linting beside vitest (log: .local/logs/types.log)"
+  (
+    t=$(date +%s)
+    if npm run --silent typecheck; then echo "passed $(( $(date +%s) - t ))"; else echo "failed $(( $(date +%s) - t ))"; fi >"$RUN_DIR/types-typecheck.result"
+    t=$(date +%s)
+    if npm run --silent lint; then echo "passed $(( $(date +%s) - t ))"; else echo "failed $(( $(date +%s) - t ))"; fi >"$RUN_DIR/types-lint.result"
+  ) >"$LOG_DIR/types.log" 2>&1 &
+  types_pid=$!
+}
+finish_types_beside() {
+  wait "$types_pid"; types_pid=""
+  local stage result bad=0
+  for stage in typecheck lint; do
+    read -r result secs <"$RUN_DIR/types-$stage.result" 2>/dev/null || { result=failed secs=0; }
+    record "$stage (beside)" "$result" "$secs"
+    [ "$result" = passed ] || bad=1
+  done
+  if [ "$bad" = 1 ]; then say "type-check or lint failed:"; cat "$LOG_DIR/types.log" >&2
+  else say "type-check and lint passed (log: .local/logs/types.log)"; fi
 }
 
 run_unit() {
@@ -153,5 +181,5 @@ case "$only" in
   types) run_types ;;
   unit) run_unit "$@" ;;
   e2e) run_e2e "$@" ;;
-  *) start_e2e_prep; run_types; run_unit; run_e2e ;;
+  *) start_e2e_prep; start_types_beside; run_unit; finish_types_beside; run_e2e ;;
 esac

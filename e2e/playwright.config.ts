@@ -8,11 +8,20 @@ process.env.E2E_MAILDEV_URL ??= 'http://127.0.0.1:1081';
 
 const onCi = Boolean(process.env.CI);
 
+/** Journeys in which an owner decides or pays: one at a time, in their own lane (see projects). */
+const OWNER_DECISIONS = [
+  '**/journey-approval.spec.ts',
+  '**/journey-decide-links.spec.ts',
+  '**/journey-invoice.spec.ts',
+  '**/journey-payment.spec.ts',
+];
+
 export default defineConfig({
   testDir: 'tests',
   outputDir: 'test-results',
-  // Two cores here: a third browser only slows the other two down.
-  workers: onCi ? 1 : 2,
+  // Two cores here: a third browser only slows the other two down. Two browsers help, because a
+  // journey spends most of its time waiting on the app, PostgreSQL and mail; see the two lanes below.
+  workers: 2,
   fullyParallel: false,
   forbidOnly: onCi,
   retries: onCi ? 1 : 0,
@@ -44,9 +53,25 @@ export default defineConfig({
   // Every test runs once, at desktop width; a test tagged @phone also runs in the phone project, on
   // the project's own 375 px page. Journeys that need a phone open their own 375 px windows (see
   // support/journey.ts), so they run once and still look at both widths.
+  //
+  // Two lanes run side by side, each one file at a time (a project's `workers: 1`), so two journeys
+  // never change the same demo rows at once:
+  // - `owner-decisions`: the journeys in which owners decide and pay. The payment journey turns on a
+  //   deposit policy for the whole workshop while it runs, which would raise deposits on any other
+  //   owner's decision made meanwhile; and the decide-links and invoice journeys share an owner.
+  // - `desktop`: everything else (staff pages, the hangar, pickers, accounts, the fake's page).
+  // A new journey in which an owner decides belongs in the first list.
   projects: [
     {
+      name: 'owner-decisions',
+      testMatch: OWNER_DECISIONS,
+      workers: 1,
+      use: { viewport: { width: 1280, height: 800 } },
+    },
+    {
       name: 'desktop',
+      testIgnore: OWNER_DECISIONS,
+      workers: 1,
       use: { viewport: { width: 1280, height: 800 } },
     },
     {

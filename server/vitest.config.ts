@@ -10,8 +10,7 @@ export default defineConfig({
     testTimeout: 90_000,
     hookTimeout: 60_000,
     pool: 'forks',
+    // The same as the root config's, so the server's files share one pool with the other projects'.
     maxWorkers: 2,
-    // Its own group when run beside the other projects, which use vitest's default worker count.
-    sequence: { groupOrder: 1 },
   },
 });

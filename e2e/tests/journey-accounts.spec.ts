@@ -12,6 +12,8 @@ test.describe('@accounts closing the week', () => {
 
   test('when accounts runs a payout, then it reconciles; the planted exception is resolved with a note; the VAT summary is exported', async ({ browser, baseURL }, testInfo) => {
     test.skip(testInfo.project.name !== 'desktop', 'the accounts desk works on a desktop');
+    // A journey of several pages, like the others: the 60 s default ran out once at load 29.
+    test.setTimeout(180_000);
     const { ctx, page } = await signedIn(browser, baseURL, 'accounts@brackenfold.example');
 
     // The processor pays out what is available (the demo's card payments are past their two days).

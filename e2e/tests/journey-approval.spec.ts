@@ -28,7 +28,7 @@ const GAP = '0.98';
 const PHOTO = fileURLToPath(new URL('../fixtures/finding-photo.jpg', import.meta.url));
 
 test('an engineer raises findings, the manager sends one request, the owner decides on a phone @approval', async ({ browser, baseURL, request }, testInfo) => {
-  test.skip(testInfo.project.name !== 'desktop', 'Changes demo data: runs once, with its own phone and desktop windows.');
+  test.skip(testInfo.project.name === 'phone', 'Changes demo data: runs once, with its own phone and desktop windows.');
   // The quote's own round trip comes first now: a longer journey.
   test.setTimeout(540_000);
   const stamp = `${Date.now().toString(36)}`;

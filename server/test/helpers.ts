@@ -8,7 +8,7 @@ import { inject } from 'vitest';
 import type { Role } from '@wingstage/shared';
 import { createApp, type AppParts } from '../src/app.js';
 import { loadConfig, type Config } from '../src/config/config.js';
-import { hashPassword } from '../src/lib/passwords.js';
+import bcrypt from 'bcryptjs';
 import { Aircraft, ApprovalRequest, Customer, Finding, Job, User, Workshop } from '../src/models/index.js';
 import { startParts, stopParts } from '../src/runtime.js';
 
@@ -72,10 +72,17 @@ export async function startTestServer(overrides: Record<string, string> = {}): P
   };
 }
 
+/** The bcrypt cost of the fixture users' hash (production's is BCRYPT_COST, proved in auth.test.ts). */
+export const FIXTURE_BCRYPT_COST = 4;
+
 let hashed: Promise<string> | null = null;
-/** One real bcrypt hash shared by the rows a file creates: each fresh hash costs a quarter second. */
+/**
+ * One bcrypt hash shared by the rows a file creates, at a low cost: every sign-in checks it, and at
+ * production's cost each check takes a quarter of a second of CPU (several seconds on a loaded
+ * machine). Sign-in checks the hash at the cost the hash itself names, so the code path is the same.
+ */
 export function passwordHash(): Promise<string> {
-  hashed ??= hashPassword(PASSWORD);
+  hashed ??= bcrypt.hash(PASSWORD, FIXTURE_BCRYPT_COST);
   return hashed;
 }
 
