@@ -93,7 +93,11 @@ export async function seedScale(sequelize: Sequelize, workshopId: string, log: (
       INSERT INTO approval_requests (workshop_id, job_id, state, snapshot, snapshot_hash, link_nonce, token_hash, gross, sent_at, expires_at, decided_at, decided_by_name)
       SELECT $1, j.id, CASE WHEN j.k % 2 = 0 THEN 'decided' ELSE 'sent' END,
              '{"bulk": true}'::jsonb, md5(j.id::text) || md5(j.k::text), md5(random()::text), md5('t' || j.id::text) || md5('u' || j.id::text),
-             (100 + j.k % 900)::numeric(14,2), DATE '2020-01-02' + (j.k / 5), DATE '2020-01-16' + (j.k / 5),
+             (100 + j.k % 900)::numeric(14,2),
+             -- Decided requests are history; open ones were sent in the last ten days and still run, so the
+             -- expiry sweep has nothing to do inside a benchmark run.
+             CASE WHEN j.k % 2 = 0 THEN DATE '2020-01-02' + (j.k / 5) ELSE now() - make_interval(days => j.k % 10) END,
+             CASE WHEN j.k % 2 = 0 THEN DATE '2020-01-16' + (j.k / 5) ELSE now() + make_interval(days => 14 - j.k % 10) END,
              CASE WHEN j.k % 2 = 0 THEN DATE '2020-01-03' + (j.k / 5) END, CASE WHEN j.k % 2 = 0 THEN 'Scale owner' END
       FROM scale_jobs j`);
     await step('request findings', `
