@@ -389,10 +389,10 @@ describe('asking and cancelling deposits', () => {
 });
 
 describe('webhook processing time', () => {
-  it('when 200 real checkout events are processed (payments settled, deposits paid), then the median and 95th percentile are logged, the median under a second', async () => {
+  it('when 60 real checkout events are processed (payments settled, deposits paid), then the median and 95th percentile are logged, the median under a second', async () => {
     const s = await setup(quietApp);
     const sessions: string[] = [];
-    for (let batch = 0; batch < 10; batch += 1) {
+    for (let batch = 0; batch < 3; batch += 1) {
       const urls = await Promise.all(
         Array.from({ length: 10 }, async (_, i) => {
           const d = await DepositRequest.create({ workshopId: s.w.workshop.id, jobId: s.jobId, origin: 'manual', reason: `Parts batch ${batch}-${i}`, amount: `${10 + batch}.${String(i).padStart(2, '0')}`, currency: 'GBP' });
@@ -410,7 +410,7 @@ describe('webhook processing time', () => {
       const o = e.data.object as { id: string; metadata?: Record<string, string> };
       if ((e.type === 'checkout.session.completed' && sessions.includes(o.id)) || (e.type === 'payment_intent.succeeded' && o.metadata?.job_id === s.jobId)) events.push(e);
     }
-    expect(events).toHaveLength(200);
+    expect(events).toHaveLength(60);
     events.reverse(); // oldest first, as delivered
     const times: number[] = [];
     for (const e of events) {
@@ -421,12 +421,12 @@ describe('webhook processing time', () => {
       times.push(Number(process.hrtime.bigint() - t0) / 1e6);
       expect(res.body).toMatchObject({ duplicate: false, outcome: 'processed' });
     }
-    expect(await Payment.count({ where: { jobId: s.jobId, state: 'succeeded' } })).toBe(100);
-    expect(await DepositRequest.count({ where: { jobId: s.jobId, state: 'paid' } })).toBe(100);
+    expect(await Payment.count({ where: { jobId: s.jobId, state: 'succeeded' } })).toBe(30);
+    expect(await DepositRequest.count({ where: { jobId: s.jobId, state: 'paid' } })).toBe(30);
     times.sort((a, b) => a - b);
-    const median = (times[99]! + times[100]!) / 2;
-    const p95 = times[189]!;
-    console.info(`checkout webhook processing over 200 events (signature, record, SDK read-back, settle): median ${median.toFixed(1)} ms, 95th percentile ${p95.toFixed(1)} ms`);
+    const median = (times[29]! + times[30]!) / 2;
+    const p95 = times[56]!;
+    console.info(`checkout webhook processing over 60 events (signature, record, SDK read-back, settle): median ${median.toFixed(1)} ms, 95th percentile ${p95.toFixed(1)} ms`);
     // A coarse bound only: the figures the README quotes come from the log line above, taken on a
     // quiet machine. A shared CI machine at load 20 has shown a p95 of 1.3 s for the same code.
     expect(median).toBeLessThan(1000);
