@@ -1,11 +1,11 @@
 import type { Request, RequestHandler } from 'express';
 import type { z } from 'zod';
-import { QueryTypes } from 'sequelize';
 import type { Role } from '@wingstage/shared';
 import type { Config } from '../config/config.js';
 import { AppError, forbidden, unauthenticated } from '../errors/app-error.js';
 import { CSRF_HEADER, SESSION_COOKIE, csrfFor, safeEqual, verifySession } from '../lib/session-tokens.js';
 import { boundSequelize } from '../models/index.js';
+import { preparedRows } from '../db/prepared.js';
 import type { Scope } from '../services/scope.js';
 import type { SessionUser, SessionWorkshop } from '../services/dto.js';
 import { SESSION_SQL, type SessionRow } from '../services/session-row.js';
@@ -82,7 +82,7 @@ async function authenticate(config: Config, req: Request, roles: readonly Role[]
   const claims = tokenClaims(config, req);
   // One indexed read per request (two ORM queries with instance building cost about as much as the
   // work behind). The hottest reads fold this check into their own statement instead (signedInRead).
-  const rows = await boundSequelize().query<SessionRow>(SESSION_SQL, { bind: [claims.sub, claims.sid], type: QueryTypes.SELECT, raw: true });
+  const rows = await preparedRows<SessionRow>(boundSequelize(), 'session-check', SESSION_SQL, [claims.sub, claims.sid]);
   return acceptSession(claims, rows[0], roles);
 }
 

@@ -25,6 +25,7 @@ import {
 } from '@wingstage/shared';
 import { AppError, conflict } from '../errors/app-error.js';
 import { AccessTask, Estimate, EstimateLine, Finding, Job, JobChecklistItem, JobTemplate, type Workshop, boundSequelize } from '../models/index.js';
+import { preparedRows } from '../db/prepared.js';
 import { recordAudit } from './audit.js';
 import { quoteFactsSql, quoteRequestFacts } from './approvals/repository.js';
 import { SESSION_SQL, type SessionRow } from './session-row.js';
@@ -176,7 +177,9 @@ const STAGE_ORDER = `coalesce(array_position(ARRAY[${ESTIMATE_STAGES.map((x) => 
  * yet: that read inserts it.
  */
 export async function readEstimateSignedIn(claims: TokenClaims, jobId: string): Promise<{ session: SessionRow | undefined; answer: () => EstimateDto } | null> {
-  const rows = await boundSequelize().query<EstimateReadRow>(
+  const rows = await preparedRows<EstimateReadRow>(
+    boundSequelize(),
+    'estimate-read',
     `WITH s AS (${SESSION_SQL})
      SELECT s.*, jb.id AS j_id, e.version AS est_version, w.vat_rates, w.settings,
             CASE WHEN jb.id IS NULL THEN '[]'::json ELSE coalesce((SELECT json_agg(${LINE_JSON} ORDER BY ${STAGE_ORDER}, l.sort_order, l.id)
@@ -187,7 +190,7 @@ export async function readEstimateSignedIn(claims: TokenClaims, jobId: string): 
        FROM s ${jobInSessionSql('$3')}
        JOIN workshops w ON w.id = s."workshopId"
        LEFT JOIN estimates e ON e.job_id = jb.id AND e.workshop_id = s."workshopId"`,
-    { bind: [claims.sub, claims.sid, jobId], type: QueryTypes.SELECT, raw: true },
+    [claims.sub, claims.sid, jobId],
   );
   const r = rows[0];
   // A job without its estimate row yet: the ordinary read makes it (after its own session check).

@@ -1,4 +1,4 @@
-import { Op, QueryTypes, type Transaction, type WhereOptions } from 'sequelize';
+import { Op, type Transaction, type WhereOptions } from 'sequelize';
 import {
   JOB_STATE_LABELS,
   assertJobMove,
@@ -15,6 +15,7 @@ import type { z } from 'zod';
 import type { jobListQuerySchema, jobTransitionSchema, jobUpdateSchema } from '@wingstage/shared';
 import { AppError, forbidden, notFound, staleVersion } from '../errors/app-error.js';
 import { Aircraft, AuditEvent, Job, User, boundSequelize } from '../models/index.js';
+import { preparedRows } from '../db/prepared.js';
 import { inTransaction } from '../db/transaction.js';
 import { recordAudit } from './audit.js';
 import { likePattern, orderFrom, pageWindow } from './list-helpers.js';
@@ -121,13 +122,15 @@ type JobReadRow = SessionRow & {
  * The same answer as getJob; the answer is made only after the session is accepted.
  */
 export async function readJobSignedIn(claims: TokenClaims, id: string): Promise<{ session: SessionRow | undefined; answer: () => JobDto }> {
-  const rows = await boundSequelize().query<JobReadRow>(
+  const rows = await preparedRows<JobReadRow>(
+    boundSequelize(),
+    'job-read',
     `WITH s AS (${SESSION_SQL})
      SELECT s.*, jb.id AS j_id, jb.number, jb.aircraft_id, jb.title, jb.type, jb.state, jb.booked_in_on, jb.due_on, jb.notes, jb.scope_cautions,
             jb.version, jb.created_at, jb.updated_at, jb.registration, jb.aircraft_type, jb.customer_id, jb.customer_name,
             CASE WHEN s.role <> 'owner' AND jb.id IS NOT NULL THEN ${decisionsToSeeSql('jb.id')} END AS to_see
        FROM s ${jobInSessionSql('$3')}`,
-    { bind: [claims.sub, claims.sid, id], type: QueryTypes.SELECT, raw: true },
+    [claims.sub, claims.sid, id],
   );
   const r = rows[0];
   return {
