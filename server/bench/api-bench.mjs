@@ -131,7 +131,7 @@ const listResults = [];
 for (const l of lists) {
   const r = await p95Of(l.url, cookie);
   listResults.push({ list: l.name, ...r });
-  console.log(`${l.name.padEnd(44)} p95 ${r.p95.toFixed(1).padStart(6)} ms   p50 ${r.p50.toFixed(1).padStart(6)} ms   (${r.total} rows match)`);
+  console.log(`${l.name.padEnd(44)} p95 ${r.p95.toFixed(1).padStart(6)} ms   p50 ${r.p50.toFixed(1).padStart(6)} ms   ${r.total == null ? '' : `(${r.total} rows match)`}`);
 }
 console.log(`\nload average at end ${os.loadavg().map((l) => l.toFixed(2)).join(' ')} on ${os.cpus().length} cores`);
 
