@@ -80,6 +80,11 @@ export default defineConfig(({ isSsrBuild }) => ({
   test: {
     name: 'client',
     environment: 'jsdom',
+    // One jsdom and one module graph per worker instead of per file: set-up fell from 53 s of
+    // environment and 18 s of imports to about 5 s in all (41 files, 134 → 34 s wall). Each test
+    // renders into a fresh container with its own QueryClient and restoreMocks undoes spies; the
+    // files passed in shuffled file orders.
+    isolate: false,
     include: ['src/**/*.test.{ts,tsx}', 'scripts/**/*.test.{ts,mjs}'],
     setupFiles: ['src/testing/setup.ts'],
     restoreMocks: true,
