@@ -61,7 +61,11 @@ export async function ensureEstimate(scope: Scope, jobId: string, t: Transaction
   return est;
 }
 
-export function lineDto(l: EstimateLine): EstimateLineDto {
+/** What lineDto reads: a model row (agreedAt a Date) or the one-statement read's JSON (agreedAt text). */
+type LineSource = Omit<EstimateLineDto, 'agreedAt' | 'agreedHow'> & { agreedAt: Date | string | null; agreedHow: EstimateLineDto['agreedHow'] | undefined };
+
+/** Written out field by field: a spread followed by more keys is slow, and this runs once per line. */
+export function lineDto(l: LineSource): EstimateLineDto {
   return {
     id: l.id,
     stage: l.stage,
@@ -80,7 +84,7 @@ export function lineDto(l: EstimateLine): EstimateLineDto {
     findingId: l.findingId,
     accessTaskId: l.accessTaskId,
     discountPercent: l.discountPercent,
-    agreedAt: l.stage === 'inspection' && l.agreedAt ? l.agreedAt.toISOString() : null,
+    agreedAt: l.stage === 'inspection' && l.agreedAt ? new Date(l.agreedAt).toISOString() : null,
     agreedHow: l.stage === 'inspection' ? (l.agreedHow ?? null) : null,
   };
 }
@@ -202,32 +206,9 @@ export async function readEstimateSignedIn(claims: TokenClaims, jobId: string): 
       const lines: EstimateLineDto[] = [];
       const agreements: Agreement[] = [];
       for (const l of r.lines) {
-        const inspection = l.stage === 'inspection';
-        const agreedAt = inspection && l.agreedAt ? new Date(l.agreedAt) : null;
-        const agreedHow = inspection ? (l.agreedHow ?? null) : null;
-        // Written out as lineDto does (a spread followed by more keys is slow, once per line).
-        lines.push({
-          id: l.id,
-          stage: l.stage,
-          kind: l.kind,
-          description: l.description,
-          quantity: l.quantity,
-          labourRateCode: l.labourRateCode,
-          ratePerHour: l.ratePerHour,
-          partId: l.partId,
-          supplierId: l.supplierId,
-          unitCost: l.unitCost,
-          unitPrice: l.unitPrice,
-          markupPercent: l.markupPercent,
-          amount: l.amount,
-          vatRate: l.vatRate,
-          findingId: l.findingId,
-          accessTaskId: l.accessTaskId,
-          discountPercent: l.discountPercent,
-          agreedAt: agreedAt ? agreedAt.toISOString() : null,
-          agreedHow,
-        });
-        if (inspection) agreements.push({ agreedAt, agreedHow, agreedBy: l.agreedBy });
+        const line = lineDto(l);
+        lines.push(line);
+        if (line.stage === 'inspection') agreements.push({ agreedAt: line.agreedAt ? new Date(line.agreedAt) : null, agreedHow: line.agreedHow, agreedBy: l.agreedBy });
       }
       const pricing = workshopPricingFrom({ currency: r.currency, vatRates: r.vat_rates, settings: workshopSettingsSchema.parse(r.settings ?? {}) });
       const p = priceEstimate(estimateEngineInput(lines, r.tasks), pricing);
