@@ -72,3 +72,55 @@ export function calendarDateOf(at: Date, timeZone: string = WORKSHOP_TIME_ZONE):
   }
   return f.format(at);
 }
+
+/**
+ * Today on the workshop's clock, as `YYYY-MM-DD`: the default of every date box in a staff form and
+ * the "not in the future" bound of the schemas, so a device set to another time zone (or a server on
+ * UTC just after midnight in summer) never offers or checks yesterday or tomorrow.
+ */
+export function workshopToday(now: Date = new Date()): string {
+  return calendarDateOf(now);
+}
+
+const WALL_PARTS = new Map<string, Intl.DateTimeFormat>();
+/** The wall-clock fields of a moment in a time zone. */
+function wallClock(at: Date, timeZone: string): { y: number; mo: number; d: number; h: number; mi: number } {
+  let f = WALL_PARTS.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-GB', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
+    WALL_PARTS.set(timeZone, f);
+  }
+  const n = (type: string) => Number(f.formatToParts(at).find((p) => p.type === type)?.value);
+  return { y: n('year'), mo: n('month'), d: n('day'), h: n('hour'), mi: n('minute') };
+}
+
+/** A moment as a date-time box shows it ("2026-12-02T10:30"), on the workshop's clock whatever the device's. */
+export function workshopDateTimeInput(at: Date, timeZone: string = WORKSHOP_TIME_ZONE): string {
+  const w = wallClock(at, timeZone);
+  const p = (x: number) => String(x).padStart(2, '0');
+  return `${w.y}-${p(w.mo)}-${p(w.d)}T${p(w.h)}:${p(w.mi)}`;
+}
+
+/**
+ * A date-time box's value read as the workshop's wall-clock time, as an ISO instant: "2026-07-01T14:03"
+ * → "2026-07-01T13:03:00.000Z" (British Summer Time). In the hour the clocks go back the earlier of the
+ * two readings is taken. Anything unreadable comes back as given, for the schema to refuse.
+ */
+export function instantFromWorkshopInput(v: string, timeZone: string = WORKSHOP_TIME_ZONE): string {
+  const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})$/.exec(v);
+  if (!m) return v;
+  const asUtc = Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]), Number(m[4]), Number(m[5]));
+  if (Number.isNaN(asUtc)) return v;
+  // The zone's offset at a moment: its wall clock read as if UTC, less the moment.
+  const offsetAt = (t: number) => {
+    const w = wallClock(new Date(t), timeZone);
+    return Date.UTC(w.y, w.mo - 1, w.d, w.h, w.mi) - t;
+  };
+  // The zone's offsets a day either side cover any change of the clocks: keep the readings that give
+  // the box's wall-clock time back, the earlier when both do (the repeated hour); in the hour that
+  // never happens (clocks going forward) the offset before the change is used.
+  const day = 24 * 3600_000;
+  const candidates = [asUtc - offsetAt(asUtc - day), asUtc - offsetAt(asUtc + day)];
+  const fits = candidates.filter((t) => workshopDateTimeInput(new Date(t), timeZone) === v);
+  return new Date(fits.length ? Math.min(...fits) : candidates[0]!).toISOString();
+}

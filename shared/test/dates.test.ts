@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { calendarDateOf, formatCalendarDate, formatMoment, WORKSHOP_TIME_ZONE } from '../src/index.js';
+import { calendarDateOf, formatCalendarDate, formatMoment, instantFromWorkshopInput, workshopDateTimeInput, workshopToday, WORKSHOP_TIME_ZONE } from '../src/index.js';
 
 describe('formatCalendarDate', () => {
   it('when given a calendar date, then it reads as the app shows dates, and no time zone moves it a day', () => {
@@ -38,5 +38,28 @@ describe('formatMoment', () => {
   });
   it('when given something that is not a moment, then it comes back unchanged', () => {
     expect(formatMoment('not a moment')).toBe('not a moment');
+  });
+});
+
+describe('form defaults on the workshop’s clock', () => {
+  // UK clocks: GMT in winter, BST (UTC+1) from the last Sunday of March to the last Sunday of October
+  // [Summer Time Order 2002, SI 2002/262, cited from memory]; 2026's change back is 25 October at 02:00 BST.
+  it('gives today as the workshop’s day, not UTC’s: 23:30 UTC on 30 June is already 1 July in the UK', () => {
+    expect(workshopToday(new Date('2026-06-30T23:30:00Z'))).toBe('2026-07-01');
+    expect(workshopToday(new Date('2026-12-01T23:30:00Z'))).toBe('2026-12-01');
+  });
+
+  it('writes a moment for a date-time box on UK time and reads the box back as the same moment, in winter and summer', () => {
+    expect(workshopDateTimeInput(new Date('2026-12-02T10:30:00Z'))).toBe('2026-12-02T10:30');
+    expect(workshopDateTimeInput(new Date('2026-07-01T13:03:00Z'))).toBe('2026-07-01T14:03');
+    expect(instantFromWorkshopInput('2026-12-02T10:30')).toBe('2026-12-02T10:30:00.000Z');
+    expect(instantFromWorkshopInput('2026-07-01T14:03')).toBe('2026-07-01T13:03:00.000Z');
+    for (const iso of ['2026-03-29T00:59:00.000Z', '2026-03-29T01:00:00.000Z', '2026-10-25T00:30:00.000Z', '2026-10-25T01:30:00.000Z', '2026-01-01T00:00:00.000Z']) {
+      const box = workshopDateTimeInput(new Date(iso));
+      expect(workshopDateTimeInput(new Date(instantFromWorkshopInput(box)))).toBe(box);
+    }
+    // The repeated hour when the clocks go back: the earlier reading (still BST).
+    expect(instantFromWorkshopInput('2026-10-25T01:30')).toBe('2026-10-25T00:30:00.000Z');
+    expect(instantFromWorkshopInput('not a time')).toBe('not a time');
   });
 });

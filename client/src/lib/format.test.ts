@@ -7,8 +7,10 @@ describe('dates', () => {
     expect(formatDate(null)).toBe('—');
   });
 
-  it('writes today as an ISO calendar date', () => {
-    expect(todayIso(new Date(2026, 0, 5))).toBe('2026-01-05');
+  it('writes today as an ISO calendar date on the workshop’s clock', () => {
+    expect(todayIso(new Date('2026-01-05T12:00:00Z'))).toBe('2026-01-05');
+    // 23:30 UTC on 30 June is 00:30 on 1 July on the workshop's (British Summer Time) clock.
+    expect(todayIso(new Date('2026-06-30T23:30:00Z'))).toBe('2026-07-01');
   });
 });
 

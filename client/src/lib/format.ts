@@ -3,7 +3,7 @@
  * currency's minor unit), the same one the e-mails and history use; re-exported so pages keep one
  * import for display helpers.
  */
-import { formatCalendarDate, formatMoment } from '@wingstage/shared';
+import { formatCalendarDate, formatMoment, workshopToday } from '@wingstage/shared';
 
 export { formatMoney, type MoneyFormatOptions } from '@wingstage/shared';
 
@@ -22,9 +22,9 @@ export function formatDateTime(iso: string): string {
   return formatMoment(iso, 'date-time');
 }
 
+/** Today on the workshop's clock (`YYYY-MM-DD`), not the device's: the default of every date box in a form. */
 export function todayIso(now = new Date()): string {
-  const p = (n: number) => String(n).padStart(2, '0');
-  return `${now.getFullYear()}-${p(now.getMonth() + 1)}-${p(now.getDate())}`;
+  return workshopToday(now);
 }
 
 /** Hours are decimal strings too; show them as they are, trimmed of a trailing ".0". */

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import type { CreditNoteDocument, InvoiceDocument } from '../documents.js';
+import { workshopToday } from '../dates.js';
 import { Dec } from '../money.js';
 import { INVOICE_STATES, PAYMENT_METHODS, type InvoiceState, type PaymentMethod, type PaymentState } from '../states.js';
 import { decimalString, idSchema, isoDate, listQuerySchema, requiredText, shortText } from './common.js';
@@ -19,14 +20,13 @@ export type InvoiceIssueInput = z.input<typeof invoiceIssueSchema>;
 /** Payments accounts record by hand: every method but card (card payments come from the processor). */
 export const OFFLINE_PAYMENT_METHODS = PAYMENT_METHODS.filter((m): m is Exclude<PaymentMethod, 'card'> => m !== 'card');
 
-const todayIso = () => new Date().toISOString().slice(0, 10);
 
 /** A payment taken another way (bank transfer, cash, cheque) towards the invoice's balance. */
 export const offlinePaymentSchema = z
   .object({
     amount: positiveAmount('Amount'),
     method: z.enum(OFFLINE_PAYMENT_METHODS as [Exclude<PaymentMethod, 'card'>, ...Exclude<PaymentMethod, 'card'>[]], { message: 'Choose bank transfer, cash or cheque.' }),
-    receivedOn: isoDate.refine((d) => d <= todayIso(), { message: 'The date received cannot be in the future.' }),
+    receivedOn: isoDate.refine((d) => d <= workshopToday(), { message: 'The date received cannot be in the future.' }),
     reference: shortText(200, 'Reference').optional().default(''),
   })
   .strict();

@@ -5,15 +5,17 @@ import { Loading, Notice } from '@/components/ui/notice';
 import { buttonClass } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { formatDate } from '@/lib/format';
+import { workshopToday } from '@wingstage/shared';
 import { csvUrl, vatQuery } from '../api';
 import { ACCOUNTS_WORDS as W } from '../words';
 import { AccountsNav } from './accounts-nav';
 import { Money, td, tdNum, th, thNum } from './money-cell';
 
-/** The calendar quarter holding today: the usual VAT period. */
+/** The calendar quarter holding today on the workshop's clock: the usual VAT period. */
 function thisQuarter(now = new Date()): { from: string; to: string } {
-  const y = now.getUTCFullYear();
-  const q = Math.floor(now.getUTCMonth() / 3);
+  const [year, month] = workshopToday(now).split('-').map(Number) as [number, number];
+  const y = year;
+  const q = Math.floor((month - 1) / 3);
   const from = new Date(Date.UTC(y, q * 3, 1)).toISOString().slice(0, 10);
   const to = new Date(Date.UTC(y, q * 3 + 3, 0)).toISOString().slice(0, 10);
   return { from, to };

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { compareAmounts, quotePhoneAgreementSchema, type AgreedHow, type EstimateDto } from '@wingstage/shared';
+import { compareAmounts, instantFromWorkshopInput, quotePhoneAgreementSchema, workshopDateTimeInput, type AgreedHow, type EstimateDto } from '@wingstage/shared';
 import { useState } from 'react';
 import { useForm, type Resolver } from 'react-hook-form';
 import type { z } from 'zod';
@@ -81,22 +81,16 @@ export function QuotePanel({ jobId, estimate, canAct, onSendQuote }: { jobId: st
   );
 }
 
-const LABELS = { agreedWith: 'Who agreed it on the phone', agreedAt: 'When', note: 'Note' };
+const LABELS = { agreedWith: 'Who agreed it on the phone', agreedAt: 'When (UK time)', note: 'Note' };
 
 type FormIn = z.input<typeof quotePhoneAgreementSchema>;
 type FormOut = z.output<typeof quotePhoneAgreementSchema>;
 
-/** "2026-12-02T10:30" as the browser's date-time box gives it, in local time, from a Date. */
-export function localDateTimeInput(d: Date): string {
-  const p = (n: number) => String(n).padStart(2, '0');
-  return `${d.getFullYear()}-${p(d.getMonth() + 1)}-${p(d.getDate())}T${p(d.getHours())}:${p(d.getMinutes())}`;
-}
+/** "2026-12-02T10:30" in the date-time box is the workshop's wall-clock time, whatever the device's clock. */
+export const localDateTimeInput = (d: Date) => workshopDateTimeInput(d);
 
-/** The date-time box's local value as an ISO instant; anything unreadable is passed on for the schema to refuse. */
-export function isoFromLocalInput(v: string): string {
-  const t = Date.parse(v);
-  return v && !Number.isNaN(t) ? new Date(t).toISOString() : v;
-}
+/** The date-time box's value (workshop time) as an ISO instant; anything unreadable is passed on for the schema to refuse. */
+export const isoFromLocalInput = (v: string) => instantFromWorkshopInput(v);
 
 /** The shared schema checks the form, after the local date-time is read as an instant. */
 const resolver: Resolver<FormIn, unknown, FormOut> = (values, ctx, opts) =>

@@ -81,3 +81,27 @@ describe('TimeLog', () => {
     expect(screen.getByRole('button', { name: /^Change 2\.50 h/ })).toBeTruthy();
   });
 });
+
+describe('the day a form offers, on a device set to another time zone', () => {
+  const deviceZone = process.env.TZ;
+  afterEach(() => {
+    vi.useRealTimers();
+    if (deviceZone === undefined) delete process.env.TZ;
+    else process.env.TZ = deviceZone;
+  });
+
+  it.each([
+    // 19:30 on 1 December in Los Angeles is already 03:30 on 2 December at the workshop.
+    { zone: 'America/Los_Angeles', at: '2026-12-02T03:30:00Z', deviceDay: 1 },
+    // 09:00 on 3 December in Auckland is still 20:00 on 2 December at the workshop.
+    { zone: 'Pacific/Auckland', at: '2026-12-02T20:00:00Z', deviceDay: 3 },
+  ])('when the device in $zone reads day $deviceDay, then the day worked defaults to the workshop’s 2 December', ({ zone, at, deviceDay }) => {
+    process.env.TZ = zone;
+    vi.useFakeTimers({ toFake: ['Date'] });
+    vi.setSystemTime(new Date(at));
+    // The device's own day differs: the old default would have offered it.
+    expect(new Date().getDate()).toBe(deviceDay);
+    renderWithApp(<TimeLog jobId="j" entries={[]} canLog userId={ME} />);
+    expect((screen.getByLabelText(/^Date/) as HTMLInputElement).value).toBe('2026-12-02');
+  });
+});
