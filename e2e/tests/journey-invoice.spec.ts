@@ -77,6 +77,12 @@ test('@invoice the owner pays the invoice balance by card, accounts refunds part
   await owner.page.reload();
   const credit = owner.page.locator('[data-owner-credit-note]');
   await expect(credit).toContainText('£5.00 refunded to your card');
+  const creditNumber = (await credit.getAttribute('data-owner-credit-note'))!;
+  // Paid in full, then £5 back: the card says nothing is owed and names the refund's credit note, never "paid so far".
+  const standing = owner.page.getByTestId('my-invoice').filter({ hasText: number }).getByTestId('my-invoice-standing');
+  await expect(standing).toContainText('Nothing is left to pay.');
+  await expect(standing).toContainText(`We refunded £5.00 of it to you with credit note ${creditNumber}`);
+  await expect(standing).not.toContainText('so far');
   await shot(owner.page, testInfo, 'owner-credit-note-375');
   await owner.page.setViewportSize({ width: 1280, height: 800 });
   await shot(owner.page, testInfo, 'owner-credit-note-1280');

@@ -1,11 +1,12 @@
 import { randomUUID } from 'node:crypto';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { CreditNote, EstimateLine, Invoice, type Job } from '../src/models/index.js';
-import { sendDocumentMail, sweepUnmailedDocuments } from '../src/jobs/payment-receipts.js';
+import { QueryTypes } from 'sequelize';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { CreditNote, Invoice, boundSequelize } from '../src/models/index.js';
+import { DOCUMENT_MAIL_TRIES, sendDocumentMail, sweepUnmailedDocuments } from '../src/jobs/payment-receipts.js';
 import { issueGoodwillCreditNote } from '../src/services/credit-notes.service.js';
 import { issueInvoice } from '../src/services/invoices.service.js';
-import type { Scope } from '../src/services/scope.js';
-import { makeJob, makeWorkshop, mailsTo, signIn, startTestServer, waitForMail, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
+import { mailsTo, startTestServer, waitForMail, type TestServer } from './helpers.js';
+import { readyJob, staffClients } from './support/money-mail-fixtures.js';
 
 /*
  * Invoice and credit-note e-mails survive a process that stops between issuing a document and
@@ -22,37 +23,7 @@ afterAll(async () => {
   await server?.close();
 });
 
-interface Setup {
-  w: WorkshopFixture;
-  manager: Client;
-  accounts: Client;
-  email: string;
-  managerScope: Scope;
-  accountsScope: Scope;
-}
-async function setup(label: string): Promise<Setup> {
-  const w = await makeWorkshop(label);
-  return {
-    w,
-    manager: await signIn(server.app, w.users.manager.email),
-    accounts: await signIn(server.app, w.users.accounts.email),
-    email: w.owners[0].customer.email!,
-    managerScope: { workshopId: w.workshop.id, userId: w.users.manager.id, role: 'manager', customerId: null },
-    accountsScope: { workshopId: w.workshop.id, userId: w.users.accounts.id, role: 'accounts', customerId: null },
-  };
-}
-
-/** A job ready for release with £100.00 of agreed inspection work at the standard rate: £120.00 with VAT. */
-async function readyJob(s: Setup): Promise<Job> {
-  const job = await makeJob(s.w.workshop.id, s.w.owners[0].aircraft.id, 'ready_for_release');
-  await EstimateLine.create({
-    jobId: job.id, id: randomUUID(), workshopId: job.workshopId, stage: 'inspection', kind: 'fee', description: 'Yearly inspection', quantity: '1',
-    labourRateCode: null, ratePerHour: null, partId: null, supplierId: null, unitCost: null, unitPrice: null, markupPercent: null, amount: '100.00',
-    vatRate: 'standard', findingId: null, accessTaskId: null, discountPercent: null, sortOrder: 0,
-    agreedAt: new Date('2026-11-10T10:00:00Z'), agreedHow: 'phone', agreedBy: 'Owner',
-  });
-  return job;
-}
+const setup = (label: string) => staffClients(server.app, label);
 
 const settle = () => new Promise((r) => setTimeout(r, 1500));
 const subjectsTo = async (email: string, part: string) => (await mailsTo(email)).map((m) => m.subject).filter((x) => x.includes(part));
@@ -117,4 +88,71 @@ describe('invoice and credit-note e-mails', () => {
     expect(await sendDocumentMail(server.parts, { kind: 'invoice', id: randomUUID() })).toBe('gone');
     expect(await sendDocumentMail(server.parts, { kind: 'credit_note', id: randomUUID() })).toBe('gone');
   });
+
+  it('when an invoice’s PDF can never be made, then each try is counted, the last one gives up with one warning, the sweep leaves it and staff see it not e-mailed; Send again, raced six times, mails it once', async () => {
+    const s = await setup('Given up document');
+    const other = await setup('Given up elsewhere');
+    const owner = s.owner;
+    const job = await readyJob(s);
+    const inv = await issueInvoice(s.managerScope, job.id, {});
+    // A document that cannot be rendered: its lines are gone (a real failure of the renderer, not a stand-in).
+    const [keptRow] = await boundSequelize().query<{ document: object }>(`SELECT document FROM invoices WHERE id = $1`, { bind: [inv.id], type: QueryTypes.SELECT });
+    const kept = keptRow!.document;
+    await boundSequelize().query(`UPDATE invoices SET document = jsonb_set(document, '{lines}', 'null'::jsonb) WHERE id = $1`, { bind: [inv.id] });
+    const warn = vi.spyOn(server.parts.logger, 'warn');
+    try {
+      for (let i = 1; i < DOCUMENT_MAIL_TRIES; i++) await expect(sendDocumentMail(server.parts, { kind: 'invoice', id: inv.id })).rejects.toThrow();
+      expect(await sendDocumentMail(server.parts, { kind: 'invoice', id: inv.id })).toBe('given-up');
+      // Given up: not tried again, not counted again, and said once in the log.
+      expect(await sendDocumentMail(server.parts, { kind: 'invoice', id: inv.id })).toBe('given-up');
+      const givenUp = warn.mock.calls.filter((c) => String(c[1]).includes('document e-mail given up'));
+      expect(givenUp).toHaveLength(1);
+      expect(givenUp[0]![0]).toMatchObject({ kind: 'invoice', id: inv.id, tries: DOCUMENT_MAIL_TRIES });
+    } finally {
+      warn.mockRestore();
+    }
+    const [row] = await boundSequelize().query<{ mail_tries: number; mail_given_up_at: Date | null; mailed_at: Date | null }>(
+      `SELECT mail_tries, mail_given_up_at, mailed_at FROM invoices WHERE id = $1`, { bind: [inv.id], type: QueryTypes.SELECT },
+    );
+    expect(row).toMatchObject({ mail_tries: DOCUMENT_MAIL_TRIES, mail_given_up_at: expect.any(Date), mailed_at: null });
+    expect(await sweepUnmailedDocuments(server.parts, { workshopId: s.w.workshop.id, olderThanMs: 0 })).toBe(0);
+    expect((await s.manager.get(`/api/invoices/${inv.id}`)).body.email).toBe('not_sent');
+    expect((await owner.get(`/api/invoices/${inv.id}`)).body.email).toBeNull();
+
+    // Only this workshop's staff may send it again.
+    expect((await other.manager.post(`/api/invoices/${inv.id}/resend`, {})).status).toBe(404);
+    expect((await owner.post(`/api/invoices/${inv.id}/resend`, {})).status).toBe(403);
+    expect((await s.manager.post(`/api/invoices/not-an-id/resend`, {})).status).toBe(400);
+
+    // Mended, then sent again by six hands at once: the tries start afresh and one e-mail goes.
+    await boundSequelize().query(`UPDATE invoices SET document = $2::jsonb WHERE id = $1`, { bind: [inv.id, JSON.stringify(kept)] });
+    const resends = await Promise.all(Array.from({ length: 6 }, () => s.accounts.post(`/api/invoices/${inv.id}/resend`, {})));
+    expect(resends.every((r) => r.status === 202 || r.status === 409)).toBe(true);
+    expect(resends.filter((r) => r.status === 202).length).toBeGreaterThanOrEqual(1);
+    await waitForMail(s.email, (m) => m.subject.includes(`your invoice ${inv.number}`));
+    await expect.poll(async () => (await s.manager.get(`/api/invoices/${inv.id}`)).body.email, { timeout: 20_000 }).toBe('done');
+    await settle();
+    expect(await subjectsTo(s.email, `your invoice ${inv.number}`)).toHaveLength(1);
+    const again = await s.manager.post(`/api/invoices/${inv.id}/resend`, {});
+    expect(again.status).toBe(409);
+    expect(again.body.error.message).toBe('That invoice has already been e-mailed to the owner.');
+  }, 90_000);
+
+  it('when a credit note’s last try fails, then it is given up and shown on its invoice; Send again mails it once it renders', async () => {
+    const s = await setup('Given up credit note');
+    const job = await readyJob(s);
+    const inv = await issueInvoice(s.managerScope, job.id, {});
+    await sendDocumentMail(server.parts, { kind: 'invoice', id: inv.id });
+    const cn = await issueGoodwillCreditNote(s.accountsScope, inv.id, { amount: '12.00', reason: 'Goodwill: collected a day late' });
+    // Seven tries already failed (as if the queue had retried it through the afternoon); the renderer is still failing.
+    await boundSequelize().query(`UPDATE credit_notes SET mail_tries = $2 - 1, document = jsonb_set(document, '{lines}', 'null'::jsonb) WHERE id = $1`, { bind: [cn.id, DOCUMENT_MAIL_TRIES] });
+    expect(await sendDocumentMail(server.parts, { kind: 'credit_note', id: cn.id })).toBe('given-up');
+    const seen = (await s.manager.get(`/api/invoices/${inv.id}`)).body;
+    expect(seen.email).toBe('done');
+    expect(seen.creditNotes).toEqual([expect.objectContaining({ number: cn.number, email: 'not_sent' })]);
+    await boundSequelize().query(`UPDATE credit_notes SET document = $2::jsonb WHERE id = $1`, { bind: [cn.id, JSON.stringify(cn.document)] });
+    expect((await s.accounts.post(`/api/credit-notes/${cn.id}/resend`, {})).status).toBe(202);
+    await waitForMail(s.email, (m) => m.subject.includes(`credit note ${cn.number}`));
+    await expect.poll(async () => (await s.manager.get(`/api/credit-notes/${cn.id}`)).body.email, { timeout: 20_000 }).toBe('done');
+  }, 90_000);
 });

@@ -254,7 +254,29 @@ describe('credit notes and refunds', () => {
     expect(await PaymentEvent.count({ where: { stripeEventId: event!.id } })).toBe(1);
     expect(await Payment.findByPk(deposit.id)).toMatchObject({ state: 'partially_refunded', refunded: '60.00' });
     const owed = (await manager.get(`/api/invoices/${inv.id}`)).body;
-    expect(owed).toMatchObject({ invoiced: '1380.00', received: '240.00', due: '1140.00' });
+    expect(owed).toMatchObject({ invoiced: '1380.00', received: '240.00', due: '1140.00', paid: '300.00', refunded: '60.00' });
+  });
+
+  it('when an invoice paid in full has part refunded with its credit note, then it reads paid, refunded and nothing owed, to staff and to the owner', async () => {
+    const job = await readyJob();
+    const inv = (await manager.post(`/api/jobs/${job.id}/invoice`, {})).body;
+    // The whole £1,440.00 by card, then £5.00 handed back: the invoice drops to £1,435.00 and so does what was kept.
+    const pi = await sdk.paymentIntents.create({ amount: 144000, currency: 'gbp', payment_method: 'pm_card_visa', confirm: true });
+    const payment = await Payment.create({
+      workshopId: job.workshopId, jobId: job.id, kind: 'balance', method: 'card', state: 'succeeded', currency: 'GBP',
+      expectedAmount: '1440.00', amount: '1440.00', receivedAt: new Date('2026-11-25T10:00:00Z'), stripePaymentIntentId: pi.id,
+    });
+    const cn = await accounts.post(`/api/invoices/${inv.id}/refunds`, { paymentId: payment.id, amount: '5.00', reason: 'Rounding on the clamp price' });
+    expect(cn.status).toBe(201);
+    const staffView = (await manager.get(`/api/invoices/${inv.id}`)).body;
+    expect(staffView).toMatchObject({ invoiced: '1435.00', paid: '1440.00', refunded: '5.00', received: '1435.00', due: '0.00' });
+    expect(staffView.creditNotes).toEqual([expect.objectContaining({ number: cn.body.number, refunded: '5.00', gross: '5.00' })]);
+    const ownerView = (await owner1.get(`/api/jobs/${job.id}/invoice`)).body.invoice;
+    expect(ownerView).toMatchObject({ paid: '1440.00', refunded: '5.00', due: '0.00', payments: [] });
+    expect(ownerView.creditNotes.map((c: { number: string; refunded: string | null }) => [c.number, c.refunded])).toEqual([[cn.body.number, '5.00']]);
+    // The list row carries the same figures, worked from the row.
+    const row = (await manager.get(`/api/invoices?jobId=${job.id}`)).body.items[0];
+    expect(row).toMatchObject({ paid: '1440.00', refunded: '5.00', due: '0.00' });
   });
 });
 

@@ -1,12 +1,13 @@
 import { execFileSync } from 'node:child_process';
-import { randomUUID } from 'node:crypto';
 import http, { type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startStripeFake, type RunningFake } from '@wingstage/stripe-fake';
-import { AuditEvent, DepositRequest, EstimateLine, Invoice, Job, Payment } from '../src/models/index.js';
-import { sendPaymentReceipt } from '../src/jobs/payment-receipts.js';
-import { MAILDEV_API, makeJob, makeWorkshop, mailsTo, signIn, startTestServer, TEST_STRIPE_KEY, TEST_WEBHOOK_SECRET, waitForMail, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
+import { AuditEvent, DepositRequest, Invoice, Payment } from '../src/models/index.js';
+import { queuePaymentReceipt, sendPaymentReceipt } from '../src/jobs/payment-receipts.js';
+import { recordOfflinePayment } from '../src/services/invoices.service.js';
+import { MAILDEV_API, mailsTo, startTestServer, TEST_STRIPE_KEY, TEST_WEBHOOK_SECRET, waitForMail, type TestServer } from './helpers.js';
+import { readyJob, staffClients } from './support/money-mail-fixtures.js';
 
 /*
  * The e-mails money sends, read back from maildev with their PDFs (poppler's pdftotext), and what a
@@ -60,35 +61,7 @@ async function payOnPage(url: string): Promise<void> {
 }
 const sessionOf = (url: string) => /\/pay\/(cs_[A-Za-z0-9_]+)/.exec(url)![1]!;
 
-interface Setup {
-  w: WorkshopFixture;
-  manager: Client;
-  accounts: Client;
-  owner: Client;
-  email: string;
-}
-async function setup(label: string): Promise<Setup> {
-  const w = await makeWorkshop(label);
-  return {
-    w,
-    manager: await signIn(server.app, w.users.manager.email),
-    accounts: await signIn(server.app, w.users.accounts.email),
-    owner: await signIn(server.app, w.owners[0].user.email),
-    email: w.owners[0].customer.email!,
-  };
-}
-
-/** A job ready for release with £100.00 of agreed inspection labour at the standard rate: £120.00 with VAT. */
-async function readyJob(s: Setup): Promise<Job> {
-  const job = await makeJob(s.w.workshop.id, s.w.owners[0].aircraft.id, 'ready_for_release');
-  await EstimateLine.create({
-    jobId: job.id, id: randomUUID(), workshopId: job.workshopId, stage: 'inspection', kind: 'fee', description: 'Yearly inspection', quantity: '1',
-    labourRateCode: null, ratePerHour: null, partId: null, supplierId: null, unitCost: null, unitPrice: null, markupPercent: null, amount: '100.00',
-    vatRate: 'standard', findingId: null, accessTaskId: null, discountPercent: null, sortOrder: 0,
-    agreedAt: new Date('2026-11-10T10:00:00Z'), agreedHow: 'phone', agreedBy: 'Owner',
-  });
-  return job;
-}
+const setup = (label: string) => staffClients(server.app, label);
 
 describe('receipts for card payments', () => {
   it('when the owner pays a deposit by card, then one e-mail arrives: the receipt with its PDF, stating the VAT the deposit carries; a second run of the task sends nothing more', async () => {
@@ -183,6 +156,28 @@ describe('receipts for offline payments', () => {
     expect(pdf.text).toContain('£50.00');
     expect(pdf.text).toContain('WREN 0412');
     expect(await Payment.findByPk(paid.body.paymentId)).toMatchObject({ receiptMailedAt: expect.any(Date) });
+  }, 60_000);
+
+  it('when the process stops after the payment is written but before its transaction commits, then neither the payment nor its receipt task exists; committed, both do and one receipt goes', async () => {
+    const s = await setup('Offline receipt crash');
+    const job = await readyJob(s);
+    await s.manager.post(`/api/jobs/${job.id}/invoice`, {});
+    const input = { amount: '40.00', method: 'cash' as const, receivedOn: '2026-12-01', reference: 'TILL 7' };
+    // The receipt task is queued in the payment's transaction, then the process "stops" before the commit.
+    await expect(
+      recordOfflinePayment(s.accountsScope, job.id, input, async (id, t) => {
+        await queuePaymentReceipt(server.parts, id, t);
+        throw new Error('process stopped');
+      }),
+    ).rejects.toThrow('process stopped');
+    expect(await Payment.count({ where: { jobId: job.id, kind: 'balance' } })).toBe(0);
+    // Recorded again for real: one payment, one receipt, and the rolled-back task never ran.
+    const paid = await s.accounts.post(`/api/jobs/${job.id}/payments/offline`, input);
+    expect(paid.status).toBe(201);
+    await waitForMail(s.email, (m) => m.subject.includes('receipt for your payment of £40.00'));
+    await new Promise((r) => setTimeout(r, 1500));
+    expect((await mailsTo(s.email)).filter((m) => m.subject.includes('receipt for your payment of £40.00'))).toHaveLength(1);
+    expect(await Payment.count({ where: { jobId: job.id, kind: 'balance' } })).toBe(1);
   }, 60_000);
 });
 

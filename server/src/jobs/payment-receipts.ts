@@ -1,8 +1,9 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { renderCreditNotePdf, renderInvoicePdf, renderReceiptPdf } from '../documents/index.js';
 import { creditNoteMail, invoiceMail, receiptMail } from '../mail/invoice-mails.js';
-import type { MailQueue } from '../mail/mail-queue.js';
-import { CreditNote, Invoice, Job, Payment, boundSequelize } from '../models/index.js';
+import type { MailMessage, MailQueue } from '../mail/mail-queue.js';
+import { AppError, notFound } from '../errors/app-error.js';
+import { AuditEvent, CreditNote, Invoice, Job, Payment, boundSequelize } from '../models/index.js';
 import { inTransaction } from '../db/transaction.js';
 import { lockJobById } from '../services/job-access.js';
 import { receiptDocument } from '../services/invoices.service.js';
@@ -59,31 +60,67 @@ export async function queueDocumentMail(deps: Pick<Deps, 'mail'>, task: Document
 const DOCUMENT_TABLE = { invoice: 'invoices', credit_note: 'credit_notes' } as const;
 
 /**
+ * Tries of one document's e-mail before it is given up: our choice. The queue retries a failed try
+ * with a doubling back-off from 15 s, and the sweep queues a document again every 10 minutes, so
+ * eight tries span roughly half an hour to an hour: long enough for a renderer that was briefly
+ * down, short enough that a PDF that can never be made is shown to staff the same day.
+ */
+export const DOCUMENT_MAIL_TRIES = 8;
+
+/**
  * The owner's e-mail for an issued invoice or credit note, with its PDF. Idempotent, as receipts are:
  * the row's `mailed_at` is set in the same transaction that queues the e-mail, and only when it was
  * still empty, so a task that runs twice (a retry, the sweep beside the first task) sends one e-mail.
- * A rendering failure throws: the queue tries again later, and the sweep after that.
+ * Each try is counted (committed before rendering, so a crash mid-render counts too). A rendering
+ * failure throws, so the queue tries again later and the sweep after that, until the
+ * DOCUMENT_MAIL_TRIES-th failure: then the document is marked given up (one warning in the log),
+ * nothing retries it, and staff see "Not e-mailed" on it until they send it again.
  */
-export async function sendDocumentMail(deps: Pick<Deps, 'mail' | 'logger'>, task: DocumentMailTask): Promise<'sent' | 'already' | 'no-email' | 'gone'> {
-  const row =
-    task.kind === 'invoice'
-      ? await Invoice.findByPk(task.id, { attributes: ['id', 'jobId', 'document', 'mailedAt'] })
-      : await CreditNote.findByPk(task.id, { attributes: ['id', 'jobId', 'document', 'mailedAt'] });
-  if (!row) return 'gone';
-  if (row.mailedAt) return 'already';
-  // Rendered outside any transaction: a PDF takes far longer than a row lock should be held.
-  const msg =
-    row instanceof Invoice
-      ? row.document.customer.email
-        ? invoiceMail(row.document, await renderInvoicePdf(row.document))
-        : null
-      : row.document.customer.email
-        ? creditNoteMail(row.document, await renderCreditNotePdf(row.document))
-        : null;
+export async function sendDocumentMail(deps: Pick<Deps, 'mail' | 'logger'>, task: DocumentMailTask): Promise<'sent' | 'already' | 'no-email' | 'gone' | 'given-up'> {
+  const table = DOCUMENT_TABLE[task.kind];
+  const [state] = await boundSequelize().query<{ mailed: boolean; given_up: boolean }>(
+    `SELECT mailed_at IS NOT NULL AS mailed, mail_given_up_at IS NOT NULL AS given_up FROM ${table} WHERE id = $1`,
+    { bind: [task.id], type: QueryTypes.SELECT },
+  );
+  if (!state) return 'gone';
+  if (state.mailed) return 'already';
+  if (state.given_up) return 'given-up';
+  const [tried] = await boundSequelize().query<{ mail_tries: number }>(
+    `UPDATE ${table} SET mail_tries = mail_tries + 1 WHERE id = $1 AND mailed_at IS NULL AND mail_given_up_at IS NULL RETURNING mail_tries`,
+    { bind: [task.id], type: QueryTypes.SELECT },
+  );
+  if (!tried) return 'already';
+  let msg: MailMessage | null;
+  let jobId: string;
+  try {
+    const row =
+      task.kind === 'invoice'
+        ? await Invoice.findByPk(task.id, { attributes: ['id', 'jobId', 'document'] })
+        : await CreditNote.findByPk(task.id, { attributes: ['id', 'jobId', 'document'] });
+    if (!row) return 'gone';
+    jobId = row.jobId;
+    // Rendered outside any transaction: a PDF takes far longer than a row lock should be held.
+    msg =
+      row instanceof Invoice
+        ? row.document.customer.email
+          ? invoiceMail(row.document, await renderInvoicePdf(row.document))
+          : null
+        : row.document.customer.email
+          ? creditNoteMail(row.document, await renderCreditNotePdf(row.document))
+          : null;
+  } catch (err) {
+    if (tried.mail_tries < DOCUMENT_MAIL_TRIES) throw err;
+    const [gaveUp] = await boundSequelize().query(
+      `UPDATE ${table} SET mail_given_up_at = now() WHERE id = $1 AND mailed_at IS NULL AND mail_given_up_at IS NULL RETURNING id`,
+      { bind: [task.id], type: QueryTypes.SELECT },
+    );
+    if (gaveUp) deps.logger.warn({ ...task, tries: tried.mail_tries, err }, 'document e-mail given up: its PDF could not be made; staff can send it again');
+    return 'given-up';
+  }
   return inTransaction(async (t) => {
-    await lockJobById(row.jobId, t);
+    await lockJobById(jobId, t);
     // Claims the e-mail: a second task waits on the row, then finds it already set.
-    const [claimed] = (await boundSequelize().query(`UPDATE ${DOCUMENT_TABLE[task.kind]} SET mailed_at = now() WHERE id = $1 AND mailed_at IS NULL RETURNING id`, {
+    const [claimed] = (await boundSequelize().query(`UPDATE ${table} SET mailed_at = now() WHERE id = $1 AND mailed_at IS NULL AND mail_given_up_at IS NULL RETURNING id`, {
       bind: [task.id],
       transaction: t,
       type: QueryTypes.SELECT,
@@ -96,8 +133,40 @@ export async function sendDocumentMail(deps: Pick<Deps, 'mail' | 'logger'>, task
 }
 
 /**
- * Queues the e-mail of every invoice and credit note issued at least `olderThanMs` ago and not yet
- * mailed (at most `limit` a run; one workshop's when `workshopId` is given). Run on a schedule; the tasks it queues are the usual idempotent ones.
+ * Staff's "Send again" for a document not yet e-mailed (given up, or still waiting): its tries and
+ * give-up mark are cleared, in the workshop's scope (another workshop's id is 404), and its task is
+ * queued afresh once that commits. A document already e-mailed is refused: the owner has it.
+ */
+export async function resendDocumentMail(deps: Pick<Deps, 'mail'>, by: { workshopId: string; userId: string }, task: DocumentMailTask): Promise<void> {
+  const { workshopId } = by;
+  const table = DOCUMENT_TABLE[task.kind];
+  const what = task.kind === 'invoice' ? 'That invoice' : 'That credit note';
+  await inTransaction(async (t) => {
+    const [row] = await boundSequelize().query<{ job_id: string; number: string; mailed: boolean }>(
+      `SELECT job_id, number, mailed_at IS NOT NULL AS mailed FROM ${table} WHERE id = $1 AND workshop_id = $2 FOR UPDATE`,
+      { bind: [task.id, workshopId], transaction: t, type: QueryTypes.SELECT },
+    );
+    if (!row) throw notFound(what);
+    if (row.mailed) throw new AppError('conflict', 409, `${what} has already been e-mailed to the owner.`);
+    await boundSequelize().query(`UPDATE ${table} SET mail_tries = 0, mail_given_up_at = NULL WHERE id = $1`, { bind: [task.id], transaction: t });
+    await AuditEvent.create(
+      {
+        workshopId,
+        jobId: row.job_id,
+        actorUserId: by.userId,
+        action: 'document.mail_resent',
+        summary: `${task.kind === 'invoice' ? 'Invoice' : 'Credit note'} ${row.number} queued to be e-mailed to the owner again`,
+        detail: { ...task },
+      },
+      { transaction: t },
+    );
+  });
+  await queueDocumentMail(deps, task);
+}
+
+/**
+ * Queues the e-mail of every invoice and credit note issued at least `olderThanMs` ago, not yet
+ * mailed and not given up (at most `limit` a run; one workshop's when `workshopId` is given). Run on a schedule; the tasks it queues are the usual idempotent ones.
  */
 export async function sweepUnmailedDocuments(
   deps: Pick<Deps, 'mail'>,
@@ -105,10 +174,10 @@ export async function sweepUnmailedDocuments(
 ): Promise<number> {
   const rows = await boundSequelize().query<{ kind: DocumentMailTask['kind']; id: string }>(
     `(SELECT 'invoice' AS kind, id, issued_at FROM invoices
-       WHERE mailed_at IS NULL AND issued_at <= now() - make_interval(secs => $1) AND ($3::uuid IS NULL OR workshop_id = $3))
+       WHERE mailed_at IS NULL AND mail_given_up_at IS NULL AND issued_at <= now() - make_interval(secs => $1) AND ($3::uuid IS NULL OR workshop_id = $3))
      UNION ALL
      (SELECT 'credit_note' AS kind, id, issued_at FROM credit_notes
-       WHERE mailed_at IS NULL AND issued_at <= now() - make_interval(secs => $1) AND ($3::uuid IS NULL OR workshop_id = $3))
+       WHERE mailed_at IS NULL AND mail_given_up_at IS NULL AND issued_at <= now() - make_interval(secs => $1) AND ($3::uuid IS NULL OR workshop_id = $3))
      ORDER BY issued_at LIMIT $2`,
     { bind: [olderThanMs / 1000, limit, workshopId], type: QueryTypes.SELECT },
   );

@@ -15,7 +15,7 @@ import { validBody, validParams, validQuery, validate } from '../middleware/vali
 import type { Deps } from '../services/deps.js';
 import * as invoices from '../services/invoices.service.js';
 import * as credits from '../services/credit-notes.service.js';
-import { queueDocumentMail, queuePaymentReceipt } from '../jobs/payment-receipts.js';
+import { queueDocumentMail, queuePaymentReceipt, resendDocumentMail } from '../jobs/payment-receipts.js';
 
 /** Who handles money after the invoice: accounts, and the admin. */
 const MONEY_ROLES = ['admin', 'accounts'] as const;
@@ -40,12 +40,22 @@ export function invoicesRoutes(deps: Deps): Router {
     await queueDocumentMail(deps, { kind: 'credit_note', id: cn.id });
     res.status(201).json(cn);
   });
+  // "Send again": an invoice whose e-mail was given up (or is still waiting) is queued afresh.
+  router.post('/:id/resend', authorize(config, ...STAFF_ROLES), validate({ params: idParamsSchema }), async (req, res) => {
+    await resendDocumentMail(deps, scopeOf(req), { kind: 'invoice', id: validParams(req, idParamsSchema).id });
+    res.status(202).json({ queued: true });
+  });
   return router;
 }
 
-/** /api/credit-notes: the staff list and one credit note (an owner their own). */
-export function creditNotesRoutes({ config }: Deps): Router {
+/** /api/credit-notes: the staff list and one credit note (an owner their own), and sending its e-mail again. */
+export function creditNotesRoutes(deps: Deps): Router {
+  const { config } = deps;
   const router = Router();
+  router.post('/:id/resend', authorize(config, ...STAFF_ROLES), validate({ params: idParamsSchema }), async (req, res) => {
+    await resendDocumentMail(deps, scopeOf(req), { kind: 'credit_note', id: validParams(req, idParamsSchema).id });
+    res.status(202).json({ queued: true });
+  });
   router.get('/', authorize(config, ...STAFF_ROLES), validate({ query: creditNoteListQuerySchema }), async (req, res) => {
     res.json(await credits.listCreditNotes(scopeOf(req), validQuery(req, creditNoteListQuerySchema)));
   });
@@ -72,8 +82,8 @@ export function jobInvoiceRoutes(deps: Deps): Router {
   });
   router.post('/:id/payments/offline', authorize(config, ...MONEY_ROLES), validate({ params: idParamsSchema, body: offlinePaymentSchema }), async (req, res) => {
     const scope = scopeOf(req);
-    const out = await invoices.recordOfflinePayment(scope, validParams(req, idParamsSchema).id, validBody(req, offlinePaymentSchema));
-    await queuePaymentReceipt(deps, out.paymentId);
+    // The receipt's task is queued in the payment's own transaction: no moment where one exists without the other.
+    const out = await invoices.recordOfflinePayment(scope, validParams(req, idParamsSchema).id, validBody(req, offlinePaymentSchema), (id, t) => queuePaymentReceipt(deps, id, t));
     res.status(201).json(out);
   });
   return router;

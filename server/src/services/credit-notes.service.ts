@@ -11,6 +11,7 @@ import {
   type CreditNoteDocument,
   type CreditNoteDto,
   type CreditNoteSummaryDto,
+  type DocumentEmailState,
   type DocumentRateTotal,
   type Page,
   type creditNoteListQuerySchema,
@@ -51,6 +52,7 @@ interface CreditRow {
   gross: string;
   currency: string;
   refunded: string | null;
+  email: DocumentEmailState;
   total: string;
 }
 
@@ -61,6 +63,7 @@ async function creditRows(scope: Scope, where: string[], bind: unknown[], page?:
     `SELECT cn.id, cn.number, cn.invoice_id, i.number AS invoice_number, cn.job_id, j.number AS job_number, c.name AS customer_name,
             cn.issued_at, cn.reason, cn.net::text AS net, cn.vat::text AS vat, cn.gross::text AS gross, i.currency,
             (SELECT SUM(r.amount)::text FROM refunds r WHERE r.credit_note_id = cn.id AND r.state <> 'failed') AS refunded,
+            CASE WHEN cn.mailed_at IS NOT NULL THEN 'done' WHEN cn.mail_given_up_at IS NOT NULL THEN 'not_sent' ELSE 'waiting' END AS email,
             COUNT(*) OVER ()::text AS total
        FROM credit_notes cn JOIN invoices i ON i.id = cn.invoice_id JOIN jobs j ON j.id = cn.job_id
        JOIN aircraft a ON a.id = j.aircraft_id JOIN customers c ON c.id = a.customer_id
@@ -70,7 +73,7 @@ async function creditRows(scope: Scope, where: string[], bind: unknown[], page?:
   );
 }
 
-const summaryOf = (r: CreditRow): CreditNoteSummaryDto => ({
+const summaryOf = (r: CreditRow, scope: Scope): CreditNoteSummaryDto => ({
   id: r.id,
   number: r.number,
   invoiceId: r.invoice_id,
@@ -85,10 +88,11 @@ const summaryOf = (r: CreditRow): CreditNoteSummaryDto => ({
   vat: r.vat,
   gross: r.gross,
   refunded: r.refunded,
+  email: scope.role === 'owner' ? null : r.email,
 });
 
 export async function creditNoteSummaries(scope: Scope, f: { invoiceId: string }): Promise<CreditNoteSummaryDto[]> {
-  return (await creditRows(scope, ['cn.invoice_id = $2'], [f.invoiceId])).map(summaryOf);
+  return (await creditRows(scope, ['cn.invoice_id = $2'], [f.invoiceId])).map((r) => summaryOf(r, scope));
 }
 
 export async function listCreditNotes(scope: Scope, q: ListQuery): Promise<Page<CreditNoteSummaryDto>> {
@@ -106,7 +110,7 @@ export async function listCreditNotes(scope: Scope, q: ListQuery): Promise<Page<
   if (q.to) add((n) => `cn.tax_point <= ${arg(n)}::date`, q.to);
   if (q.q) add((n) => `(cn.number ILIKE ${arg(n)} OR i.number ILIKE ${arg(n)} OR c.name ILIKE ${arg(n)})`, `%${q.q.replace(/[%_\\]/g, '\\$&')}%`);
   const rows = await creditRows(scope, where, bind, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
-  return { items: rows.map(summaryOf), total: rows[0] ? Number(rows[0].total) : 0, page: q.page, pageSize: q.pageSize };
+  return { items: rows.map((r) => summaryOf(r, scope)), total: rows[0] ? Number(rows[0].total) : 0, page: q.page, pageSize: q.pageSize };
 }
 
 export async function getCreditNote(scope: Scope, id: string): Promise<CreditNoteDto> {
@@ -114,7 +118,7 @@ export async function getCreditNote(scope: Scope, id: string): Promise<CreditNot
   if (!row) throw notFound('That credit note');
   const cn = await CreditNote.findByPk(row.id);
   if (!cn) throw notFound('That credit note');
-  return { ...summaryOf(row), document: cn.document };
+  return { ...summaryOf(row, scope), document: cn.document };
 }
 
 /** The invoice by id in the caller's workshop, its job locked first (lock order: job, then its rows). */

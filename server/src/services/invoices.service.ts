@@ -21,6 +21,7 @@ import {
   type InvoicePaymentDto,
   type InvoicePreviewDto,
   type InvoiceSummaryDto,
+  type DocumentEmailState,
   type JobState,
   type Page,
   type ReceiptDocument,
@@ -245,6 +246,9 @@ interface InvoiceRow {
   gross: string;
   credited: string;
   received: string;
+  paid: string;
+  refunded: string;
+  email: DocumentEmailState;
   total: string;
 }
 
@@ -266,6 +270,9 @@ async function invoiceRows(scope: Scope, where: string[], bind: unknown[], page?
             i.due_on::text AS due_on, i.currency, i.gross::text AS gross,
             COALESCE((SELECT SUM(cn.gross) FROM credit_notes cn WHERE cn.invoice_id = i.id), 0)::text AS credited,
             (SELECT COALESCE(SUM(p.amount - p.refunded), 0) FROM payments p WHERE p.job_id = i.job_id AND p.state IN ('succeeded', 'partially_refunded'))::text AS received,
+            (SELECT COALESCE(SUM(p.amount), 0) FROM payments p WHERE p.job_id = i.job_id AND p.state IN ('succeeded', 'partially_refunded', 'refunded'))::text AS paid,
+            (SELECT COALESCE(SUM(p.refunded), 0) FROM payments p WHERE p.job_id = i.job_id AND p.state IN ('succeeded', 'partially_refunded', 'refunded'))::text AS refunded,
+            CASE WHEN i.mailed_at IS NOT NULL THEN 'done' WHEN i.mail_given_up_at IS NOT NULL THEN 'not_sent' ELSE 'waiting' END AS email,
             (SELECT count(*) FROM f)::text AS total
        FROM pg JOIN invoices i ON i.id = pg.id JOIN jobs j ON j.id = i.job_id JOIN aircraft a ON a.id = j.aircraft_id JOIN customers c ON c.id = a.customer_id
       ORDER BY i.seq DESC`,
@@ -292,6 +299,8 @@ function summary(r: InvoiceRow): InvoiceSummaryDto {
     gross: r.gross,
     invoiced: formatAmount(invoiced, dp),
     received: formatAmount(new Dec(r.received), dp),
+    paid: formatAmount(new Dec(r.paid), dp),
+    refunded: formatAmount(new Dec(r.refunded), dp),
     due: formatAmount(Dec.max(invoiced.minus(r.received), 0), dp),
   };
 }
@@ -345,6 +354,7 @@ export async function getInvoice(scope: Scope, id: string): Promise<InvoiceDto> 
     creditNotes,
     payments: scope.role === 'owner' ? [] : await paymentsOf(row.job_id, row.currency),
     creditable: s.invoiced,
+    email: scope.role === 'owner' ? null : row.email,
   };
 }
 
@@ -358,10 +368,22 @@ export async function invoiceOfJob(scope: Scope, jobId: string): Promise<Invoice
 /**
  * A payment taken another way (bank transfer, cash, cheque) towards the invoice: recorded by
  * accounts with its date and reference; when what is received covers the invoice the job becomes paid.
+ * `alsoIn` runs in the same transaction once the payment is written: the route queues the owner's
+ * receipt there, so the payment and its receipt task commit together (a process that stops after
+ * the commit still sends the receipt; one that stops before it has recorded nothing).
  */
-export async function recordOfflinePayment(scope: Scope, jobId: string, input: OfflineInput): Promise<{ paymentId: string; invoice: InvoiceDto }> {
+export async function recordOfflinePayment(
+  scope: Scope,
+  jobId: string,
+  input: OfflineInput,
+  alsoIn?: (paymentId: string, t: Transaction) => Promise<void>,
+): Promise<{ paymentId: string; invoice: InvoiceDto }> {
   requireStaff(scope);
-  const paymentId = await inTransaction((t) => recordOfflinePaymentIn(scope, jobId, input, t));
+  const paymentId = await inTransaction(async (t) => {
+    const id = await recordOfflinePaymentIn(scope, jobId, input, t);
+    if (alsoIn) await alsoIn(id, t);
+    return id;
+  });
   const inv = await invoiceOfJob(scope, jobId);
   return { paymentId, invoice: inv! };
 }

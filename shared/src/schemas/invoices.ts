@@ -67,6 +67,13 @@ export const creditNoteListQuerySchema = listQuerySchema.extend({
   to: isoDate.optional(),
 });
 
+/**
+ * Where the owner's e-mail of an invoice or credit note stands, for staff (an owner gets null):
+ * `done` (queued to the owner, or the owner has no e-mail address), `waiting` (being tried),
+ * `not_sent` (its tries were given up: staff send it again).
+ */
+export type DocumentEmailState = 'done' | 'waiting' | 'not_sent';
+
 export interface CreditNoteSummaryDto {
   id: string;
   number: string;
@@ -83,6 +90,7 @@ export interface CreditNoteSummaryDto {
   gross: string;
   /** The refund paid with it, if any. */
   refunded: string | null;
+  email: DocumentEmailState | null;
 }
 
 export interface CreditNoteDto extends CreditNoteSummaryDto {
@@ -115,10 +123,13 @@ export interface InvoiceSummaryDto {
   dueOn: string;
   currency: string;
   gross: string;
-  /** The invoice after credit notes, what is received, and what is still owed. */
+  /** The invoice after credit notes, what is received (paid less refunded), and what is still owed. */
   invoiced: string;
   received: string;
   due: string;
+  /** Everything paid towards the job (deposits and balance) before refunds, and what was refunded of it. */
+  paid: string;
+  refunded: string;
 }
 
 export interface InvoiceDto extends InvoiceSummaryDto {
@@ -128,6 +139,7 @@ export interface InvoiceDto extends InvoiceSummaryDto {
   payments: InvoicePaymentDto[];
   /** Still creditable: the invoice after earlier credit notes. */
   creditable: string;
+  email: DocumentEmailState | null;
 }
 
 /** The invoice a job would get if issued now (no number yet). */

@@ -49,3 +49,12 @@ export function useCreditNote(jobId: string, invoiceId: string) {
   const refresh = useRefresh(jobId);
   return useMutation({ mutationFn: (body: CreditNoteInput) => api.post<CreditNoteDto>(`/invoices/${invoiceId}/credit-notes`, body), onSuccess: refresh });
 }
+
+/** "Send again": an invoice or credit note whose e-mail was given up is queued to the owner afresh. */
+export function useResendDocument(jobId: string) {
+  const refresh = useRefresh(jobId);
+  return useMutation({
+    mutationFn: (doc: { kind: 'invoice' | 'credit_note'; id: string }) => api.post<{ queued: true }>(`/${doc.kind === 'invoice' ? 'invoices' : 'credit-notes'}/${doc.id}/resend`, {}),
+    onSuccess: refresh,
+  });
+}

@@ -17,13 +17,14 @@ import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { InvoiceCreditNotesAndDocument, InvoiceDocumentView } from '@/components/invoice-document';
 import { Button } from '@/components/ui/button';
+import { refundCreditNotes } from '@/lib/paid-and-refunded';
 import { SelectField, TextField } from '@/components/ui/field';
 import { FormErrorSummary, Loading, Notice } from '@/components/ui/notice';
 import { Card } from '@/components/ui/page';
 import { isApiError } from '@/lib/api-client';
 import { formatDate, formatMoney, todayIso } from '@/lib/format';
 import { withServerErrors } from '@/lib/form-errors';
-import { invoicePreviewQueryOptions, jobInvoiceQueryOptions, useCreditNote, useIssueInvoice, useRecordPayment, useRefund } from '../api/invoices';
+import { invoicePreviewQueryOptions, jobInvoiceQueryOptions, useCreditNote, useIssueInvoice, useRecordPayment, useRefund, useResendDocument } from '../api/invoices';
 
 const mayIssue = (r: Role) => r === 'admin' || r === 'manager';
 const handlesMoney = (r: Role) => r === 'admin' || r === 'accounts';
@@ -98,18 +99,24 @@ function IssuedInvoice({ jobId, invoice, role }: { jobId: string; invoice: Invoi
   const c = invoice.currency;
   const [open, setOpen] = useState<'payment' | 'refund' | 'credit' | null>(null);
   const refundable = invoice.payments.filter((p) => p.refundable !== '0.00');
+  const refundNotes = refundCreditNotes(invoice);
   return (
     <Card title={`Invoice ${invoice.number}`}>
       <div className="flex flex-col gap-4">
-        <dl className="grid grid-cols-2 gap-2 sm:grid-cols-4" aria-label="Where the invoice stands">
+        <dl className="grid grid-cols-2 gap-2 sm:grid-cols-5" aria-label="Where the invoice stands">
           <Figure label="State" value={INVOICE_STATE_LABELS[invoice.state]} />
           <Figure label="Invoice after credit notes" value={formatMoney(invoice.invoiced, c)} />
-          <Figure label="Received" value={formatMoney(invoice.received, c)} />
+          <Figure label="Paid" value={formatMoney(invoice.paid, c)} />
+          {invoice.refunded !== '0.00' ? (
+            <Figure label={refundNotes.length ? `Refunded (${refundNotes.join(', ')})` : 'Refunded'} value={formatMoney(invoice.refunded, c)} />
+          ) : null}
           <Figure label="Still owed" value={formatMoney(invoice.due, c)} />
         </dl>
         <p className="flex flex-wrap gap-3 text-sm">
           <a href={`/api/invoices/${invoice.id}/pdf`}>Download the VAT invoice (PDF)</a>
+          {invoice.email === 'waiting' ? <span>Not e-mailed to the owner yet: it is being tried.</span> : null}
         </p>
+        <NotEmailed jobId={jobId} invoice={invoice} />
         {handlesMoney(role) ? (
           <div className="flex flex-wrap gap-2">
             {invoice.due !== '0.00' ? (
@@ -150,6 +157,42 @@ function IssuedInvoice({ jobId, invoice, role }: { jobId: string; invoice: Invoi
         <InvoiceCreditNotesAndDocument invoice={invoice} audience="staff" headingLevel="h3" />
       </div>
     </Card>
+  );
+}
+
+/**
+ * The documents of this invoice whose e-mail to the owner was given up (its PDF could not be made
+ * after several tries), each with "Send again", which clears the mark and tries afresh.
+ */
+function NotEmailed({ jobId, invoice }: { jobId: string; invoice: InvoiceDto }) {
+  const resend = useResendDocument(jobId);
+  const [problem, setProblem] = useState<string | null>(null);
+  const docs = [
+    ...(invoice.email === 'not_sent' ? [{ kind: 'invoice' as const, id: invoice.id, name: `Invoice ${invoice.number}` }] : []),
+    ...invoice.creditNotes.filter((cn) => cn.email === 'not_sent').map((cn) => ({ kind: 'credit_note' as const, id: cn.id, name: `Credit note ${cn.number}` })),
+  ];
+  if (!docs.length) return null;
+  return (
+    <div className="flex flex-col gap-2" data-testid="not-emailed">
+      {docs.map((d) => (
+        <Notice key={d.id} tone="problem" title={`${d.name}: not e-mailed — send again`}>
+          <p>The owner has not been sent it: its PDF could not be made after several tries, so we stopped trying. The document itself is issued and unchanged.</p>
+          <p className="mt-2">
+            <Button
+              variant="secondary"
+              busy={resend.isPending && resend.variables?.id === d.id}
+              onClick={() => {
+                setProblem(null);
+                resend.mutate({ kind: d.kind, id: d.id }, { onError: (e) => setProblem(isApiError(e) ? e.message : 'It was not sent. Please try again.') });
+              }}
+            >
+              Send again
+            </Button>
+          </p>
+        </Notice>
+      ))}
+      {problem ? <p role="alert" className="text-sm">{problem}</p> : null}
+    </div>
   );
 }
 

@@ -3,26 +3,23 @@ import { InvoiceCreditNotesAndDocument } from '@/components/invoice-document';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
-import { formatDate, formatMoney } from '@/lib/format';
+import { formatDate } from '@/lib/format';
 import type { InvoiceDto } from '@wingstage/shared';
+import { ownerInvoiceWords } from '@/lib/paid-and-refunded';
 import { openBalanceCheckout } from '../api/get-my-invoice';
 
 /** The owner's invoice for one job: what is left to pay, "Pay balance", the documents to keep, and any credit notes. */
 export function MyInvoice({ jobId, invoice: inv }: { jobId: string; invoice: InvoiceDto }) {
   const [opening, setOpening] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
-  const c = inv.currency;
   const owed = inv.due !== '0.00';
+  const words = ownerInvoiceWords(inv, formatDate);
   return (
     <section aria-label="Your invoice" data-testid="my-invoice" className="mt-3 flex flex-col gap-3 border-t border-seam pt-3">
       <h4 className="font-semibold">Your invoice {inv.number}</h4>
-      <p>
-        {owed
-          ? `Left to pay: ${formatMoney(inv.due, c)}, by ${formatDate(inv.dueOn)}.`
-          : inv.state === 'credited'
-            ? 'This invoice has been cancelled in full by a credit note. You owe nothing on it.'
-            : 'Paid in full. Thank you.'}{' '}
-        {inv.received !== '0.00' ? `You have paid ${formatMoney(inv.received, c)} so far.` : ''}
+      <p data-testid="my-invoice-standing">
+        <strong>{words.standing}</strong>
+        {words.paidLine ? ` ${words.paidLine}` : ''}
       </p>
       {problem ? <Notice tone="problem" title="The payment page did not open">{problem}</Notice> : null}
       <div className="flex flex-wrap items-center gap-3">
