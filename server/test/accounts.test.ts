@@ -4,10 +4,10 @@ import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { startStripeFake, type RunningFake } from '@wingstage/stripe-fake';
 import { Dec } from '@wingstage/shared';
-import { AuditEvent, Customer, boundSequelize } from '../src/models/index.js';
+import { Aircraft, AuditEvent, Customer, boundSequelize } from '../src/models/index.js';
 import { reconcilePayout, syncPayouts } from '../src/accounts/payouts.js';
 import { guardText } from '../src/accounts/csv.js';
-import { makeWorkshop, signIn, startTestServer, waitForMail, TEST_STRIPE_KEY, TEST_WEBHOOK_SECRET, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
+import { makeJob, makeWorkshop, signIn, startTestServer, waitForMail, TEST_STRIPE_KEY, TEST_WEBHOOK_SECRET, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 import { cardPayment, cardRefund, creditNote, depositRequest, invoice, offlinePayment } from './accounts-fixtures.js';
 
 let fake: RunningFake;
@@ -322,5 +322,48 @@ describe('aged debt', () => {
     expect(await AuditEvent.count({ where: { jobId: j1.id, action: 'accounts.debt_reminder' } })).toBe(1);
     expect((await acc.post('/api/accounts/aged-debt/reminders', { customerId: 'not-an-id' })).status).toBe(400);
     expect((await accounts.post('/api/accounts/aged-debt/reminders', { customerId: w.owners[0].customer.id })).status).toBe(404);
+  });
+});
+
+describe('aged debt, paged', () => {
+  it('when the list runs over several pages, then the pages joined equal the whole list, and every page carries the totals of all owners', async () => {
+    const w = await makeWorkshop('Aged pages');
+    const acc = await signIn(server.app, w.users.accounts.email);
+    const daysAgo = (n: number) => new Date(Date.now() - n * 86_400_000).toISOString().slice(0, 10);
+    // Nine owners in all, owing in every column; two invoices for one owner so a page is cut by owner, not by invoice.
+    const owners = [w.owners[0].job, w.owners[1].job];
+    for (let n = 3; n <= 9; n++) {
+      const customer = await Customer.create({ workshopId: w.workshop.id, name: `Owner ${String.fromCharCode(64 + n)} paged`, email: `paged${n}-${w.workshop.id.slice(0, 6)}@test.example` });
+      const aircraft = await Aircraft.create({ workshopId: w.workshop.id, customerId: customer.id, registration: `Q-PG${n}${w.workshop.id.slice(0, 2).toUpperCase()}`, type: 'Two-seat flex-wing trike', airframeHours: '10.0' });
+      owners.push(await makeJob(w.workshop.id, aircraft.id));
+    }
+    const ages = [5, 40, 75, 120, 0, 33, 61, 95, 200];
+    for (const [i, job] of owners.entries()) {
+      const gross = new Dec(i + 1).times('123.45');
+      // VAT fraction 1/6 of a standard-rated gross [HMRC VAT Notice 700]; net is the rest.
+      const vat = gross.dividedBy(6).toDecimalPlaces(2);
+      await invoice(job, { net: gross.minus(vat).toFixed(2), vat: vat.toFixed(2), gross: gross.toFixed(2), taxPoint: daysAgo(ages[i]! + 30), dueOn: daysAgo(ages[i]!) });
+    }
+    await invoice(await makeJob(w.workshop.id, owners[2]!.aircraftId), { net: '50.00', vat: '10.00', gross: '60.00', taxPoint: daysAgo(10), dueOn: daysAgo(-20) });
+
+    const whole = (await acc.get('/api/accounts/aged-debt?pageSize=200')).body;
+    expect(whole.ownerCount).toBe(9);
+    expect(whole.rows).toHaveLength(9);
+    expect(new Set(whole.rows.map((r: { customerId: string }) => r.customerId)).size).toBe(9);
+    const joined: unknown[] = [];
+    for (let page = 1; page <= 5; page++) {
+      const res = await acc.get(`/api/accounts/aged-debt?page=${page}&pageSize=2`);
+      expect(res.status).toBe(200);
+      expect(res.body).toMatchObject({ page, pageSize: 2, ownerCount: 9, totals: whole.totals });
+      joined.push(...res.body.rows);
+    }
+    expect(joined).toEqual(whole.rows);
+    // The totals are those of every owner's row, summed by decimal.
+    const sum = (key: 'd0_30' | 'd31_60' | 'd61_90' | 'over90') => whole.rows.reduce((a: Dec, r: { buckets: Record<string, string> }) => a.plus(r.buckets[key]!), new Dec(0)).toFixed(2);
+    expect(whole.totals).toEqual({ d0_30: sum('d0_30'), d31_60: sum('d31_60'), d61_90: sum('d61_90'), over90: sum('over90'), total: whole.rows.reduce((a: Dec, r: { total: string }) => a.plus(r.total), new Dec(0)).toFixed(2) });
+    // Past the end: no rows, the same totals.
+    expect((await acc.get('/api/accounts/aged-debt?page=9&pageSize=2')).body).toMatchObject({ rows: [], ownerCount: 9, totals: whole.totals });
+    expect((await acc.get('/api/accounts/aged-debt?page=0')).status).toBe(400);
+    expect((await acc.get('/api/accounts/aged-debt?pageSize=abc')).status).toBe(400);
   });
 });

@@ -2,6 +2,7 @@ import { Router, type RequestHandler } from 'express';
 import {
   EXCEPTION_KIND_LABELS,
   LEDGER_KIND_LABELS,
+  agedDebtQuerySchema,
   agedDebtReminderSchema,
   exceptionListQuerySchema,
   exceptionResolveSchema,
@@ -122,8 +123,8 @@ export function accountsRoutes(deps: Deps): Router {
     res.json(await resolveException(scopeOf(req), validParams(req, idParamsSchema).id, validBody(req, exceptionResolveSchema).note));
   });
 
-  router.get('/aged-debt', ...read, async (req, res) => {
-    res.json(await agedDebt(scopeOf(req), currencyOf(req)));
+  router.get('/aged-debt', ...read, validate({ query: agedDebtQuerySchema }), async (req, res) => {
+    res.json(await agedDebt(scopeOf(req), currencyOf(req), validQuery(req, agedDebtQuerySchema)));
   });
   router.post('/aged-debt/reminders', ...write, validate({ body: agedDebtReminderSchema }), async (req, res) => {
     const w = req.auth!.workshop;

@@ -51,6 +51,13 @@ export const exceptionResolveSchema = z.object({
 });
 export type ExceptionResolveInput = z.input<typeof exceptionResolveSchema>;
 
+/** A page of the aged-debt list (owners by name); the totals always cover every owner. */
+export const agedDebtQuerySchema = z.object({
+  page: z.coerce.number({ message: 'Page must be a whole number.' }).int().min(1).max(100_000).optional().default(1),
+  pageSize: z.coerce.number({ message: 'Page size must be a whole number.' }).int().min(1).max(200).optional().default(50),
+});
+export type AgedDebtQuery = z.output<typeof agedDebtQuerySchema>;
+
 export const agedDebtReminderSchema = z.object({
   customerId: z.uuid({ message: 'Choose one from the list.' }),
 });
@@ -146,7 +153,13 @@ export interface AgedDebtRowDto {
 export interface AgedDebtDto {
   asOf: string;
   currency: string;
+  /** One page of owners, by name. */
   rows: AgedDebtRowDto[];
+  page: number;
+  pageSize: number;
+  /** Owners who owe anything, on every page. */
+  ownerCount: number;
+  /** Over every owner, not only this page's. */
   totals: { d0_30: string; d31_60: string; d61_90: string; over90: string; total: string };
 }
 

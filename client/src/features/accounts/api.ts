@@ -12,7 +12,7 @@ export const accountKeys = {
   payouts: () => ['accounts', 'payouts'] as const,
   payout: (id: string) => ['accounts', 'payouts', id] as const,
   exceptions: (state: string) => ['accounts', 'exceptions', state] as const,
-  agedDebt: () => ['accounts', 'aged-debt'] as const,
+  agedDebt: (page = 1) => ['accounts', 'aged-debt', page] as const,
   vat: (from: string, to: string) => ['accounts', 'vat', from, to] as const,
   weekly: () => ['accounts', 'weekly'] as const,
 };
@@ -23,7 +23,10 @@ export const payoutsQuery = () => queryOptions({ queryKey: accountKeys.payouts()
 export const payoutQuery = (id: string) => queryOptions({ queryKey: accountKeys.payout(id), queryFn: ({ signal }) => api.get<PayoutDetailDto>(`/accounts/payouts/${id}`, undefined, signal) });
 export const exceptionsQuery = (state: 'open' | 'resolved' | 'all') =>
   queryOptions({ queryKey: accountKeys.exceptions(state), queryFn: ({ signal }) => api.get<AccountExceptionDto[]>('/accounts/exceptions', { state }, signal) });
-export const agedDebtQuery = () => queryOptions({ queryKey: accountKeys.agedDebt(), queryFn: ({ signal }) => api.get<AgedDebtDto>('/accounts/aged-debt', undefined, signal) });
+/** One page of owners (50 a page); the totals cover every owner. */
+export const agedDebtQuery = (page = 1) =>
+  queryOptions({ queryKey: accountKeys.agedDebt(page), queryFn: ({ signal }) => api.get<AgedDebtDto>('/accounts/aged-debt', { page, pageSize: AGED_DEBT_PAGE_SIZE }, signal), placeholderData: keepPreviousData });
+export const AGED_DEBT_PAGE_SIZE = 50;
 export const vatQuery = (from: string, to: string) =>
   queryOptions({ queryKey: accountKeys.vat(from, to), queryFn: ({ signal }) => api.get<VatSummaryDto>('/accounts/vat-summary', { from, to }, signal), retry: false });
 export const weeklyQuery = () => queryOptions({ queryKey: accountKeys.weekly(), queryFn: ({ signal }) => api.get<WeeklyMoneyDto>('/accounts/weekly', undefined, signal) });

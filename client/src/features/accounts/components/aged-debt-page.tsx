@@ -1,4 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Pager } from '@/components/ui/pager';
 import { Card, PageHeader } from '@/components/ui/page';
 import { Loading, Notice } from '@/components/ui/notice';
 import { Button } from '@/components/ui/button';
@@ -16,7 +18,8 @@ const COLUMNS = [
 ] as const;
 
 export function AgedDebtPage() {
-  const q = useQuery(agedDebtQuery());
+  const [page, setPage] = useState(1);
+  const q = useQuery(agedDebtQuery(page));
   const remind = useSendReminder();
   const d = q.data;
   return (
@@ -28,9 +31,10 @@ export function AgedDebtPage() {
       <Card title={d ? `${W.agedDebt.title} on ${formatDate(d.asOf)}` : W.agedDebt.title}>
         {!d ? (
           <Loading />
-        ) : d.rows.length === 0 ? (
+        ) : d.ownerCount === 0 ? (
           <p>No owner owes anything on an issued invoice.</p>
         ) : (
+          <div className="flex flex-col gap-3">
           <div className="relative overflow-x-auto">
             <table className="w-full min-w-[48rem] border-collapse">
               <caption className="sr-only">Days are counted from each invoice's due date; an invoice not yet due counts in 0–30 days.</caption>
@@ -61,13 +65,15 @@ export function AgedDebtPage() {
               </tbody>
               <tfoot className="border-t-2 border-seam-strong font-semibold">
                 <tr>
-                  <th scope="row" className={th}>All owners</th>
+                  <th scope="row" className={th}>All {d.ownerCount} {d.ownerCount === 1 ? 'owner' : 'owners'} (every page)</th>
                   {COLUMNS.map((c) => <td key={c.key} className={tdNum}><Money amount={d.totals[c.key]} currency={d.currency} /></td>)}
                   <td className={tdNum}><Money amount={d.totals.total} currency={d.currency} /></td>
                   <td />
                 </tr>
               </tfoot>
             </table>
+          </div>
+          <Pager label="Aged debt: pages" page={d.page} pageSize={d.pageSize} total={d.ownerCount} onPage={setPage} />
           </div>
         )}
       </Card>
