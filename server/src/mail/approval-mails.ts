@@ -76,7 +76,8 @@ function decisionLines(s: ApprovalSnapshot, decisions: DecidedItem[], figures: P
   ];
 }
 
-export function approvalReceiptMail(p: {
+/** What both decision e-mails are written from: the owner's confirmed decisions on one request. */
+interface DecisionMailFacts {
   to: string;
   typedName: string;
   snapshot: ApprovalSnapshot;
@@ -85,7 +86,9 @@ export function approvalReceiptMail(p: {
   figures: PricedChoice;
   declinedAirworthiness: string[];
   link: string;
-}): MailMessage {
+}
+
+export function approvalReceiptMail(p: DecisionMailFacts): MailMessage {
   const s = p.snapshot;
   const lines = [
     `Hello ${p.typedName},`,
@@ -102,17 +105,7 @@ export function approvalReceiptMail(p: {
 }
 
 /** To the job's managers: what the owner decided, with a strong first line when it needs a call. */
-export function decisionToStaffMail(p: {
-  to: string;
-  staffName: string;
-  typedName: string;
-  snapshot: ApprovalSnapshot;
-  decidedAt: Date;
-  decisions: DecidedItem[];
-  figures: PricedChoice;
-  declinedAirworthiness: string[];
-  link: string;
-}): MailMessage {
+export function decisionToStaffMail(p: DecisionMailFacts & { staffName: string }): MailMessage {
   const s = p.snapshot;
   const notes = p.decisions.filter((d) => d.note);
   const strong = [

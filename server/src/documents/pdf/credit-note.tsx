@@ -1,6 +1,6 @@
 import { Text } from '@react-pdf/renderer';
 import type { CreditNoteDocument } from '@wingstage/shared';
-import { CustomerAndFacts, DocumentFrame, H2, Notice, P, Sums, Table, day, money, s, type Row } from './kit.js';
+import { H2, Notice, P, Sums, Table, VatDocumentFrame, day, money, s, type Row } from './kit.js';
 import { methodWords, percent } from './invoice.js';
 
 /**
@@ -11,23 +11,21 @@ import { methodWords, percent } from './invoice.js';
 export function CreditNotePdf({ doc }: { doc: CreditNoteDocument }) {
   const c = doc.currency;
   return (
-    <DocumentFrame
+    <VatDocumentFrame
       title="Credit note"
       reference={doc.number}
       subject={`Credit note ${doc.number} against VAT invoice ${doc.invoice.number}`}
-      letterhead={{ ...doc.supplier }}
+      supplier={doc.supplier}
+      heading="Credit to"
+      customer={doc.customer}
+      job={doc.job}
+      facts={[
+        ['Credit note number', doc.number],
+        ['Date of issue', day(doc.issuedOn)],
+        ['Tax point', day(doc.taxPoint)],
+        ['Against VAT invoice', `${doc.invoice.number}, issued ${day(doc.invoice.issuedOn)}`],
+      ]}
     >
-      <CustomerAndFacts
-        heading="Credit to"
-        customer={doc.customer}
-        job={doc.job}
-        facts={[
-          ['Credit note number', doc.number],
-          ['Date of issue', day(doc.issuedOn)],
-          ['Tax point', day(doc.taxPoint)],
-          ['Against VAT invoice', `${doc.invoice.number}, issued ${day(doc.invoice.issuedOn)}`],
-        ]}
-      />
 
       <H2>Why this credit is given</H2>
       <P>{doc.reason}</P>
@@ -82,6 +80,6 @@ export function CreditNotePdf({ doc }: { doc: CreditNoteDocument }) {
           ))}
         </Notice>
       )}
-    </DocumentFrame>
+    </VatDocumentFrame>
   );
 }

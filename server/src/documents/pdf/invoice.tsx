@@ -1,7 +1,7 @@
 import Decimal from 'decimal.js';
 import { Text } from '@react-pdf/renderer';
 import { PAYMENT_METHOD_LABELS, type InvoiceDocument, type InvoiceDocumentLine } from '@wingstage/shared';
-import { CustomerAndFacts, DocumentFrame, H2, Notice, P, Sums, Table, day, money, quantity, s, type Column, type Row } from './kit.js';
+import { H2, Notice, P, Sums, Table, VatDocumentFrame, day, money, quantity, s, type Column, type Row } from './kit.js';
 
 /** A payment method in words (the shared labels; a method stored before a label existed prints as stored). */
 export const methodWords = (m: string) => (PAYMENT_METHOD_LABELS as Record<string, string>)[m] ?? m;
@@ -61,23 +61,21 @@ export function InvoicePdf({ doc }: { doc: InvoiceDocument }) {
   const zeroRated = doc.byRate.some((r) => /^0(\.0+)?$/.test(r.vatPercent) && !/^0(\.0+)?$/.test(r.net));
 
   return (
-    <DocumentFrame
+    <VatDocumentFrame
       title="VAT invoice"
       reference={doc.number}
       subject={`VAT invoice ${doc.number} for job ${doc.job.number}, ${doc.job.registration}`}
-      letterhead={{ ...doc.supplier }}
+      supplier={doc.supplier}
+      heading="Invoice to"
+      customer={doc.customer}
+      job={doc.job}
+      facts={[
+        ['Invoice number', doc.number],
+        ['Date of issue', day(doc.issuedOn)],
+        ['Tax point (time of supply)', day(doc.taxPoint)],
+        ['Payment due by', day(doc.dueOn)],
+      ]}
     >
-      <CustomerAndFacts
-        heading="Invoice to"
-        customer={doc.customer}
-        job={doc.job}
-        facts={[
-          ['Invoice number', doc.number],
-          ['Date of issue', day(doc.issuedOn)],
-          ['Tax point (time of supply)', day(doc.taxPoint)],
-          ['Payment due by', day(doc.dueOn)],
-        ]}
-      />
 
       <H2>What this invoice is for</H2>
       <Table columns={columns} rows={rows} empty="No lines." />
@@ -154,7 +152,7 @@ export function InvoicePdf({ doc }: { doc: InvoiceDocument }) {
           ))}
         </Notice>
       )}
-    </DocumentFrame>
+    </VatDocumentFrame>
   );
 }
 

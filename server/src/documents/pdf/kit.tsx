@@ -230,6 +230,29 @@ export function CustomerAndFacts({
   );
 }
 
+/**
+ * The opening of a VAT document (invoice, credit note): the frame with the supplier's letterhead, and
+ * the customer beside the document's own facts. The rest of the document comes as children.
+ */
+export function VatDocumentFrame(p: {
+  title: string;
+  reference: string;
+  subject: string;
+  supplier: Letterhead;
+  heading: string;
+  customer: DocumentParty & { email: string | null };
+  job: DocumentJob;
+  facts: [string, ReactNode][];
+  children: ReactNode;
+}) {
+  return (
+    <DocumentFrame title={p.title} reference={p.reference} subject={p.subject} letterhead={{ ...p.supplier }}>
+      <CustomerAndFacts heading={p.heading} customer={p.customer} job={p.job} facts={p.facts} />
+      {p.children}
+    </DocumentFrame>
+  );
+}
+
 // ---- tables ----
 
 export interface Column {
