@@ -41,4 +41,12 @@ describe('aged debt page', () => {
     const asked = fetchMock.mock.calls.map(([u]) => new URL(String(u), 'http://x').searchParams);
     expect(asked.map((q) => [q.get('page'), q.get('pageSize')])).toEqual([['1', '50'], ['2', '50']]);
   });
+
+  it('when every owner fits one page, then there is no pager and the foot reads all owners', async () => {
+    fetchMock.mockResolvedValue(jsonResponse({ ...page(1, [owner(1)]), ownerCount: 1 }));
+    renderWithApp(<AgedDebtPage />);
+    const foot = within((await screen.findByRole('table')).querySelector('tfoot')!);
+    expect(foot.getByText('All owners')).toBeTruthy();
+    expect(screen.queryByRole('navigation', { name: 'Aged debt: pages' })).toBeNull();
+  });
 });

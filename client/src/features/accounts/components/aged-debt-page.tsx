@@ -65,7 +65,7 @@ export function AgedDebtPage() {
               </tbody>
               <tfoot className="border-t-2 border-seam-strong font-semibold">
                 <tr>
-                  <th scope="row" className={th}>All {d.ownerCount} {d.ownerCount === 1 ? 'owner' : 'owners'} (every page)</th>
+                  <th scope="row" className={th}>{d.ownerCount > d.pageSize ? `All ${d.ownerCount} owners (every page)` : 'All owners'}</th>
                   {COLUMNS.map((c) => <td key={c.key} className={tdNum}><Money amount={d.totals[c.key]} currency={d.currency} /></td>)}
                   <td className={tdNum}><Money amount={d.totals.total} currency={d.currency} /></td>
                   <td />
