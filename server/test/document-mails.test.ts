@@ -89,7 +89,7 @@ describe('invoice and credit-note e-mails', () => {
     expect(await sendDocumentMail(server.parts, { kind: 'credit_note', id: randomUUID() })).toBe('gone');
   });
 
-  it('when an invoice’s PDF can never be made, then each try is counted, the last one gives up with one warning, the sweep leaves it and staff see it not e-mailed; Send again, raced six times, mails it once', async () => {
+  it('when an invoice’s PDF can never be made, then each try is counted, the last one gives up with one warning, the sweep leaves it and staff see it not e-mailed; Resend, raced six times, mails it once', async () => {
     const s = await setup('Given up document');
     const other = await setup('Given up elsewhere');
     const owner = s.owner;
@@ -138,7 +138,7 @@ describe('invoice and credit-note e-mails', () => {
     expect(again.body.error.message).toBe('That invoice has already been e-mailed to the owner.');
   }, 90_000);
 
-  it('when a credit note’s last try fails, then it is given up and shown on its invoice; Send again mails it once it renders', async () => {
+  it('when a credit note’s last try fails, then it is given up and shown on its invoice; Resend mails it once it renders', async () => {
     const s = await setup('Given up credit note');
     const job = await readyJob(s);
     const inv = await issueInvoice(s.managerScope, job.id, {});

@@ -133,7 +133,7 @@ export async function sendDocumentMail(deps: Pick<Deps, 'mail' | 'logger'>, task
 }
 
 /**
- * Staff's "Send again" for a document not yet e-mailed (given up, or still waiting): its tries and
+ * Staff's "Resend" for a document not yet e-mailed (given up, or still waiting): its tries and
  * give-up mark are cleared, in the workshop's scope (another workshop's id is 404), and its task is
  * queued afresh once that commits. A document already e-mailed is refused: the owner has it.
  */

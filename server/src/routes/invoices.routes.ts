@@ -40,7 +40,7 @@ export function invoicesRoutes(deps: Deps): Router {
     await queueDocumentMail(deps, { kind: 'credit_note', id: cn.id });
     res.status(201).json(cn);
   });
-  // "Send again": an invoice whose e-mail was given up (or is still waiting) is queued afresh.
+  // "Resend": an invoice whose e-mail was given up (or is still waiting) is queued afresh.
   router.post('/:id/resend', authorize(config, ...STAFF_ROLES), validate({ params: idParamsSchema }), async (req, res) => {
     await resendDocumentMail(deps, scopeOf(req), { kind: 'invoice', id: validParams(req, idParamsSchema).id });
     res.status(202).json({ queued: true });

@@ -50,7 +50,7 @@ export function useCreditNote(jobId: string, invoiceId: string) {
   return useMutation({ mutationFn: (body: CreditNoteInput) => api.post<CreditNoteDto>(`/invoices/${invoiceId}/credit-notes`, body), onSuccess: refresh });
 }
 
-/** "Send again": an invoice or credit note whose e-mail was given up is queued to the owner afresh. */
+/** "Resend": an invoice or credit note whose e-mail was given up is queued to the owner afresh. */
 export function useResendDocument(jobId: string) {
   const refresh = useRefresh(jobId);
   return useMutation({

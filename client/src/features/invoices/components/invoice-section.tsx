@@ -162,7 +162,7 @@ function IssuedInvoice({ jobId, invoice, role }: { jobId: string; invoice: Invoi
 
 /**
  * The documents of this invoice whose e-mail to the owner was given up (its PDF could not be made
- * after several tries), each with "Send again", which clears the mark and tries afresh.
+ * after several tries), each with "Resend", which clears the mark and tries afresh.
  */
 function NotEmailed({ jobId, invoice }: { jobId: string; invoice: InvoiceDto }) {
   const resend = useResendDocument(jobId);
@@ -175,7 +175,7 @@ function NotEmailed({ jobId, invoice }: { jobId: string; invoice: InvoiceDto }) 
   return (
     <div className="flex flex-col gap-2" data-testid="not-emailed">
       {docs.map((d) => (
-        <Notice key={d.id} tone="problem" title={`${d.name}: not e-mailed — send again`}>
+        <Notice key={d.id} tone="problem" title={`${d.name}: not e-mailed`}>
           <p>The owner has not been sent it: its PDF could not be made after several tries, so we stopped trying. The document itself is issued and unchanged.</p>
           <p className="mt-2">
             <Button
@@ -186,7 +186,7 @@ function NotEmailed({ jobId, invoice }: { jobId: string; invoice: InvoiceDto }) 
                 resend.mutate({ kind: d.kind, id: d.id }, { onError: (e) => setProblem(isApiError(e) ? e.message : 'It was not sent. Please try again.') });
               }}
             >
-              Send again
+              Resend
             </Button>
           </p>
         </Notice>
