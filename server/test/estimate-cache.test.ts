@@ -6,7 +6,7 @@ import { QUOTE_ITEM_ID, type AccessTaskInput, type EstimateDto, type EstimateLin
 import type { Scope } from '../src/services/scope.js';
 import { getEstimate } from '../src/services/estimates.service.js';
 import { expireDue } from '../src/services/approvals/index.js';
-import { EstimateAnswers, encodingFor } from '../src/routes/estimate-read.js';
+import { EstimateAnswers, encodingFor, tagOf } from '../src/routes/estimate-read.js';
 import { ApprovalRequest, Job, User, boundSequelize } from '../src/models/index.js';
 import { decideTokenFromMail, makeJob, makeWorkshop, signIn, startTestServer, type Client, type TestServer, type WorkshopFixture } from './helpers.js';
 
@@ -298,7 +298,9 @@ describe('what the kept answer is sent as', () => {
   it('when the browser revalidates its copy, then 304 while the estimate is unchanged and the new answer after a write', async () => {
     const first = await manager.get(url).set('Accept-Encoding', 'gzip');
     const tag = first.headers.etag as string;
-    expect(tag).toMatch(/^"[^"]+"$/);
+    expect(tag).toMatch(/^"[A-Za-z0-9_-]{24}\.gzip"$/);
+    // The tag does not carry the key's revision numbers.
+    expect(tag).not.toContain(job.id);
     const again = await manager.get(url).set('Accept-Encoding', 'gzip').set('If-None-Match', tag);
     expect(again.status).toBe(304);
     // The owner's answer differs from the staff's: the staff's tag never revalidates it.
@@ -334,7 +336,8 @@ describe('the bound on kept answers', () => {
     const answers = new EstimateAnswers(bound);
     const keys: string[] = [];
     for (let i = 0; i < 10; i += 1) {
-      const held = { key: `${randomUUID()}.s.${i}.1`, identity: body };
+      const k = `${randomUUID()}.s.${i}.1`;
+      const held = { key: k, tag: tagOf(k), identity: body };
       keys.push(held.key);
       answers.keep(held);
       await answers.encoded(held, 'gzip');
@@ -347,7 +350,7 @@ describe('the bound on kept answers', () => {
     expect(answers.find(keys[0]!)).toBeUndefined();
     // One answer larger than the whole bound is not kept at all.
     const tiny = new EstimateAnswers(1000);
-    tiny.keep({ key: `${randomUUID()}.s.1.1`, identity: body });
+    tiny.keep({ key: `${randomUUID()}.s.1.1`, tag: tagOf(`${randomUUID()}.s.1.1`), identity: body });
     expect(tiny.size).toBe(0);
     expect(tiny.bytes).toBe(0);
   });
@@ -356,7 +359,7 @@ describe('the bound on kept answers', () => {
     const body = Buffer.from(JSON.stringify(await getEstimate(scopeOf(a.users.manager), job.id)));
     const answers = new EstimateAnswers(10 * 1024 * 1024);
     const jobId = randomUUID();
-    const held = { key: `${jobId}.s.1.1`, identity: body };
+    const held = { key: `${jobId}.s.1.1`, tag: tagOf(`${jobId}.s.1.1`), identity: body };
     answers.keep(held);
     const plain = answers.bytes;
     const gz = await answers.encoded(held, 'gzip');
@@ -364,7 +367,7 @@ describe('the bound on kept answers', () => {
     expect(answers.bytes).toBe(plain + gz.length);
     expect(answers.find(`${jobId}.s.1.1`)).toBe(held);
     expect(answers.find(`${jobId}.s.2.1`)).toBeUndefined();
-    answers.keep({ key: `${jobId}.s.2.1`, identity: body });
+    answers.keep({ key: `${jobId}.s.2.1`, tag: tagOf(`${jobId}.s.2.1`), identity: body });
     expect(answers.size).toBe(1);
     expect(answers.find(`${jobId}.s.1.1`)).toBeUndefined();
   });

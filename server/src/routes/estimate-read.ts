@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { promisify } from 'node:util';
 import zlib from 'node:zlib';
 import type { Request, RequestHandler, Response } from 'express';
@@ -14,6 +15,8 @@ const brotli = promisify(zlib.brotliCompress);
 /** One answer as sent: the JSON's bytes, and each compressed form once a client has asked for it. */
 interface StoredAnswer {
   key: string;
+  /** The ETag's base: a digest of the key, so the tag does not show the database's revision numbers. */
+  tag: string;
   identity: Buffer;
   gzip?: Buffer;
   br?: Buffer;
@@ -104,6 +107,10 @@ export class EstimateAnswers {
   }
 }
 
+export function tagOf(key: string): string {
+  return createHash('sha256').update(key).digest('base64url').slice(0, 24);
+}
+
 /** job id and audience: one answer per pair is kept, the newest made. */
 function slotOf(key: string): string {
   return key.split('.', 2).join('.');
@@ -150,7 +157,7 @@ async function send(req: Request, res: Response, answers: EstimateAnswers, a: St
   res.setHeader('Cache-Control', 'private, no-cache');
   res.setHeader('Content-Type', 'application/json; charset=utf-8');
   // 'other': compression makes the bytes, so the tag only says the content is the same.
-  res.setHeader('ETag', enc === 'other' ? `W/"${a.key}"` : `"${a.key}.${enc}"`);
+  res.setHeader('ETag', enc === 'other' ? `W/"${a.tag}"` : `"${a.tag}.${enc}"`);
   if (req.fresh) {
     res.status(304).end();
     return;
@@ -190,7 +197,7 @@ export function estimateRead(config: Config, roles: readonly Role[], answers: Es
       const got = await readEstimateSignedIn(claims, jobId);
       if (!got?.key) return null;
       acceptSession(claims, got.session, roles);
-      const made: StoredAnswer = { key: got.key, identity: Buffer.from(JSON.stringify(got.answer())) };
+      const made: StoredAnswer = { key: got.key, tag: tagOf(got.key), identity: Buffer.from(JSON.stringify(got.answer())) };
       answers.keep(made);
       return made;
     };
