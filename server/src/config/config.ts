@@ -124,6 +124,11 @@ const configSchema = z
      * deployment must use the same one (they then share each limit); tests give each server its own.
      */
     RATE_LIMIT_NAMESPACE: z.string().regex(/^[A-Za-z0-9_.-]{1,40}$/, { message: 'RATE_LIMIT_NAMESPACE: 1–40 letters, digits, dots, dashes or underscores.' }).default('wingstage'),
+    /**
+     * Megabytes of estimate answers each app process keeps (GET /api/jobs/:id/estimate), checked
+     * against PostgreSQL on every request; 0 reads and prices the estimate on every request.
+     */
+    ESTIMATE_ANSWERS_MB: z.coerce.number().min(0).max(4096).default(32),
     /** Worker threads that check and hash passwords (default: one fewer than the machine's cores, at least one). */
     PASSWORD_THREADS: z.coerce.number().int().min(1).max(64).optional(),
     /** Passwords that may wait for a worker thread; a sign-in past that is answered 503 with Retry-After. */

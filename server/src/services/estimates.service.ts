@@ -148,8 +148,45 @@ async function estimateDto(scope: Scope, jobId: string, t?: Transaction): Promis
 /** An estimate line as the one-statement read's JSON carries it: numbers as decimal strings, times as text. */
 type LineJson = Omit<EstimateLineDto, 'agreedAt'> & { agreedAt: string | null; agreedBy: string | null };
 
-type EstimateReadRow = SessionRow & {
+/** What the estimate answer's key is made of (estimateAnswerKey), beside the session row. */
+export type EstimateKeyRow = SessionRow & {
   j_id: string | null;
+  /** bigint as text; null while the job has no estimate row (the ordinary read makes it). */
+  est_revision: string | null;
+  pricing_revision: string;
+};
+
+/**
+ * The key of one estimate answer: the job, who reads it (an owner's answer has buying costs
+ * blanked; every staff role reads the same), the estimate's revision and the workshop's pricing
+ * revision. PostgreSQL changes one of the two revisions in the transaction of every write that can
+ * change the answer (migration 0200), and nothing else goes into the answer: it reads no clock.
+ */
+export function estimateAnswerKey(r: Pick<EstimateKeyRow, 'j_id' | 'role' | 'est_revision' | 'pricing_revision'>): string | null {
+  if (!r.j_id || r.est_revision === null) return null;
+  return `${r.j_id}.${r.role === 'owner' ? 'o' : 's'}.${r.est_revision}.${r.pricing_revision}`;
+}
+
+/**
+ * Only the key of GET /api/jobs/:id/estimate, in one prepared statement: the session row, the job
+ * under findJob's access rule, the estimate's revision and the workshop's pricing revision. A read
+ * that holds an answer made for this key sends it without reading the lines.
+ */
+export async function readEstimateKey(claims: TokenClaims, jobId: string): Promise<EstimateKeyRow | undefined> {
+  const rows = await preparedRows<EstimateKeyRow>(
+    boundSequelize(),
+    'estimate-key',
+    `WITH s AS (${SESSION_SQL})
+     SELECT s.*, jb.id AS j_id, e.revision AS est_revision, w.pricing_revision
+       FROM s ${jobInSessionSql('$3')}
+       JOIN workshops w ON w.id = s."workshopId"
+       LEFT JOIN estimates e ON e.job_id = jb.id AND e.workshop_id = s."workshopId"`,
+    [claims.sub, claims.sid, jobId],
+  );
+  return rows[0];
+}
+
+type EstimateReadRow = EstimateKeyRow & {
   est_version: number | null;
   vat_rates: WorkshopDto['vatRates'];
   settings: Record<string, unknown> | null;
@@ -178,14 +215,18 @@ const STAGE_ORDER = `coalesce(array_position(ARRAY[${ESTIMATE_STAGES.map((x) => 
  * ./shared's engine exactly as estimateDto does; the same answer, field by field.
  *
  * Returns null (the caller takes the ordinary path) for a job whose estimate row does not exist
- * yet: that read inserts it.
+ * yet: that read inserts it. `key` is the answer's key (estimateAnswerKey) read in the same
+ * statement, so an answer kept under it was made from exactly the rows that key stands for.
  */
-export async function readEstimateSignedIn(claims: TokenClaims, jobId: string): Promise<{ session: SessionRow | undefined; answer: () => EstimateDto } | null> {
+export async function readEstimateSignedIn(
+  claims: TokenClaims,
+  jobId: string,
+): Promise<{ session: SessionRow | undefined; key: string | null; answer: () => EstimateDto } | null> {
   const rows = await preparedRows<EstimateReadRow>(
     boundSequelize(),
     'estimate-read',
     `WITH s AS (${SESSION_SQL})
-     SELECT s.*, jb.id AS j_id, e.version AS est_version, w.vat_rates, w.settings,
+     SELECT s.*, jb.id AS j_id, e.version AS est_version, e.revision AS est_revision, w.pricing_revision, w.vat_rates, w.settings,
             CASE WHEN jb.id IS NULL THEN '[]'::json ELSE coalesce((SELECT json_agg(${LINE_JSON} ORDER BY ${STAGE_ORDER}, l.sort_order, l.id)
                FROM estimate_lines l WHERE l.job_id = jb.id AND l.workshop_id = s."workshopId"), '[]'::json) END AS lines,
             CASE WHEN jb.id IS NULL THEN '[]'::json ELSE coalesce((SELECT json_agg(${TASK_JSON} ORDER BY a.sort_order, a.id)
@@ -201,6 +242,8 @@ export async function readEstimateSignedIn(claims: TokenClaims, jobId: string): 
   if (r?.j_id && r.est_version === null) return null;
   return {
     session: r,
+    // The key of this answer, from the same snapshot as its lines.
+    key: r ? estimateAnswerKey(r) : null,
     answer: () => {
       if (!r?.j_id || r.est_version === null) throw notFound('That job');
       const lines: EstimateLineDto[] = [];
