@@ -34,3 +34,22 @@ console.log(`profile ${file}: ${(total / 1e6).toFixed(1)} s sampled\n\nself time
 for (const [k, v] of [...pkgTotals].sort((a, b) => b[1] - a[1]).slice(0, top)) console.log(`${pct(v)}  ${k}`);
 console.log('\nself time by function:');
 for (const [k, v] of [...fnTotals].sort((a, b) => b[1] - a[1]).slice(0, top)) console.log(`${pct(v)}  ${k}`);
+
+// Inclusive time (the function and everything it called), counted once per sample even when the
+// function recurses: where a middleware's whole cost shows, e.g. pino-http's finish handler.
+const parent = new Map();
+for (const n of prof.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
+const incl = new Map();
+for (const [id, us] of self) {
+  const seen = new Set();
+  for (let at = id; at !== undefined; at = parent.get(at)) {
+    const cf = byId.get(at).callFrame;
+    if (!cf.url) continue;
+    const key = `${cf.functionName || '(anonymous)'}  ${pkgOf(cf.url)}:${cf.lineNumber + 1}`;
+    if (seen.has(key)) continue;
+    seen.add(key);
+    incl.set(key, (incl.get(key) ?? 0) + us);
+  }
+}
+console.log('\ninclusive time by function (outside node core):');
+for (const [k, v] of [...incl].filter(([k]) => !k.includes('node core')).sort((a, b) => b[1] - a[1]).slice(0, top * 2)) console.log(`${pct(v)}  ${k}`);

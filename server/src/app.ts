@@ -4,7 +4,7 @@ import path from 'node:path';
 import express, { type Express } from 'express';
 import compression from 'compression';
 import cookieParser from 'cookie-parser';
-import helmet from 'helmet';
+import helmet, { type HelmetOptions } from 'helmet';
 import { pinoHttp } from 'pino-http';
 import type { Logger } from 'pino';
 import type { Sequelize } from 'sequelize';
@@ -66,6 +66,56 @@ export function inlineScriptHashes(files: string[]): string[] {
   return [...hashes];
 }
 
+/** Helmet's settings for every response: the policy allows our own files and the pages' hashed inline scripts. */
+export function helmetOptions(config: Config): HelmetOptions {
+  return {
+    contentSecurityPolicy: {
+      useDefaults: false,
+      directives: {
+        defaultSrc: ["'self'"],
+        scriptSrc: ["'self'", ...inlineScriptHashes([path.join(config.CLIENT_DIST, 'decide.html'), path.join(config.CLIENT_DIST, 'index.html')])],
+        // React's style={} props become inline style attributes.
+        styleSrc: ["'self'", "'unsafe-inline'"],
+        fontSrc: ["'self'", 'data:'],
+        imgSrc: ["'self'", 'data:', 'blob:'],
+        connectSrc: ["'self'"],
+        objectSrc: ["'none'"],
+        baseUri: ["'self'"],
+        formAction: ["'self'"],
+        frameAncestors: ["'none'"],
+        // Only where the app is served over https: the local demo runs production code on plain http.
+        ...(config.APP_URL.startsWith('https:') ? { upgradeInsecureRequests: [] } : {}),
+      },
+    },
+    hsts: config.APP_URL.startsWith('https:'),
+  };
+}
+
+/**
+ * Helmet's headers, worked out once by helmet itself and set on every response. None of ours depends
+ * on the request (no nonce, no function in the policy), so each response gets the same values; the
+ * difference is that helmet runs its twelve middlewares one after another on every request, and this
+ * sets the same list in one step. `server/test/hot-read-headers.test.ts` holds the two byte for byte.
+ */
+export function securityHeaders(config: Config): express.RequestHandler {
+  const set: [string, string][] = [];
+  const removed: string[] = [];
+  const recorder = {
+    setHeader: (name: string, value: string) => void set.push([name, String(value)]),
+    removeHeader: (name: string) => void removed.push(name),
+  };
+  let failed: unknown = null;
+  helmet(helmetOptions(config))({} as express.Request, recorder as unknown as express.Response, (err?: unknown) => {
+    failed = err ?? null;
+  });
+  if (failed) throw failed instanceof Error ? failed : new Error(String(failed));
+  return (_req, res, next) => {
+    for (const name of removed) res.removeHeader(name);
+    for (const [name, value] of set) res.setHeader(name, value);
+    next();
+  };
+}
+
 export function createApp(parts: AppParts): Express {
   const { config, logger, sequelize } = parts;
   const deps: Deps = { config, mail: parts.mail, logger, photos: parts.photos };
@@ -76,6 +126,12 @@ export function createApp(parts: AppParts): Express {
   app.set('query parser', 'extended');
   // Local only: the app listens on 127.0.0.1 behind nothing. Behind a proxy, set this to its hop count.
   app.set('trust proxy', false);
+  // No ETag on bodies sent with res.send/res.json: every one of them is sent with
+  // `Cache-Control: no-store` (the API, the decision page's first view), so no browser ever comes
+  // back with If-None-Match, and the SHA-1 of each body (and the copy it needs) was pure cost on
+  // every answer. Static files keep theirs (express.static makes its own), and so does the app shell
+  // (see `page` below).
+  app.set('etag', false);
 
   app.use(
     pinoHttp({
@@ -95,29 +151,7 @@ export function createApp(parts: AppParts): Express {
       autoLogging: { ignore: (req) => req.url === '/api/health' },
     }),
   );
-  app.use(
-    helmet({
-      contentSecurityPolicy: {
-        useDefaults: false,
-        directives: {
-          defaultSrc: ["'self'"],
-          scriptSrc: ["'self'", ...inlineScriptHashes([path.join(config.CLIENT_DIST, 'decide.html'), path.join(config.CLIENT_DIST, 'index.html')])],
-          // React's style={} props become inline style attributes.
-          styleSrc: ["'self'", "'unsafe-inline'"],
-          fontSrc: ["'self'", 'data:'],
-          imgSrc: ["'self'", 'data:', 'blob:'],
-          connectSrc: ["'self'"],
-          objectSrc: ["'none'"],
-          baseUri: ["'self'"],
-          formAction: ["'self'"],
-          frameAncestors: ["'none'"],
-          // Only where the app is served over https: the local demo runs production code on plain http.
-          ...(config.APP_URL.startsWith('https:') ? { upgradeInsecureRequests: [] } : {}),
-        },
-      },
-      hsts: config.APP_URL.startsWith('https:'),
-    }),
-  );
+  app.use(securityHeaders(config));
   // The processor signs the exact bytes it sent: its webhook reads the raw body, before any JSON parser.
   app.use('/api/webhooks', webhooksRoutes(deps));
 
@@ -182,9 +216,16 @@ export function createApp(parts: AppParts): Express {
     // Vite names built assets by content hash, so they may be cached for good; the pages may not.
     app.use('/assets', express.static(path.join(config.CLIENT_DIST, 'assets'), { immutable: true, maxAge: '365d', fallthrough: false }));
     app.use(express.static(config.CLIENT_DIST, { index: false, maxAge: '1h' }));
-    const page = (file: string) => (_req: express.Request, res: express.Response) => {
-      res.setHeader('Cache-Control', 'no-cache');
-      res.sendFile(file);
+    // The app shell is revalidated on every visit (no-cache), so it keeps its ETag, the same weak tag
+    // of size and modification time express.static gives files: with the app's ETags off, sendFile
+    // makes none itself, but it still answers 304 to a matching If-None-Match.
+    const page = (file: string) => (_req: express.Request, res: express.Response, next: express.NextFunction) => {
+      fs.stat(file, (err, stat) => {
+        if (err) return next(err);
+        res.setHeader('Cache-Control', 'no-cache');
+        res.setHeader('ETag', `W/"${stat.size.toString(16)}-${stat.mtime.getTime().toString(16)}"`);
+        res.sendFile(file);
+      });
     };
     // The e-mailed link, /decide/<token>, opens the decision page on its own, its first view
     // rendered on the server when the build has the renderer (routes/decide-page.routes.ts).
