@@ -6,6 +6,7 @@ import { AppError, forbidden, unauthenticated } from '../errors/app-error.js';
 import { CSRF_HEADER, SESSION_COOKIE, csrfFor, safeEqual, verifySession } from '../lib/session-tokens.js';
 import { boundSequelize } from '../models/index.js';
 import { preparedRows } from '../db/prepared.js';
+import { JsonText } from '../lib/json-text.js';
 import type { Scope } from '../services/scope.js';
 import type { SessionUser, SessionWorkshop } from '../services/dto.js';
 import { SESSION_SQL, type SessionRow } from '../services/session-row.js';
@@ -123,6 +124,8 @@ export function signedInRead<S extends z.ZodType>(
     if (!got) return next();
     const auth = acceptSession(claims, got.session, roles);
     req.auth = auth;
-    res.json(got.answer(auth));
+    const answer = got.answer(auth);
+    if (answer instanceof JsonText) res.type('application/json').send(answer.text);
+    else res.json(answer);
   };
 }

@@ -24,7 +24,9 @@ import { findJob, jobInSessionSql, scopedInclude, viewJob, type JobRow, type Job
 import { SESSION_SQL, type SessionRow } from './session-row.js';
 import type { TokenClaims } from '../lib/session-tokens.js';
 import { applyTemplate, ensureEstimate, unagreedQuoteLines } from './estimates.service.js';
-import { decisionsToSee, decisionsToSeeSql, toSeeOf } from './approvals/repository.js';
+import { decisionsToSee, decisionsToSeeSql } from './approvals/repository.js';
+import { JsonText } from '../lib/json-text.js';
+import { isoTimestampSql } from '../db/sql-json.js';
 import { moveJob } from './job-state.js';
 import { releaseBlockers } from './findings.service.js';
 import { cancelWaitingDepositsOfJob } from './deposits.service.js';
@@ -109,26 +111,33 @@ export async function getJob(scope: Scope, id: string): Promise<JobDto> {
   return toDto(job, await unseenFor(scope, [job.id]));
 }
 
-type JobReadRow = SessionRow & {
-  j_id: string | null; number: string; aircraft_id: string; title: string; type: JobDto['type']; state: JobState; booked_in_on: string;
-  due_on: string | null; notes: string; scope_cautions: JobDto['scopeCautions'] | null; version: number; created_at: Date; updated_at: Date;
-  registration: string; aircraft_type: string; customer_id: string; customer_name: string;
-  to_see: Parameters<typeof toSeeOf>[0] | null;
-};
+type JobReadRow = SessionRow & { j_id: string | null; answer: string | null };
+
+/**
+ * The job answer (JobDto) written by PostgreSQL as JSON text, so Node neither parses its columns nor
+ * serialises it again: the route sends these bytes. Field for field what getJob answers
+ * (reads-one-statement.test.ts compares the two); dates as toISOString writes them.
+ */
+const JOB_ANSWER_SQL = `json_build_object(
+    'id', jb.id, 'number', jb.number, 'aircraftId', jb.aircraft_id, 'registration', jb.registration,
+    'aircraftType', jb.aircraft_type, 'customerId', jb.customer_id, 'customerName', jb.customer_name,
+    'title', jb.title, 'type', jb.type, 'state', jb.state, 'bookedInOn', jb.booked_in_on, 'dueOn', jb.due_on,
+    'notes', jb.notes, 'scopeCautions', coalesce(jb.scope_cautions, '[]'::jsonb), 'version', jb.version,
+    'createdAt', ${isoTimestampSql('jb.created_at')}, 'updatedAt', ${isoTimestampSql('jb.updated_at')},
+    'decisionsToSee', CASE WHEN s.role <> 'owner' THEN ${decisionsToSeeSql('jb.id')} END
+  )::text`;
 
 /**
  * GET /api/jobs/:id in one statement: the session check (SESSION_SQL), the job under findJob's
  * access rule with its aircraft and owner, and for staff the decisions nobody has marked seen.
- * The same answer as getJob; the answer is made only after the session is accepted.
+ * The same answer as getJob, as JSON text made by PostgreSQL; it is sent only after the session is accepted.
  */
-export async function readJobSignedIn(claims: TokenClaims, id: string): Promise<{ session: SessionRow | undefined; answer: () => JobDto }> {
+export async function readJobSignedIn(claims: TokenClaims, id: string): Promise<{ session: SessionRow | undefined; answer: () => JsonText }> {
   const rows = await preparedRows<JobReadRow>(
     boundSequelize(),
     'job-read',
     `WITH s AS (${SESSION_SQL})
-     SELECT s.*, jb.id AS j_id, jb.number, jb.aircraft_id, jb.title, jb.type, jb.state, jb.booked_in_on, jb.due_on, jb.notes, jb.scope_cautions,
-            jb.version, jb.created_at, jb.updated_at, jb.registration, jb.aircraft_type, jb.customer_id, jb.customer_name,
-            CASE WHEN s.role <> 'owner' AND jb.id IS NOT NULL THEN ${decisionsToSeeSql('jb.id')} END AS to_see
+     SELECT s.*, jb.id AS j_id, CASE WHEN jb.id IS NOT NULL THEN ${JOB_ANSWER_SQL} END AS answer
        FROM s ${jobInSessionSql('$3')}`,
     [claims.sub, claims.sid, id],
   );
@@ -136,27 +145,8 @@ export async function readJobSignedIn(claims: TokenClaims, id: string): Promise<
   return {
     session: r,
     answer: () => {
-      if (!r?.j_id) throw notFound('That job');
-      return {
-        id: r.j_id,
-        number: r.number,
-        aircraftId: r.aircraft_id,
-        registration: r.registration,
-        aircraftType: r.aircraft_type,
-        customerId: r.customer_id,
-        customerName: r.customer_name,
-        title: r.title,
-        type: r.type,
-        state: r.state,
-        bookedInOn: r.booked_in_on,
-        dueOn: r.due_on,
-        notes: r.notes,
-        scopeCautions: r.scope_cautions ?? [],
-        version: r.version,
-        createdAt: r.created_at.toISOString(),
-        updatedAt: r.updated_at.toISOString(),
-        decisionsToSee: r.to_see ? toSeeOf(r.to_see) : null,
-      };
+      if (!r?.j_id || r.answer === null) throw notFound('That job');
+      return new JsonText(r.answer);
     },
   };
 }

@@ -1,4 +1,5 @@
 import { Op, QueryTypes, type Transaction } from 'sequelize';
+import { isoTimestampSql } from '../../db/sql-json.js';
 import { APPROVAL_REQUEST_STATES, assertRequestMove, type ApprovalRequestState, type Decision, type JobDecisionsToSee } from '@wingstage/shared';
 import { ApprovalRequest, boundSequelize } from '../../models/index.js';
 
@@ -138,20 +139,16 @@ export async function decisionsToSee(jobIds: string[]): Promise<Map<string, JobD
   return map;
 }
 
-type ToSeeRow = { requests: string | number; declined_aw: boolean; note: boolean; last_at: Date | string };
-
-export function toSeeOf(r: ToSeeRow): JobDecisionsToSee {
-  return { requests: Number(r.requests), declinedAirworthiness: !!r.declined_aw, ownerNote: !!r.note, lastDecidedAt: new Date(r.last_at).toISOString() };
-}
-
 /**
- * decisionsToSee for one job, as a JSON subquery on a job id expression for a one-statement read
- * (NULL when nothing waits; read it with toSeeOf). The same aggregate as decisionsToSee's, kept
- * beside it; reads-one-statement.test.ts compares the two answers.
+ * decisionsToSee for one job as a JSON subquery on a job id expression, already in
+ * JobDecisionsToSee's shape (lastDecidedAt as toISOString writes it), for a one-statement read:
+ * NULL when nothing waits. The same aggregate as decisionsToSee's, kept beside it;
+ * reads-one-statement.test.ts compares the two answers.
  */
 export function decisionsToSeeSql(jobExpr: string): string {
-  return `(SELECT row_to_json(x) FROM (
-      SELECT count(DISTINCT r.id) AS requests,
+  return `(SELECT json_build_object('requests', x.requests, 'declinedAirworthiness', coalesce(x.declined_aw, false),
+                                   'ownerNote', coalesce(x.note, false), 'lastDecidedAt', ${isoTimestampSql('x.last_at')}) FROM (
+      SELECT count(DISTINCT r.id)::int AS requests,
              bool_or(d.decision = 'decline' AND f.category = 'airworthiness') AS declined_aw,
              bool_or(coalesce(d.note, '') <> '') AS note,
              max(r.decided_at) AS last_at
