@@ -2,7 +2,7 @@ import type { Config } from './config/config.js';
 import { createSequelize } from './db/sequelize.js';
 import { createLogger } from './lib/logger.js';
 import { MailQueue } from './mail/mail-queue.js';
-import { initModels } from './models/index.js';
+import { initModels, releaseModels } from './models/index.js';
 import { PasswordHasher, defaultPasswordThreads } from './lib/passwords.js';
 import { closeDocumentRenderer } from './documents/renderer.js';
 import type { AppParts } from './app.js';
@@ -39,4 +39,5 @@ export async function stopParts(parts: AppParts): Promise<void> {
   await parts.passwords.close();
   await closeDocumentRenderer();
   await parts.sequelize.close();
+  releaseModels(parts.sequelize);
 }

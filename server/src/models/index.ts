@@ -67,6 +67,15 @@ export function initModels(sequelize: Sequelize): void {
   bound = sequelize;
 }
 
+/**
+ * Lets the models go once their connection has closed (stopParts), so the same process can bind them
+ * to a new one later: the API tests start and stop one server per file in one process. Binding while
+ * another live connection holds them still throws.
+ */
+export function releaseModels(sequelize: Sequelize): void {
+  if (bound === sequelize) bound = null;
+}
+
 export function boundSequelize(): Sequelize {
   if (!bound) throw new Error('initModels() has not been called.');
   return bound;
