@@ -4,9 +4,10 @@ import { defineConfig } from 'vitest/config';
 export default defineConfig({
   test: {
     projects: ['shared', 'server', 'server/vitest.alone.config.ts', 'client', 'lint', 'docker-free-scripts/stripe-fake'],
-    // Two workers for every project, in one pool: the server's files spend most of their time
-    // waiting on PostgreSQL, bcrypt and mail, so the client's and shared's files fill the gaps
-    // (vitest's default here would be one worker, the cores less one).
-    maxWorkers: 2,
+    // Three workers for every project, in one pool, on two cores: the server's files spend most of
+    // their time waiting on PostgreSQL, bcrypt and mail, so a third file fills the gaps (vitest's
+    // default here would be one worker, the cores less one). Same machine, minutes apart, quiet:
+    // the vitest stage took 313 s with two workers and 279 s with three, every test passing.
+    maxWorkers: 3,
   },
 });

@@ -25,6 +25,6 @@ export default defineConfig({
     // `server-alone` project, isolated.
     isolate: false,
     // The same as the root config's, so the server's files share one pool with the other projects'.
-    maxWorkers: 2,
+    maxWorkers: 3,
   },
 });
