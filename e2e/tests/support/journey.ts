@@ -7,7 +7,15 @@ export const PHONE = { width: 375, height: 812 };
 export const DESKTOP = { width: 1280, height: 900 };
 
 /** Saved under the test's output and attached to the report. `fullPage: false` keeps what a phone shows. */
+/**
+ * Whether the journeys save their screenshots: yes by default, no on CI (`CI` set, as `.ci/run`
+ * does), where nobody opens them and the PNG encoding costs the browser stage CPU; `E2E_SHOTS=1` or
+ * `E2E_SHOTS=0` decides either way. A failing test still gets its screenshot and trace (config).
+ */
+const SHOTS = process.env.E2E_SHOTS ? process.env.E2E_SHOTS === '1' : !process.env.CI;
+
 export async function shot(page: Page, testInfo: TestInfo, name: string, fullPage = true): Promise<void> {
+  if (!SHOTS) return;
   const path = testInfo.outputPath(`${name}.png`);
   await page.screenshot({ path, fullPage });
   await testInfo.attach(name, { path, contentType: 'image/png' });
